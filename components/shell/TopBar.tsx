@@ -1,0 +1,19 @@
+import Link from "next/link";
+
+/** The quiet bar above every page: the product name and the main places. */
+export function TopBar() {
+  return (
+    <header className="no-print border-b border-hairline bg-white">
+      <nav className="mx-auto flex h-12 max-w-screen-2xl items-center gap-6 px-4 text-sm" aria-label="Main">
+        <Link href="/" className="flex items-center gap-2 font-semibold tracking-tight text-ink">
+          <svg aria-hidden viewBox="0 0 32 32" className="h-6 w-6">
+            <rect width="32" height="32" rx="6" fill="#0F766E" />
+            <path d="M6 20 h5 l3 -9 l4 14 l3 -5 h5" fill="none" stroke="#F7F5F0" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round" />
+          </svg>
+          Quell
+        </Link>
+        <Link href="/scenarios" className="text-ink-muted hover:text-ink">Scenarios</Link>
+      </nav>
+    </header>
+  );
+}

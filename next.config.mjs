@@ -1,0 +1,10 @@
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  // The test command builds into its own folder so a running `npm start` keeps its build.
+  distDir: process.env.QUELL_DIST_DIR || ".next",
+  serverExternalPackages: ["knex", "pg", "bcryptjs", "nodemailer"],
+  poweredByHeader: false,
+  reactStrictMode: true,
+};
+
+export default nextConfig;

@@ -1,0 +1,31 @@
+import { chromium, type Browser, type Page } from "playwright-core";
+
+/** The server the test command started (a production build on a free port). */
+export const BASE_URL = process.env.QUELL_BASE_URL ?? "http://127.0.0.1:3000";
+
+/** Debian's Chromium through playwright-core; the flags keep it off the network this machine does not have. */
+export async function launch(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.QUELL_CHROMIUM ?? "/usr/bin/chromium",
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
+  });
+}
+
+/** Collects console errors and failed requests so a test can assert the page ran clean. */
+export function watchErrors(page: Page): string[] {
+  const errors: string[] = [];
+  page.on("console", (m) => {
+    if (m.type() === "error") errors.push(m.text());
+  });
+  page.on("pageerror", (e) => errors.push(e.message));
+  return errors;
+}
