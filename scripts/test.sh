@@ -16,7 +16,7 @@ seed >/dev/null
 QUELL_SMTP_PORT=$(free_port); export QUELL_SMTP_PORT
 PORT=$(free_port); export PORT
 export QUELL_BASE_URL="http://127.0.0.1:$PORT"
-RESULTS="$QUELL_DATA/test-results"; mkdir -p "$RESULTS"; rm -f "$RESULTS"/*.json
+RESULTS="$QUELL_DATA/test-results-$QUELL_DB"; mkdir -p "$RESULTS"; rm -f "$RESULTS"/*.json
 
 pids=()
 cleanup() {
@@ -26,7 +26,7 @@ cleanup() {
 }
 trap cleanup INT TERM EXIT
 
-node --import tsx db/mail-fake.ts >"$QUELL_DATA/mail-test.log" 2>&1 & pids+=($!)
+node --import tsx db/mail-fake.ts >"$QUELL_DATA/mail-$QUELL_DB.log" 2>&1 & pids+=($!)
 wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
 status=0
@@ -43,12 +43,13 @@ if [ ! -x /usr/bin/chromium ]; then
 fi
 
 say "end-to-end tests"
-NODE_ENV=production build_if_stale .next-test
-NODE_ENV=production QUELL_DIST_DIR=.next-test npx next start -p "$PORT" -H 127.0.0.1 >"$QUELL_DATA/app-test.log" 2>&1 & pids+=($!)
+DIST="${QUELL_TEST_DIST:-.next-test}"
+NODE_ENV=production build_if_stale "$DIST"
+NODE_ENV=production QUELL_DIST_DIR="$DIST" npx next start -p "$PORT" -H 127.0.0.1 >"$QUELL_DATA/app-$QUELL_DB.log" 2>&1 & pids+=($!)
 if wait_http "$QUELL_BASE_URL/api/health"; then
   npx vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile="$RESULTS/e2e.json" || status=1
 else
-  say "the app did not answer; its log:"; tail -40 "$QUELL_DATA/app-test.log"; status=1
+  say "the app did not answer; its log:"; tail -40 "$QUELL_DATA/app-$QUELL_DB.log"; status=1
 fi
 
 node -e '
