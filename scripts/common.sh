@@ -10,7 +10,8 @@ ensure_deps() {
   local stamp=node_modules/.package-lock.json
   if [ ! -d node_modules ] || [ ! -f "$stamp" ] || [ package-lock.json -nt "$stamp" ] || [ package.json -nt "$stamp" ]; then
     say "installing npm dependencies"
-    if [ -f package-lock.json ]; then npm ci --no-audit --no-fund --loglevel=error; else npm install --no-audit --no-fund --loglevel=error; fi
+    # --include=dev: the build, the migrations (tsx) and the tests need the dev dependencies, whatever NODE_ENV says.
+    if [ -f package-lock.json ]; then npm ci --include=dev --no-audit --no-fund --loglevel=error; else npm install --include=dev --no-audit --no-fund --loglevel=error; fi
   fi
 }
 

@@ -2,7 +2,6 @@
 # The start command: set up everything on a fresh machine, then serve Quell on http://localhost:$PORT.
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 export PORT="${PORT:-3000}"
-export NODE_ENV=production
 
 ensure_deps
 bash db/pg.sh start "$QUELL_DB"
@@ -22,8 +21,8 @@ trap cleanup INT TERM EXIT
 node --import tsx db/mail-fake.ts & pids+=($!)
 wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
-build_if_stale .next
-QUELL_DIST_DIR=.next npx next start -p "$PORT" & pids+=($!)
+NODE_ENV=production build_if_stale .next
+NODE_ENV=production QUELL_DIST_DIR=.next npx next start -p "$PORT" & pids+=($!)
 wait_http "http://127.0.0.1:$PORT/api/health" || { say "the app did not answer"; exit 1; }
 
 cat <<MSG
