@@ -1,0 +1,104 @@
+import { expose } from "comlink";
+import { afterEach, describe, expect, it } from "vitest";
+import { WorkerBridge, isAbortError } from "@/lib/workbench/bridge";
+import { WorkerPool, chunkRanges, poolSize } from "@/lib/workbench/pool";
+
+/** A stand-in for a Web Worker: comlink over a MessageChannel, with terminate() closing the ports. */
+const api = {
+  double: (x: number) => 2 * x,
+  slow: (ms: number) => new Promise<number>((r) => setTimeout(() => r(ms), ms)),
+  fail: () => {
+    throw new Error("no convergence at node sense");
+  },
+};
+type Api = typeof api;
+const open: MessagePort[] = [];
+let terminated = 0;
+function fakeWorker(): Worker {
+  const { port1, port2 } = new MessageChannel();
+  expose(api, port2);
+  open.push(port1, port2);
+  const w = port1 as unknown as Worker & { terminate(): void };
+  w.terminate = () => {
+    terminated += 1;
+    port1.close();
+    port2.close();
+  };
+  return w;
+}
+afterEach(() => {
+  for (const p of open) p.close();
+  open.length = 0;
+  terminated = 0;
+});
+
+describe("WorkerBridge", () => {
+  it("starts the worker lazily, once, and runs jobs in order", async () => {
+    const bridge = new WorkerBridge<Api>(fakeWorker, 0);
+    expect(bridge.starts).toBe(0);
+    const signal = new AbortController().signal;
+    const order: number[] = [];
+    await Promise.all([
+      bridge.run(signal, (w) => w.slow(30)).then((v) => order.push(v)),
+      bridge.run(signal, (w) => w.double(2)).then((v) => order.push(v)),
+    ]);
+    expect(order).toEqual([30, 4]);
+    expect(bridge.starts).toBe(1);
+    bridge.terminate();
+  });
+
+  it("terminates the worker when a running job is aborted and starts a fresh one for the next", async () => {
+    const bridge = new WorkerBridge<Api>(fakeWorker, 0);
+    const ctl = new AbortController();
+    const p = bridge.run(ctl.signal, (w) => w.slow(5_000));
+    setTimeout(() => ctl.abort(), 20);
+    const err = await p.catch((e: unknown) => e);
+    expect(isAbortError(err)).toBe(true);
+    expect(terminated).toBe(1);
+    expect(await bridge.run(new AbortController().signal, (w) => w.double(21))).toBe(42);
+    expect(bridge.starts).toBe(2);
+    bridge.terminate();
+  });
+
+  it("passes the worker's error through", async () => {
+    const bridge = new WorkerBridge<Api>(fakeWorker, 0);
+    await expect(bridge.run(new AbortController().signal, (w) => w.fail())).rejects.toThrow("no convergence");
+    bridge.terminate();
+  });
+
+  it("kills an idle worker after the idle time", async () => {
+    const bridge = new WorkerBridge<Api>(fakeWorker, 30);
+    await bridge.run(new AbortController().signal, (w) => w.double(1));
+    await new Promise((r) => setTimeout(r, 80));
+    expect(terminated).toBe(1);
+  });
+});
+
+describe("WorkerPool", () => {
+  it("runs every task once across the workers and streams each result", async () => {
+    const pool = new WorkerPool<Api>(fakeWorker, 2, 0);
+    const seen: number[] = [];
+    await pool.map(new AbortController().signal, [1, 2, 3, 4, 5], (w, t) => w.double(t), (r) => seen.push(r));
+    expect(seen.sort((a, b) => a - b)).toEqual([2, 4, 6, 8, 10]);
+    pool.terminate();
+  });
+
+  it("stops on cancel with AbortError and delivers nothing after it", async () => {
+    const pool = new WorkerPool<Api>(fakeWorker, 2, 0);
+    const ctl = new AbortController();
+    const seen: number[] = [];
+    const p = pool.map(ctl.signal, [10, 5_000, 5_000, 5_000], (w, t) => w.slow(t), (r) => seen.push(r));
+    setTimeout(() => ctl.abort(), 60);
+    const err = await p.catch((e: unknown) => e);
+    expect(isAbortError(err)).toBe(true);
+    expect(seen).toEqual([10]);
+    pool.terminate();
+  });
+
+  it("sizes from hardwareConcurrency and splits ranges", () => {
+    expect(poolSize(2)).toBe(2);
+    expect(poolSize(undefined)).toBe(2);
+    expect(poolSize(64)).toBe(8);
+    expect(chunkRanges(10, 4)).toEqual([[0, 4], [4, 8], [8, 10]]);
+  });
+});
