@@ -1,0 +1,324 @@
+/**
+ * Oscilloscope CSV exports → a time column and scaled channels in SI units.
+ *
+ * Accepts what bench scopes and their PC software write: a preamble of settings lines, a header row of column
+ * names (units in brackets or after a slash), optionally a separate units row, then numeric rows of time plus one or
+ * more channels; comma, semicolon or tab delimited (decimal commas with semicolon or tab). The parser is strict on the
+ * data block: a row with the wrong number of fields, a cell that is not a number or time that does not increase is an
+ * error naming the line, and nothing is returned. Pure; runs in the browser (preview) and on the server (upload).
+ */
+import Papa from "papaparse";
+import { isUnitsRow, parseUnit, splitHeading, type BaseUnit } from "./units";
+
+/** Largest file accepted, bytes. */
+export const MAX_TRACE_BYTES = 8 * 1024 * 1024;
+/** Most data rows accepted. */
+export const MAX_TRACE_ROWS = 250_000;
+/** Fewest data rows that make a step response. */
+export const MIN_TRACE_ROWS = 16;
+/** Most channels (columns after time). */
+export const MAX_TRACE_CHANNELS = 8;
+
+export interface ChannelOption {
+  /** Display name; defaults to the header. */
+  name?: string;
+  /** Unit of the value as written when the file does not say it ("V", "mV", "A", "mA"). */
+  sourceUnit?: string;
+  /** Multiplier applied after the unit prefix, e.g. a current probe's A/V or 1/Rsense to turn volts into amps. */
+  scale?: number;
+  /** Unit after scaling; defaults to the source unit's base (V or A). */
+  unit?: string;
+}
+
+export interface TraceParseOptions {
+  /** Time unit when the file does not say it, or to override it ("s", "ms", "µs", "us", "ns"). */
+  timeUnit?: string;
+  /** Per-channel settings, in column order after time. */
+  channels?: ChannelOption[];
+  maxBytes?: number;
+  maxRows?: number;
+}
+
+export interface ParsedChannel {
+  name: string;
+  /** Unit after scaling. */
+  unit: string;
+  /** Unit as written in the file (or given by the user). */
+  sourceUnit: string;
+  /** Total factor from the number in the file to the stored value (prefix × user scale). */
+  scale: number;
+  values: Float64Array;
+}
+
+export interface ParsedTrace {
+  /** Seconds. */
+  time: Float64Array;
+  channels: ParsedChannel[];
+  delimiter: string;
+  /** 1-based line of the first data row. */
+  firstDataLine: number;
+  /** Settings lines above the header, as written (at most 40). */
+  preamble: string[];
+  warnings: string[];
+}
+
+export interface TraceProblem {
+  /** 1-based line in the file; 0 for the file as a whole. */
+  line: number;
+  message: string;
+}
+
+/** The file cannot be read as a trace; `problems` name the lines. */
+export class TraceParseError extends Error {
+  readonly problems: TraceProblem[];
+  constructor(problems: TraceProblem[]) {
+    const first = problems[0];
+    const where = first.line > 0 ? `line ${first.line}: ` : "";
+    const more = problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? "s" : ""})` : "";
+    super(`${where}${first.message}${more}`);
+    this.name = "TraceParseError";
+    this.problems = problems;
+  }
+}
+
+export function isTraceParseError(e: unknown): e is TraceParseError {
+  return e instanceof TraceParseError;
+}
+
+const MAX_PROBLEMS = 10;
+const NUMERIC = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+const NUMERIC_COMMA = /^[+-]?\d+,\d+(?:[eE][+-]?\d+)?$/;
+
+function byteLength(text: string): number {
+  return new TextEncoder().encode(text).length;
+}
+
+function trimTrailingEmpty(cells: string[]): string[] {
+  let n = cells.length;
+  while (n > 0 && cells[n - 1].trim() === "") n--;
+  return n === cells.length ? cells : cells.slice(0, n);
+}
+
+/** Pick the delimiter that splits the last lines of the file into the same number (≥ 2) of fields. */
+function detectDelimiter(lines: string[]): string | null {
+  const tail: string[] = [];
+  for (let i = lines.length - 1; i >= 0 && tail.length < 20; i--) if (lines[i].trim() !== "") tail.push(lines[i]);
+  for (const d of ["\t", ";", ","]) {
+    const counts = tail.map((l) => l.replace(new RegExp(`${d === "\t" ? "\\t" : d}+\\s*$`), "").split(d).length);
+    // The most common field count must be ≥ 2 and hold for most lines (a broken row must not hide the delimiter).
+    const freq = new Map<number, number>();
+    for (const c of counts) freq.set(c, (freq.get(c) ?? 0) + 1);
+    let mode = 0;
+    let modeCount = 0;
+    for (const [c, f] of freq) if (f > modeCount) { mode = c; modeCount = f; }
+    // A comma also appears in decimal-comma files; the semicolon and tab are tried first.
+    if (mode >= 2 && modeCount >= 0.75 * counts.length) return d;
+  }
+  return null;
+}
+
+/**
+ * Parse an oscilloscope CSV export. Throws `TraceParseError` (naming the line and the problem) when the file
+ * cannot be read; returns the time column in seconds and each channel scaled to SI units.
+ */
+export function parseTraceCsv(text: string, options: TraceParseOptions = {}): ParsedTrace {
+  const maxBytes = options.maxBytes ?? MAX_TRACE_BYTES;
+  const maxRows = options.maxRows ?? MAX_TRACE_ROWS;
+  if (text.length > maxBytes || (text.length * 3 > maxBytes && byteLength(text) > maxBytes)) {
+    throw new TraceParseError([
+      { line: 0, message: `the file is ${(byteLength(text) / 1048576).toFixed(1)} MB; the limit is ${(maxBytes / 1048576).toFixed(1)} MB` },
+    ]);
+  }
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  if (body.trim() === "") throw new TraceParseError([{ line: 0, message: "the file is empty" }]);
+
+  const rawLines = body.split(/\r\n|\n|\r/);
+  const delimiter = detectDelimiter(rawLines);
+  if (!delimiter) {
+    throw new TraceParseError([
+      { line: rawLines.length, message: "no column delimiter found: expected a time column and at least one channel separated by commas, semicolons or tabs" },
+    ]);
+  }
+  const decimalComma = delimiter !== ",";
+
+  // One line per row: with quotes only around single-line headings, papaparse's row index is the line index.
+  const parsed = Papa.parse<string[]>(body, { delimiter, skipEmptyLines: false, header: false, dynamicTyping: false });
+  const rows = parsed.data;
+  const problems: TraceProblem[] = [];
+  for (const err of parsed.errors) {
+    if (err.type === "Quotes" && problems.length < MAX_PROBLEMS) {
+      problems.push({ line: (err.row ?? 0) + 1, message: err.message });
+    }
+  }
+  if (problems.length) throw new TraceParseError(problems);
+
+  const toNumber = (cell: string): number | null => {
+    const s = cell.trim();
+    if (NUMERIC.test(s)) return Number(s);
+    if (decimalComma && NUMERIC_COMMA.test(s)) return Number(s.replace(",", "."));
+    return null;
+  };
+  const isNumericRow = (cells: string[]) => cells.length >= 2 && cells.every((c) => toNumber(c) !== null);
+
+  // The data block starts at the first numeric row followed by numeric rows of the same width.
+  let start = -1;
+  let width = 0;
+  for (let i = 0; i < rows.length && start < 0; i++) {
+    const cells = trimTrailingEmpty(rows[i]);
+    if (!isNumericRow(cells)) continue;
+    let ok = false;
+    for (let j = i + 1; j < rows.length; j++) {
+      const next = trimTrailingEmpty(rows[j]);
+      if (next.length === 0) continue;
+      ok = next.length === cells.length && isNumericRow(next);
+      break;
+    }
+    if (ok) { start = i; width = cells.length; }
+  }
+  if (start < 0) {
+    throw new TraceParseError([
+      { line: 0, message: "no block of numeric rows found: expected a time column and at least one channel" },
+    ]);
+  }
+  if (width - 1 > MAX_TRACE_CHANNELS) {
+    throw new TraceParseError([
+      { line: start + 1, message: `${width - 1} channels; at most ${MAX_TRACE_CHANNELS} are accepted` },
+    ]);
+  }
+
+  // Header: the nearest non-empty rows above the data of the same width (names, then perhaps a units row).
+  const above: string[][] = [];
+  let preambleEnd = start;
+  for (let i = start - 1; i >= 0 && above.length < 2; i--) {
+    const cells = trimTrailingEmpty(rows[i]);
+    if (cells.length === 0) { if (above.length === 0) continue; else break; }
+    // A row whose time cell is a number, right above the data, is a broken data row, not a heading: say so.
+    if (above.length === 0 && toNumber(cells[0]) !== null) {
+      if (cells.length !== width) {
+        throw new TraceParseError([{ line: i + 1, message: `expected ${width} fields (time and ${width - 1} channel${width > 2 ? "s" : ""}), found ${cells.length}` }]);
+      }
+      const c = cells.findIndex((x) => toNumber(x) === null);
+      if (c >= 0) throw new TraceParseError([{ line: i + 1, message: `column ${c + 1}: "${cells[c].trim().slice(0, 40)}" is not a number` }]);
+    }
+    if (cells.length !== width || isNumericRow(cells)) break;
+    above.unshift(cells);
+    preambleEnd = i;
+  }
+  let names: string[] | null = null;
+  let unitsRow: string[] | null = null;
+  if (above.length === 2 && isUnitsRow(above[1])) { names = above[0]; unitsRow = above[1]; }
+  else if (above.length >= 1) {
+    const last = above[above.length - 1];
+    if (isUnitsRow(last) && above.length === 1) unitsRow = last;
+    else names = last;
+  }
+  const preamble = rawLines.slice(0, preambleEnd).filter((l) => l.trim() !== "").slice(0, 40);
+
+  const warnings: string[] = [];
+  const columnLabel = (c: number) => {
+    if (names) return splitHeading(names[c]).label || (c === 0 ? "Time" : `CH${c}`);
+    return c === 0 ? "Time" : `CH${c}`;
+  };
+  const columnUnit = (c: number) => {
+    if (unitsRow && unitsRow[c]) { const u = parseUnit(unitsRow[c]); if (u) return u; }
+    if (names) return splitHeading(names[c]).unit;
+    return null;
+  };
+
+  // Time unit: the user's choice wins; else the header; else seconds, with a warning.
+  let timeFactor = 1;
+  if (options.timeUnit) {
+    const u = parseUnit(options.timeUnit);
+    if (!u || u.base !== "s") throw new TraceParseError([{ line: 0, message: `time unit "${options.timeUnit}" is not a time unit (s, ms, µs, ns)` }]);
+    timeFactor = u.factor;
+  } else {
+    const u = columnUnit(0);
+    if (u && u.base === "s") timeFactor = u.factor;
+    else if (u) throw new TraceParseError([{ line: preambleEnd + 1, message: `the first column is in ${u.text}, not a time unit` }]);
+    else warnings.push("the time unit is not in the header: seconds assumed");
+  }
+
+  const nChannels = width - 1;
+  const channelMeta: { name: string; unit: string; sourceUnit: string; scale: number }[] = [];
+  for (let c = 1; c <= nChannels; c++) {
+    const opt = options.channels?.[c - 1] ?? {};
+    let source = columnUnit(c);
+    if (opt.sourceUnit) {
+      const u = parseUnit(opt.sourceUnit);
+      if (!u || u.base === "s") throw new TraceParseError([{ line: 0, message: `channel ${c}: "${opt.sourceUnit}" is not a voltage or current unit` }]);
+      source = u;
+    }
+    const userScale = opt.scale ?? 1;
+    if (!Number.isFinite(userScale) || userScale === 0) {
+      throw new TraceParseError([{ line: 0, message: `channel ${c}: scale factor must be a finite, non-zero number` }]);
+    }
+    const base: BaseUnit | "" = source ? source.base : "";
+    if (!source && opt.scale === undefined) warnings.push(`channel ${c}: unit not in the header, values kept as written`);
+    channelMeta.push({
+      name: opt.name?.trim() || columnLabel(c),
+      unit: opt.unit?.trim() || base || "",
+      sourceUnit: source ? source.text : "",
+      scale: (source ? source.factor : 1) * userScale,
+    });
+  }
+
+  // Data rows.
+  let count = 0;
+  for (let i = start; i < rows.length; i++) if (trimTrailingEmpty(rows[i]).length > 0) count++;
+  if (count > maxRows) {
+    // Name the first line past the limit.
+    let seen = 0;
+    let line = rows.length;
+    for (let i = start; i < rows.length; i++) {
+      if (trimTrailingEmpty(rows[i]).length > 0 && ++seen > maxRows) { line = i + 1; break; }
+    }
+    throw new TraceParseError([{ line, message: `more than ${maxRows.toLocaleString("en")} data rows (the file has ${count.toLocaleString("en")}); the limit is ${maxRows.toLocaleString("en")}` }]);
+  }
+  if (count < MIN_TRACE_ROWS) {
+    throw new TraceParseError([{ line: start + 1, message: `only ${count} data rows; a step response needs at least ${MIN_TRACE_ROWS}` }]);
+  }
+
+  const time = new Float64Array(count);
+  const values = Array.from({ length: nChannels }, () => new Float64Array(count));
+  let k = 0;
+  let prevTime = -Infinity;
+  for (let i = start; i < rows.length && problems.length < MAX_PROBLEMS; i++) {
+    const cells = trimTrailingEmpty(rows[i]);
+    if (cells.length === 0) continue;
+    const line = i + 1;
+    if (cells.length !== width) {
+      problems.push({ line, message: `expected ${width} fields (time and ${nChannels} channel${nChannels > 1 ? "s" : ""}), found ${cells.length}` });
+      k++;
+      continue;
+    }
+    let bad = false;
+    for (let c = 0; c < width; c++) {
+      const v = toNumber(cells[c]);
+      if (v === null || !Number.isFinite(v)) {
+        const label = c === 0 ? "time" : channelMeta[c - 1].name;
+        problems.push({ line, message: `column ${c + 1} (${label}): "${cells[c].trim().slice(0, 40)}" is not a number` });
+        bad = true;
+        break;
+      }
+      if (c === 0) time[k] = v * timeFactor;
+      else values[c - 1][k] = v * channelMeta[c - 1].scale;
+    }
+    if (!bad) {
+      if (!(time[k] > prevTime)) {
+        problems.push({ line, message: `time ${cells[0].trim()} does not increase (the row above is at or after it)` });
+      }
+      prevTime = time[k];
+    }
+    k++;
+  }
+  if (problems.length) throw new TraceParseError(problems);
+
+  return {
+    time,
+    channels: channelMeta.map((m, c) => ({ ...m, values: values[c] })),
+    delimiter,
+    firstDataLine: start + 1,
+    preamble,
+    warnings,
+  };
+}

@@ -1,0 +1,72 @@
+/**
+ * Units found in oscilloscope exports: seconds, volts and amperes with an SI prefix, written short ("ms", "mV", "µA")
+ * or long ("Seconds", "Volt", "milliamps"). Pure; used by the parser and the upload form.
+ */
+
+/** A quantity we know how to scale to SI. */
+export type BaseUnit = "s" | "V" | "A";
+
+export interface ParsedUnit {
+  /** SI base unit. */
+  base: BaseUnit;
+  /** Multiply a value written in this unit by `factor` to get the base unit (ms → 1e-3). */
+  factor: number;
+  /** The unit as written in the file. */
+  text: string;
+}
+
+const SHORT_PREFIX: Record<string, number> = { "": 1, p: 1e-12, n: 1e-9, u: 1e-6, "µ": 1e-6, "μ": 1e-6, m: 1e-3, k: 1e3 };
+const LONG_PREFIX: Record<string, number> = { "": 1, pico: 1e-12, nano: 1e-9, micro: 1e-6, milli: 1e-3, kilo: 1e3 };
+const LONG_BASE: Record<string, BaseUnit> = {
+  s: "s", sec: "s", secs: "s", second: "s", seconds: "s",
+  v: "V", volt: "V", volts: "V",
+  a: "A", amp: "A", amps: "A", ampere: "A", amperes: "A",
+};
+
+const SHORT = /^(p|n|u|µ|μ|m|k)?(s|S|V|v|A|a)$/;
+const LONG = /^(pico|nano|micro|milli|kilo)?(s|sec|secs|seconds?|volts?|v|amps?|amperes?|a)$/i;
+
+/** Read a unit ("ms", "mV", "A", "Volt", "microseconds"); null when it is not a time, voltage or current unit. */
+export function parseUnit(text: string): ParsedUnit | null {
+  const t = text.trim();
+  if (t === "") return null;
+  const short = SHORT.exec(t);
+  if (short) {
+    const base = short[2].toUpperCase() === "S" ? "s" : (short[2].toUpperCase() as BaseUnit);
+    // A lone capital "S" is siemens in SI; scope exports never write it for seconds with a prefix, but "S" alone is common.
+    return { base, factor: SHORT_PREFIX[short[1] ?? ""], text: t };
+  }
+  const long = LONG.exec(t);
+  if (long) {
+    const base = LONG_BASE[long[2].toLowerCase()];
+    if (!base) return null;
+    return { base, factor: LONG_PREFIX[(long[1] ?? "").toLowerCase()], text: t };
+  }
+  return null;
+}
+
+/** Split a column heading into its label and unit: "Time (ms)", "CH1 [mV]", "Time/s", "Current(A)". */
+export function splitHeading(heading: string): { label: string; unit: ParsedUnit | null } {
+  const h = heading.trim().replace(/^"|"$/g, "");
+  const bracket = /^(.*?)\s*[([]\s*([^)\]]+?)\s*[)\]]\s*$/.exec(h);
+  if (bracket) {
+    const unit = parseUnit(bracket[2]);
+    if (unit) return { label: bracket[1] || h, unit };
+  }
+  const slash = /^(.*?)\s*\/\s*([^/\s]+)$/.exec(h);
+  if (slash) {
+    const unit = parseUnit(slash[2]);
+    if (unit) return { label: slash[1] || h, unit };
+  }
+  return { label: h, unit: null };
+}
+
+/** True when every non-empty cell of a row reads as a unit (a separate units row under the names). */
+export function isUnitsRow(cells: string[]): boolean {
+  const filled = cells.map((c) => c.trim()).filter((c) => c !== "");
+  return filled.length > 0 && filled.every((c) => parseUnit(c) !== null);
+}
+
+/** Time units offered in the upload form, with their factor to seconds. */
+export const TIME_UNITS = { s: 1, ms: 1e-3, "µs": 1e-6, ns: 1e-9 } as const;
+export type TimeUnitName = keyof typeof TIME_UNITS;
