@@ -5,6 +5,8 @@ const nextConfig = {
   serverExternalPackages: ["knex", "pg", "bcryptjs", "nodemailer"],
   poweredByHeader: false,
   reactStrictMode: true,
+  // forbidden() renders app/forbidden.tsx with HTTP 403 when a signed-in user lacks the role (lib/auth/current.ts).
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;

@@ -1,0 +1,32 @@
+import type { Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seeds/01_demo_team";
+import { BASE_URL } from "./browser";
+
+export type DemoRole = "lead" | "designer" | "viewer";
+
+/** The demo account of a role (db/seeds/01_demo_team.ts). */
+export function demoUser(role: DemoRole) {
+  const u = DEMO_USERS.find((x) => x.role === role);
+  if (!u) throw new Error(`no demo user with role ${role}`);
+  return u;
+}
+
+/**
+ * Signs a page in as the demo lead, designer or viewer through the sign-in form, and waits until the app has
+ * taken it to the scenarios (or to `next`). Afterwards `page.context()` carries the session cookie.
+ */
+export async function signIn(page: Page, role: DemoRole, next = "/scenarios"): Promise<void> {
+  const u = demoUser(role);
+  await page.goto(`${BASE_URL}/sign-in?next=${encodeURIComponent(next)}`, { waitUntil: "load" });
+  await page.getByLabel("E-mail").fill(u.email);
+  await page.getByLabel("Password").fill(u.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((url) => url.pathname === next.split("?")[0], { timeout: 30_000 });
+}
+
+/** Signs out through the top bar's menu form. */
+export async function signOut(page: Page): Promise<void> {
+  await page.goto(`${BASE_URL}/sign-out`, { waitUntil: "load" });
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await page.waitForURL((url) => url.pathname === "/sign-in");
+}
