@@ -5,3 +5,5 @@
 const argv = process.argv.slice(2);
 const mod = argv.includes("--scenario") ? await import("../lib/design/cli") : await import("../lib/sim/cli");
 process.exitCode = await mod.main(argv);
+
+export {};

@@ -30,6 +30,9 @@ node --import tsx db/mail-fake.ts >"$QUELL_DATA/mail-$QUELL_DB.log" 2>&1 & pids+
 wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
 status=0
+say "type check"
+if npx tsc --noEmit -p tsconfig.json; then echo "type check: 1 passed, 0 failed"; else status=1; echo "type check: 0 passed, 1 failed"; fi
+
 say "unit and integration tests"
 npx vitest run --reporter=default --reporter=json --outputFile="$RESULTS/vitest.json" || status=1
 
