@@ -2,10 +2,12 @@
  * Step-response figures of a sampled waveform (measured or simulated): 10–90 % rise time, overshoot, peak time,
  * settling time into a band, and ringing frequency (fft.js on the settling tail, refined by zero-crossing spacing).
  *
- * Lives in lib/traces because measured captures need what simulated ones do not: a step edge found in the data,
- * levels taken as medians of noisy pre- and post-step stretches, and crossing times that tolerate noise.
+ * Rise time, overshoot and peak time come from the design layer's `stepMetrics`. What lives here is what measured
+ * captures need and the design layer lacks: a step edge found in the data, levels taken as medians of noisy pre- and
+ * post-step stretches, a settling band the team chooses, and a ringing estimate that tolerates scope noise.
  */
 import FFT from "fft.js";
+import { stepMetrics } from "@/lib/design/metrics";
 
 export interface StepFigures {
   /** Level before the step (median of the pre-step samples), in the waveform's unit. */
@@ -163,25 +165,15 @@ export function stepFigures(time: Float64Array, values: Float64Array, options: S
   const c50 = crossingUp(time, y, 0.5, startIndex + 1);
   const edgeTime = options.edgeTime ?? (c50 ? c50.t : edgeGuess);
 
-  // Rise: the last upward 10 % crossing before the first 90 % crossing (noise may cross 10 % several times).
-  const c90 = crossingUp(time, y, 0.9, startIndex + 1);
-  let riseTime: number | null = null;
-  if (c90) {
-    let c10: number | null = null;
-    for (let i = c90.i; i > startIndex; i--) {
-      if (y[i - 1] < 0.1 && y[i] >= 0.1) {
-        c10 = time[i - 1] + ((0.1 - y[i - 1]) / (y[i] - y[i - 1])) * (time[i] - time[i - 1]);
-        break;
-      }
-    }
-    if (c10 !== null) riseTime = c90.t - c10;
-  }
-
-  let peakIndex = -1;
-  let peakValue = -Infinity;
-  for (let i = startIndex; i < n; i++) if (y[i] > peakValue) { peakValue = y[i]; peakIndex = i; }
-  const overshootPct = Math.max(0, (peakValue - 1) * 100);
-  const peakTime = peakIndex >= 0 && c90 ? time[peakIndex] - edgeTime : null;
+  // Rise time, overshoot and peak: the design layer's definitions, so simulated figures here match the workbench.
+  // It is given the robust levels and the sample where the step starts (noise cannot trip its crossings there).
+  const tStart = time[startIndex];
+  const shared = stepMetrics(time, values, tStart, { initial, final });
+  const riseTime = shared.riseTime;
+  const overshootPct = shared.overshootPct;
+  const peakTime = shared.peakTime === null ? null : shared.peakTime + tStart - edgeTime;
+  let peakIndex = startIndex;
+  for (let i = startIndex; i < n; i++) if (y[i] > y[peakIndex]) peakIndex = i;
 
   let lastOutside = -1;
   for (let i = n - 1; i >= startIndex; i--) if (Math.abs(y[i] - 1) > band) { lastOutside = i; break; }

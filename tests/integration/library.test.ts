@@ -1,0 +1,184 @@
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("server-only", () => ({}));
+
+import { randomUUID } from "node:crypto";
+import { db } from "@/lib/db/knex";
+import type { CurrentUser, Role } from "@/lib/auth/roles";
+import { storeTrace, deleteTrace } from "@/lib/db/traces";
+import {
+  changeEntryStatus, commentOnEntry, getEntry, getTeamTolerances, listEntries, scenarioFacets, setTeamTolerances,
+  startFromEntry, submitForValidation, submitSchema,
+} from "@/lib/db/library";
+import { parseTraceCsv, DEFAULT_TOLERANCES } from "@/lib/traces";
+import { defaultScenario } from "@/lib/design/templates";
+import { idealTransconductance } from "@/lib/design/compile";
+
+async function makeTeam(tag: string) {
+  const suffix = randomUUID().slice(0, 8);
+  const [team] = await db()("teams").insert({ name: `Library bench ${tag} ${suffix}` }).returning("*");
+  const users = {} as Record<Role, CurrentUser>;
+  for (const role of ["lead", "designer", "viewer"] as Role[]) {
+    const email = `${role}.${suffix}@library.test`;
+    const [u] = await db()("users").insert({ email, name: `${role} ${suffix}`, password_hash: "x", current_team_id: team.id }).returning("*");
+    await db()("memberships").insert({ team_id: team.id, user_id: u.id, role });
+    users[role] = { id: u.id, email, name: u.name, teamId: team.id, teamName: team.name, role };
+  }
+  const body = defaultScenario("sink-npn");
+  const [s] = await db()("scenarios").insert({ team_id: team.id, owner_id: users.designer.id, title: `Valve coil ${suffix}`, template: "sink-npn" }).returning("*");
+  const [rev] = await db()("revisions").insert({ scenario_id: s.id, number: 1, author_id: users.designer.id, body: JSON.stringify(body) }).returning("*");
+  await db()("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id });
+  return { team, users, scenarioId: s.id as string, revisionId: rev.id as string, body, suffix };
+}
+
+function capture(): string {
+  const lines = ["Time (us),CH1 (A)"];
+  for (let k = 0; k < 100; k++) lines.push(`${k},${k < 10 ? 0 : 0.75}`);
+  return lines.join("\n");
+}
+
+/** Mail lands in dev_mailbox through the local SMTP fake (started by the test command). */
+async function mailTo(email: string, subject: RegExp): Promise<{ subject: string; text_body: string }[]> {
+  const rows = await db()("dev_mailbox").where("to_address", email).orderBy("id");
+  return rows.filter((r) => subject.test(r.subject));
+}
+
+describe("library workflow", () => {
+  let a: Awaited<ReturnType<typeof makeTeam>>;
+  let other: Awaited<ReturnType<typeof makeTeam>>;
+  let traceId: string;
+  let entryId: string;
+
+  beforeAll(async () => {
+    a = await makeTeam("A");
+    other = await makeTeam("B");
+    const t = await storeTrace(a.users.designer, { scenarioId: a.scenarioId, label: "Bench step", fileName: "s.csv", parsed: parseTraceCsv(capture()), settings: {} });
+    traceId = t.id;
+  });
+  afterAll(async () => {
+    await db().destroy();
+    (globalThis as { quellKnex?: unknown }).quellKnex = undefined;
+  });
+
+  const submission = () =>
+    submitSchema.parse({
+      note: "Built on the bench board; scope capture of the 0→750 mA step attached.",
+      traceIds: [traceId],
+      keyFigures: { phaseMarginDeg: 62, overshootPct: 3.1 },
+      comparisons: [{
+        traceId, channel: 0, offset: -1e-5, verdict: "pass",
+        rows: [{ key: "overshoot", label: "Overshoot", unit: "%", measured: 3.4, simulated: 3.1, difference: 0.3, differenceUnit: "pts", tolerance: 5, verdict: "pass" }],
+      }],
+    });
+
+  it("derives filter facets from the scenario body", () => {
+    const f = scenarioFacets(a.body, "sink-npn");
+    expect(f.template).toBe("sink-npn");
+    expect(f.passElement).toBe("npn");
+    // Full-scale current = k/Rsense × full-scale command (ideal transfer, design layer's idealTransconductance)
+    expect(f.currentMax).toBeCloseTo(idealTransconductance(a.body) * a.body.stimulus.commandFullScale, 12);
+    expect(scenarioFacets({ schemaVersion: 0, template: "sink-nmos" }, "x")).toMatchObject({ template: "sink-nmos", passElement: "nmos", currentMax: null });
+  });
+
+  it("refuses a submission from a viewer, without traces, or with another revision's trace", async () => {
+    await expect(submitForValidation(a.users.viewer, a.scenarioId, submission())).rejects.toMatchObject({ status: 403 });
+    expect(() => submitSchema.parse({ note: "x", traceIds: [] })).toThrow(/Attach at least one bench trace/);
+    expect(() => submitSchema.parse({ note: " ", traceIds: [traceId] })).toThrow(/Write a note/);
+    const foreign = await storeTrace(other.users.designer, { scenarioId: other.scenarioId, label: "o", fileName: "o.csv", parsed: parseTraceCsv(capture()), settings: {} });
+    await expect(submitForValidation(a.users.designer, a.scenarioId, { ...submission(), traceIds: [foreign.id], comparisons: [] })).rejects.toMatchObject({ status: 400 });
+  });
+
+  it("a designer submits: entry submitted, history, audit log, and a mail to the lead", async () => {
+    const r = await submitForValidation(a.users.designer, a.scenarioId, submission());
+    expect(r.status).toBe("submitted");
+    expect(r.mailFailures).toEqual([]);
+    entryId = r.entryId;
+    const e = await getEntry(a.users.viewer, entryId);
+    expect(e).toMatchObject({ status: "submitted", revisionId: a.revisionId, revisionNumber: 1, submittedBy: a.users.designer.id, template: "sink-npn", passElement: "npn" });
+    expect(e.evidence.traceIds).toEqual([traceId]);
+    expect(e.evidence.tolerances).toEqual(DEFAULT_TOLERANCES);
+    expect(e.traces.map((t) => t.id)).toEqual([traceId]);
+    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted"]);
+    expect(await db()("audit_log").where({ subject_id: entryId, action: "library.submitted" }).first()).toBeTruthy();
+    const mails = await mailTo(a.users.lead.email, /^Validation requested:/);
+    expect(mails).toHaveLength(1);
+    expect(mails[0].text_body).toContain(`/library/${entryId}`);
+    // The evidence cannot be deleted while the entry is under review.
+    await expect(deleteTrace(a.users.designer, traceId)).rejects.toMatchObject({ status: 409 });
+    // A second submission of the same revision is a conflict.
+    await expect(submitForValidation(a.users.designer, a.scenarioId, submission())).rejects.toMatchObject({ status: 409 });
+  });
+
+  it("a viewer or a designer cannot validate, return or retire; another team cannot see the entry", async () => {
+    for (const who of [a.users.viewer, a.users.designer]) {
+      await expect(changeEntryStatus(who, entryId, "validate")).rejects.toMatchObject({ status: 403, message: "Only a lead can validate library entries." });
+      await expect(changeEntryStatus(who, entryId, "return", "no")).rejects.toMatchObject({ status: 403 });
+      await expect(changeEntryStatus(who, entryId, "retire")).rejects.toMatchObject({ status: 403 });
+    }
+    await expect(changeEntryStatus(other.users.lead, entryId, "validate")).rejects.toMatchObject({ status: 404 });
+    await expect(getEntry(other.users.lead, entryId)).rejects.toMatchObject({ status: 404 });
+    expect((await getEntry(a.users.lead, entryId)).status).toBe("submitted");
+  });
+
+  it("the lead returns it with comments; the designer hears of it and resubmits", async () => {
+    await expect(changeEntryStatus(a.users.lead, entryId, "return", "  ")).rejects.toMatchObject({ status: 400 });
+    const r = await changeEntryStatus(a.users.lead, entryId, "return", "Capture the load step too, please.");
+    expect(r.status).toBe("draft");
+    const mails = await mailTo(a.users.designer.email, /^Returned with comments:/);
+    expect(mails).toHaveLength(1);
+    expect(mails[0].text_body).toContain("Capture the load step too, please.");
+    // Viewers may comment; the submitter and the lead are told.
+    await commentOnEntry(a.users.viewer, entryId, "Which scope probe was used?");
+    expect(await mailTo(a.users.designer.email, /^Comment on/)).toHaveLength(1);
+    const again = await submitForValidation(a.users.designer, a.scenarioId, submission());
+    expect(again).toMatchObject({ entryId, status: "submitted" });
+    expect(await mailTo(a.users.lead.email, /^Validation requested:/)).toHaveLength(2);
+  });
+
+  it("the lead validates: status, validated_by, history, audit and a mail to the designer", async () => {
+    const r = await changeEntryStatus(a.users.lead, entryId, "validate", "Agrees with the bench within tolerance.");
+    expect(r.status).toBe("validated");
+    const e = await getEntry(a.users.designer, entryId);
+    expect(e).toMatchObject({ status: "validated", validatedBy: a.users.lead.id, validatedByName: a.users.lead.name });
+    expect(e.validatedAt).not.toBeNull();
+    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "returned", "commented", "submitted", "validated"]);
+    expect(await db()("audit_log").where({ subject_id: entryId, action: "library.validated", actor_id: a.users.lead.id }).first()).toBeTruthy();
+    expect(await mailTo(a.users.designer.email, /^Validated:/)).toHaveLength(1);
+    // Validating twice is a conflict, not a second validation.
+    await expect(changeEntryStatus(a.users.lead, entryId, "validate")).rejects.toMatchObject({ status: 409 });
+  });
+
+  it("lists and filters the team's entries", async () => {
+    const all = await listEntries(a.users.viewer);
+    expect(all.map((e) => e.id)).toEqual([entryId]);
+    expect((await listEntries(a.users.viewer, { status: "validated" })).length).toBe(1);
+    expect((await listEntries(a.users.viewer, { status: "submitted" })).length).toBe(0);
+    expect((await listEntries(a.users.viewer, { template: "sink-nmos" })).length).toBe(0);
+    expect((await listEntries(a.users.viewer, { passElement: "npn", q: a.suffix })).length).toBe(1);
+    const fullScale = all[0].currentMax!;
+    expect((await listEntries(a.users.viewer, { currentMin: fullScale * 2 })).length).toBe(0);
+    expect((await listEntries(a.users.viewer, { currentMin: fullScale / 2 })).length).toBe(1);
+    expect((await listEntries(a.users.viewer, { loadType: a.body.load.kind })).length).toBe(1);
+    expect(await listEntries(other.users.lead)).toEqual([]);
+  });
+
+  it("starts a new scenario from a validated entry (designers and leads only)", async () => {
+    await expect(startFromEntry(a.users.viewer, entryId)).rejects.toMatchObject({ status: 403 });
+    const { scenarioId, revisionId } = await startFromEntry(a.users.designer, entryId, "Second valve channel");
+    const s = await db()("scenarios").where({ id: scenarioId }).first();
+    const rev = await db()("revisions").where({ id: revisionId }).first();
+    expect(s).toMatchObject({ title: "Second valve channel", owner_id: a.users.designer.id, team_id: a.team.id, current_revision_id: revisionId });
+    expect(rev).toMatchObject({ number: 1, parent_id: a.revisionId });
+    expect(rev.body).toEqual(a.body);
+  });
+
+  it("only leads set tolerances; the lead retires the entry; retired entries are no starting point", async () => {
+    await expect(setTeamTolerances(a.users.designer, DEFAULT_TOLERANCES)).rejects.toMatchObject({ status: 403 });
+    await setTeamTolerances(a.users.lead, { ...DEFAULT_TOLERANCES, overshootPts: 3 });
+    expect((await getTeamTolerances(a.team.id)).overshootPts).toBe(3);
+    expect((await getTeamTolerances(other.team.id)).overshootPts).toBe(DEFAULT_TOLERANCES.overshootPts);
+    await changeEntryStatus(a.users.lead, entryId, "retire", "Superseded by rev 2.");
+    await expect(startFromEntry(a.users.designer, entryId)).rejects.toMatchObject({ status: 409 });
+    expect(await mailTo(a.users.designer.email, /^Retired:/)).toHaveLength(1);
+  });
+});
