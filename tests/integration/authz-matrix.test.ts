@@ -1,0 +1,299 @@
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+
+// Server actions read the session through next/headers; outside Next there is no request scope, so the cookie
+// jar is replaced by one holding the sealed cookie of the actor under test (the same seal the browser sends).
+const jar: { cookie?: string } = {};
+vi.mock("server-only", () => ({}));
+vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
+vi.mock("next/headers", () => ({
+  cookies: async () => ({
+    get: (name: string) => {
+      const pair = jar.cookie?.split("=");
+      return pair && pair[0] === name ? { name, value: pair.slice(1).join("=") } : undefined;
+    },
+    set: () => undefined,
+    delete: () => undefined,
+  }),
+  headers: async () => new Headers({ host: "127.0.0.1:3999" }),
+}));
+
+import { db } from "@/lib/db/knex";
+import * as scenarios from "@/app/api/scenarios/route";
+import * as scenario from "@/app/api/scenarios/[id]/route";
+import * as revisions from "@/app/api/scenarios/[id]/revisions/route";
+import * as comments from "@/app/api/scenarios/[id]/comments/route";
+import * as shareLinks from "@/app/api/scenarios/[id]/share-links/route";
+import * as members from "@/app/api/team/members/route";
+import * as invitations from "@/app/api/team/invitations/route";
+import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenario } from "@/app/scenarios/[id]/actions";
+import { createScenario } from "@/lib/db/scenarios";
+import { createPublicLink } from "@/lib/db/shareLinks";
+import { createInvitation } from "@/lib/db/teams";
+import { closeDb, cookieFor, ctx, makeFixture, request, type Actor, type Fixture } from "./support/fixtures";
+
+type Who = "anonymous" | "viewer" | "designer" | "lead" | "outsider";
+const WHO: Who[] = ["anonymous", "viewer", "designer", "lead", "outsider"];
+
+let f: Fixture;
+const actor = (w: Who): Actor | null => (w === "anonymous" ? null : f[w]);
+
+beforeAll(async () => {
+  f = await makeFixture("matrix");
+});
+afterAll(closeDb);
+
+/** A fresh scenario owned by the designer, for the cases that change or delete one. */
+async function freshScenario(): Promise<string> {
+  return (await createScenario(f.designer, { title: "Matrix target", template: "sink-npn" })).id;
+}
+
+async function newMember(): Promise<string> {
+  const [u] = await db()("users").insert({ email: `m${Date.now()}${Math.random()}@fixture.test`, name: "Temp", password_hash: "x" }).returning("id");
+  await db()("memberships").insert({ team_id: f.lead.teamId, user_id: u.id, role: "viewer" });
+  return u.id;
+}
+
+interface Case {
+  name: string;
+  expect: Record<Who, number>;
+  call: (a: Actor | null) => Promise<Response>;
+}
+
+// Expected statuses come from the issue's role rules: viewers read and comment; designers create, edit, fork and
+// share; owner or lead delete and publish; leads manage the team; another team's member sees 404 (not 403), so
+// existence is not revealed; anonymous gets 401 whatever else is wrong with the request.
+const cases: Case[] = [
+  {
+    name: "GET /api/scenarios",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 200 },
+    call: async (a) => scenarios.GET(await request("GET", "/api/scenarios?sort=title", a), ctx({})),
+  },
+  {
+    name: "POST /api/scenarios",
+    expect: { anonymous: 401, viewer: 403, designer: 201, lead: 201, outsider: 201 },
+    call: async (a) => scenarios.POST(await request("POST", "/api/scenarios", a, { title: "New from matrix", template: "sink-nmos" }), ctx({})),
+  },
+  {
+    name: "GET /api/scenarios/[id]",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => scenario.GET(await request("GET", `/api/scenarios/${f.scenarioId}`, a), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "PATCH /api/scenarios/[id] (new revision)",
+    expect: { anonymous: 401, viewer: 403, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await freshScenario();
+      const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
+      return scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, a, { baseRevisionId: base, note: "matrix", body: { schemaVersion: 0, k: 1 } }), ctx({ id }));
+    },
+  },
+  {
+    name: "DELETE /api/scenarios/[id] (owned by the designer)",
+    expect: { anonymous: 401, viewer: 403, designer: 204, lead: 204, outsider: 404 },
+    call: async (a) => {
+      const id = await freshScenario();
+      return scenario.DELETE(await request("DELETE", `/api/scenarios/${id}`, a), ctx({ id }));
+    },
+  },
+  {
+    name: "GET /api/scenarios/[id]/revisions",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => revisions.GET(await request("GET", `/api/scenarios/${f.scenarioId}/revisions`, a), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "GET /api/scenarios/[id]/comments",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => comments.GET(await request("GET", `/api/scenarios/${f.scenarioId}/comments`, a), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "POST /api/scenarios/[id]/comments",
+    expect: { anonymous: 401, viewer: 201, designer: 201, lead: 201, outsider: 404 },
+    call: async (a) => comments.POST(await request("POST", `/api/scenarios/${f.scenarioId}/comments`, a, { body: "Looks stable." }), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "GET /api/scenarios/[id]/share-links",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => shareLinks.GET(await request("GET", `/api/scenarios/${f.scenarioId}/share-links`, a), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "POST /api/scenarios/[id]/share-links (designer owns the scenario)",
+    expect: { anonymous: 401, viewer: 403, designer: 201, lead: 201, outsider: 404 },
+    call: async (a) => shareLinks.POST(await request("POST", `/api/scenarios/${f.scenarioId}/share-links`, a, { days: 3 }), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "DELETE /api/scenarios/[id]/share-links",
+    expect: { anonymous: 401, viewer: 403, designer: 204, lead: 204, outsider: 404 },
+    call: async (a) => {
+      const { link } = await createPublicLink(f.designer, f.scenarioId, { days: 1 });
+      return shareLinks.DELETE(await request("DELETE", `/api/scenarios/${f.scenarioId}/share-links?id=${link.id}`, a), ctx({ id: f.scenarioId }));
+    },
+  },
+  {
+    name: "GET /api/team/members",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 200 },
+    call: async (a) => members.GET(await request("GET", "/api/team/members", a), ctx({})),
+  },
+  {
+    name: "PATCH /api/team/members",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 200, outsider: 404 },
+    call: async (a) => members.PATCH(await request("PATCH", "/api/team/members", a, { userId: await newMember(), role: "designer" }), ctx({})),
+  },
+  {
+    name: "DELETE /api/team/members",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 204, outsider: 404 },
+    call: async (a) => members.DELETE(await request("DELETE", `/api/team/members?userId=${await newMember()}`, a), ctx({})),
+  },
+  {
+    name: "GET /api/team/invitations",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 200, outsider: 200 },
+    call: async (a) => invitations.GET(await request("GET", "/api/team/invitations", a), ctx({})),
+  },
+  {
+    name: "POST /api/team/invitations",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 201, outsider: 201 },
+    call: async (a) => invitations.POST(await request("POST", "/api/team/invitations", a, { email: `new.${Date.now()}@fixture.test`, role: "viewer" }), ctx({})),
+  },
+  {
+    name: "DELETE /api/team/invitations",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 204, outsider: 404 },
+    call: async (a) => {
+      const { invitation } = await createInvitation(f.lead, `gone.${Date.now()}@fixture.test`, "viewer");
+      return invitations.DELETE(await request("DELETE", `/api/team/invitations?id=${invitation.id}`, a), ctx({}));
+    },
+  },
+];
+
+describe("authorization matrix: route handlers", () => {
+  for (const c of cases) {
+    it(c.name, async () => {
+      const got: Record<string, number> = {};
+      for (const w of WHO) got[w] = (await c.call(actor(w))).status;
+      expect(got).toEqual(c.expect);
+    });
+  }
+
+  it("never shows another team's scenarios in the list", async () => {
+    const r = await scenarios.GET(await request("GET", "/api/scenarios?pageSize=100", f.outsider), ctx({}));
+    const data = (await r.json()) as { items: { id: string }[] };
+    expect(data.items.some((s) => s.id === f.scenarioId)).toBe(false);
+  });
+});
+
+describe("route handlers: authentication first, then validation with proper statuses", () => {
+  it("answers 401 to anonymous requests whatever their body, query or id", async () => {
+    expect((await scenarios.POST(await request("POST", "/api/scenarios", null, undefined, "{not json"), ctx({}))).status).toBe(401);
+    expect((await scenario.PATCH(await request("PATCH", "/api/scenarios/nope", null, { junk: true }), ctx({ id: "nope" }))).status).toBe(401);
+    expect((await scenarios.GET(await request("GET", "/api/scenarios?page=-3&sort=bad", null), ctx({}))).status).toBe(401);
+    const big = "x".repeat(2_000_000);
+    expect((await scenarios.POST(await request("POST", "/api/scenarios", null, undefined, big), ctx({}))).status).toBe(401);
+  });
+
+  it("answers 400 with field errors, 413 over the size limit, 404 for unknown ids", async () => {
+    const bad = await scenarios.POST(await request("POST", "/api/scenarios", f.designer, { title: "", template: "sink-npn" }), ctx({}));
+    expect(bad.status).toBe(400);
+    const badJson = (await bad.json()) as { fieldErrors: Record<string, string[]> };
+    expect(Object.keys(badJson.fieldErrors)).toEqual(["title"]);
+
+    const notJson = await scenarios.POST(await request("POST", "/api/scenarios", f.designer, undefined, "{oops"), ctx({}));
+    expect(notJson.status).toBe(400);
+
+    const badQuery = await scenarios.GET(await request("GET", "/api/scenarios?sort=colour&page=0", f.viewer), ctx({}));
+    expect(badQuery.status).toBe(400);
+    expect(Object.keys(((await badQuery.json()) as { fieldErrors: object }).fieldErrors).sort()).toEqual(["page", "sort"]);
+
+    const huge = await scenarios.POST(
+      await request("POST", "/api/scenarios", f.designer, { title: "Huge", template: "sink-npn", body: { blob: "x".repeat(300 * 1024) } }),
+      ctx({}),
+    );
+    expect(huge.status).toBe(413);
+
+    const unknown = "00000000-0000-4000-8000-000000000000";
+    expect((await scenario.GET(await request("GET", `/api/scenarios/${unknown}`, f.viewer), ctx({ id: unknown }))).status).toBe(404);
+    expect((await scenario.GET(await request("GET", "/api/scenarios/not-an-id", f.viewer), ctx({ id: "not-an-id" }))).status).toBe(404);
+  });
+
+  it("answers 409 with both versions' information on a stale save, and writes nothing", async () => {
+    const id = await freshScenario();
+    const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
+    const first = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.designer, { baseRevisionId: base, note: "mine", body: { v: 1 } }), ctx({ id }));
+    expect(first.status).toBe(200);
+    const stale = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.lead, { baseRevisionId: base, note: "theirs", body: { v: 2 } }), ctx({ id }));
+    expect(stale.status).toBe(409);
+    const body = (await stale.json()) as { conflict: { current: { number: number; body: unknown; author: string } } };
+    expect(body.conflict.current).toMatchObject({ number: 2, body: { v: 1 }, author: f.designer.name });
+    expect((await db()("revisions").where({ scenario_id: id })).length).toBe(2);
+  });
+
+  it("refuses a designer deleting someone else's scenario (owner or lead only)", async () => {
+    const id = (await createScenario(f.lead, { title: "Lead's", template: "sink-npn" })).id;
+    expect((await scenario.DELETE(await request("DELETE", `/api/scenarios/${id}`, f.designer), ctx({ id }))).status).toBe(403);
+  });
+
+  it("refuses mutating requests from another origin", async () => {
+    const req = new Request("http://127.0.0.1:3999/api/scenarios", {
+      method: "POST",
+      headers: { host: "127.0.0.1:3999", origin: "http://evil.example", cookie: (await cookieFor(f.designer))!, "content-type": "application/json" },
+      body: JSON.stringify({ title: "x", template: "sink-npn" }),
+    });
+    expect((await scenarios.POST(req, ctx({}))).status).toBe(403);
+  });
+
+  it("ends a session when the password changed since (session version)", async () => {
+    const stale = { ...f.viewer, sessionVersion: f.viewer.sessionVersion - 1 };
+    expect((await scenarios.GET(await request("GET", "/api/scenarios", stale), ctx({}))).status).toBe(401);
+  });
+});
+
+describe("authorization matrix: server actions", () => {
+  async function as(w: Who) {
+    jar.cookie = await cookieFor(actor(w));
+  }
+  async function outcome<T extends { ok: boolean }>(w: Who, fn: () => Promise<T>): Promise<"ok" | "denied"> {
+    await as(w);
+    const r = await fn();
+    return r.ok ? "ok" : "denied";
+  }
+
+  it("saveScenarioRevision: designers and leads of the team only", async () => {
+    const got: Record<string, string> = {};
+    for (const w of WHO) {
+      const id = await freshScenario();
+      const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
+      got[w] = await outcome(w, () => saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "n", body: { a: 1 } }));
+    }
+    expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "ok", lead: "ok", outsider: "denied" });
+  });
+
+  it("saveScenarioRevision: a stale base comes back as a conflict with the current revision", async () => {
+    const id = await freshScenario();
+    const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
+    await as("designer");
+    expect((await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "one", body: { a: 1 } })).ok).toBe(true);
+    await as("lead");
+    const r = await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "two", body: { a: 2 } });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.conflict?.current).toMatchObject({ number: 2, body: { a: 1 } });
+  });
+
+  it("forkScenario: designers and leads of the team only", async () => {
+    const got: Record<string, string> = {};
+    for (const w of WHO) got[w] = await outcome(w, () => forkScenario({ revisionId: f.revisionId }));
+    expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "ok", lead: "ok", outsider: "denied" });
+  });
+
+  it("setScenarioDeleted: the owner or a lead only", async () => {
+    const got: Record<string, string> = {};
+    for (const w of WHO) {
+      const id = (await createScenario(f.lead, { title: "Owned by lead", template: "sink-npn" })).id;
+      got[w] = await outcome(w, () => setScenarioDeleted({ scenarioId: id, deleted: true }));
+    }
+    // The designer does not own these (the lead does), so only the lead may delete them.
+    expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "denied", lead: "ok", outsider: "denied" });
+  });
+
+  it("commentOnScenario: every member of the team, viewers included", async () => {
+    const got: Record<string, string> = {};
+    for (const w of WHO) got[w] = await outcome(w, () => commentOnScenario({ scenarioId: f.scenarioId, body: `from ${w}` }));
+    expect(got).toEqual({ anonymous: "denied", viewer: "ok", designer: "ok", lead: "ok", outsider: "denied" });
+  });
+});
