@@ -1,0 +1,148 @@
+/**
+ * Newton–Raphson on the MNA equations with device-level junction limiting (Nagel 1975, ERL-M520; REFERENCES §1.5),
+ * and the DC continuation fallbacks: gmin stepping and source stepping (Najm, "Circuit Simulation", 2010, DC
+ * chapter; Grasser 1999 §6.2.1 — REFERENCES §2.4). Nothing here allocates per iteration.
+ */
+import { type Circuit, MODE_DC } from "../circuit";
+import { SimError } from "../errors";
+import { luFactor, luSolve } from "../lu";
+
+/** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
+let worstUnknown = -1;
+
+export function checkBudget(c: Circuit): void {
+  if (performance.now() > c.deadline) {
+    throw new SimError("budget", `Time budget exhausted after ${c.newtonIterations} Newton iterations`);
+  }
+}
+
+/** One matrix load at c.x into c.mat / c.rhs. */
+export function loadAll(c: Circuit): void {
+  c.mat.fill(0);
+  c.rhs.fill(0);
+  c.noncon = 0;
+  const els = c.elements;
+  for (let i = 0; i < els.length; i++) els[i].load(c);
+  const gs = c.gshunt;
+  if (gs !== 0) {
+    const d = c.diag;
+    for (let i = 0; i < d.length; i++) c.mat[d[i]] += gs;
+  }
+}
+
+/** Factor and solve c.mat·xNew = c.rhs; throws "singular" naming the unknown. */
+export function solveInto(c: Circuit, out: Float64Array): void {
+  const n = c.n;
+  const bad = luFactor(c.mat, n, c.stride, c.piv);
+  if (bad >= 0) {
+    throw new SimError(
+      "singular",
+      `Singular circuit matrix at ${c.unknownNames[bad] ?? `unknown ${bad}`}: the circuit has no unique solution there ` +
+        `(check for a floating node, a loop of voltage sources, or a current source in series with nothing else)`,
+    );
+  }
+  for (let i = 0; i < n; i++) out[i] = c.rhs[i];
+  luSolve(c.mat, n, c.stride, c.piv, out);
+  out[n] = 0;
+}
+
+/**
+ * Newton iterations from c.x. Returns true when converged (solution left in c.x).
+ * Convergence: every unknown's update within reltol·|x| + (vntol for voltages | abstol for currents) and no device
+ * limited its voltages in the last load.
+ */
+export function newton(c: Circuit, maxIter: number): boolean {
+  const n = c.n;
+  const nn = c.numNodes;
+  const { reltol, vntol, abstol } = c.tol;
+  for (let iter = 0; iter < maxIter; iter++) {
+    c.newtonIterations++;
+    loadAll(c);
+    const xn = c.xNew;
+    solveInto(c, xn);
+    const xo = c.x;
+    let ok = true;
+    let worst = -1;
+    let worstRatio = 0;
+    for (let i = 0; i < n; i++) {
+      const a = xn[i], b = xo[i];
+      if (a !== a) { ok = false; worst = i; worstRatio = Infinity; break; } // NaN
+      const tol = reltol * Math.max(Math.abs(a), Math.abs(b)) + (i < nn ? vntol : abstol);
+      const r = Math.abs(a - b) / tol;
+      if (r > 1) { ok = false; if (r > worstRatio) { worstRatio = r; worst = i; } }
+    }
+    c.xNew = xo;
+    c.x = xn;
+    if (worstRatio === Infinity) { worstUnknown = worst; c.x.fill(0); return false; }
+    if (ok && c.noncon === 0 && iter > 0) return true;
+    worstUnknown = worst;
+    if ((iter & 7) === 7) {
+      checkBudget(c);
+      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
+    }
+  }
+  return false;
+}
+
+/** Name of the unknown that moved most in the last failed Newton run. */
+export function worstName(c: Circuit): string {
+  return worstUnknown >= 0 ? (c.unknownNames[worstUnknown] ?? "?") : "(none)";
+}
+
+/**
+ * DC operating point from the guess in c.x: plain Newton, then gmin stepping, then source stepping.
+ * Throws SimError "convergence" naming the node that would not settle and every method tried.
+ */
+export function solveDc(c: Circuit, what: string): void {
+  c.mode = MODE_DC;
+  const maxIter = c.tol.maxNewton;
+  const guess = c.x.slice();
+  if (newton(c, maxIter)) return;
+  const tried: string[] = [`Newton–Raphson (${maxIter} iterations; largest change at ${worstName(c)})`];
+
+  // gmin stepping: a shunt from every node to ground, from 1e-2 S down by decades, then removed.
+  c.x.set(guess);
+  let gmOk = true;
+  let gs = 1e-2;
+  for (; gs > c.tol.gmin * 0.999 && gs >= 1e-13; gs /= 10) {
+    c.gshunt = gs;
+    if (!newton(c, maxIter)) { gmOk = false; break; }
+  }
+  c.gshunt = 0;
+  if (gmOk && newton(c, maxIter)) return;
+  tried.push(`gmin stepping (${gmOk ? "final solve without shunt" : `stuck at ${gs.toExponential(0)} S`}; largest change at ${worstName(c)})`);
+
+  // source stepping: scale every independent source from 0 to 1, adapting the increment.
+  c.x.fill(0);
+  const last = new Float64Array(c.x.length);
+  let alpha = 0;
+  let step = 0.1;
+  c.srcScale = 0;
+  let ok = newton(c, maxIter);
+  if (!ok) {
+    // with all sources off a tiny shunt helps the first solve
+    c.gshunt = 1e-9;
+    ok = newton(c, maxIter);
+    c.gshunt = 0;
+  }
+  if (ok) {
+    last.set(c.x);
+    while (alpha < 1) {
+      const next = Math.min(1, alpha + step);
+      c.srcScale = next;
+      if (newton(c, maxIter)) {
+        alpha = next;
+        last.set(c.x);
+        step = Math.min(step * 2, 0.5);
+      } else {
+        c.x.set(last);
+        step /= 4;
+        if (step < 1e-6) break;
+      }
+    }
+  }
+  c.srcScale = 1;
+  if (alpha >= 1) return;
+  tried.push(`source stepping (stuck at ${(alpha * 100).toFixed(4)} % of the sources; largest change at ${worstName(c)})`);
+  throw new SimError("convergence", `No convergence for ${what} at ${worstName(c)}. Tried: ${tried.join("; ")}`);
+}

@@ -1,0 +1,196 @@
+/**
+ * The compiled circuit: unknown numbering, the preallocated MNA matrix and vectors, integration state, and the
+ * element instances with their stamp positions. Built once per topology; every Newton iteration restamps values in
+ * place. MNA formulation: Ho, Ruehli & Brennan, "The modified nodal approach to network analysis",
+ * IEEE Trans. Circuits Syst. CAS-22(6), 1975.
+ *
+ * Storage: row-major dense (n+1)×(n+1) with stride n+1. Index n is a spare "ground" row/column: stamps that touch
+ * ground land there and are ignored, so element code needs no branches for grounded terminals.
+ */
+import type { SimTolerances } from "./schema";
+
+export const MODE_DC = 0;
+export const MODE_TRAN = 1;
+
+/** Operating information reported for a device (see DeviceInfo in index.ts). */
+export type DeviceInfo =
+  | { kind: "bjt"; ic: number; ib: number; ie: number; vbe: number; vce: number; power: number; region: "active" | "saturation" | "cutoff" | "reverse" }
+  | { kind: "mosfet"; id: number; vgs: number; vds: number; power: number; region: "cutoff" | "triode" | "saturation" }
+  | { kind: "opamp"; vout: number; iout: number; limiting: boolean }
+  | { kind: "diode"; id: number; vd: number; power: number };
+
+/** Allocates unknowns while elements are set up. */
+export class Builder {
+  readonly nodeIndex = new Map<string, number>();
+  readonly nodeNames: string[] = [];
+  readonly internal: string[] = [];
+  readonly branches: string[] = [];
+  /** Index of a user node; ground is -1 until `resolve`. */
+  node(name: string, isGround: boolean): number {
+    if (isGround) return -1;
+    let i = this.nodeIndex.get(name);
+    if (i === undefined) {
+      i = this.nodeNames.length;
+      this.nodeIndex.set(name, i);
+      this.nodeNames.push(name);
+    }
+    return i;
+  }
+  /** A hidden internal node; returned as a negative placeholder resolved later. */
+  internalNode(label: string): number {
+    this.internal.push(label);
+    return -1000 - (this.internal.length - 1);
+  }
+  /** A branch-current unknown (voltage sources, inductors, ideal outputs). */
+  branch(label: string): number {
+    this.branches.push(label);
+    return -1_000_000 - (this.branches.length - 1);
+  }
+}
+
+export abstract class Element {
+  constructor(readonly name: string, readonly kind: string) {}
+  /** Allocate unknowns (user nodes, internal nodes, branches). */
+  abstract setup(b: Builder): void;
+  /** Turn placeholders into indices, compute matrix positions and state slots. */
+  abstract bind(c: Circuit): void;
+  /** Stamp the linearised element at c.x into c.mat / c.rhs (Newton companion, plus integration when MODE_TRAN). */
+  abstract load(c: Circuit): void;
+  /** Stamp dq/dv at the operating point into `cap` (same positions as c.mat) for AC. */
+  loadCap(_c: Circuit, _cap: Float64Array): void {}
+  /** Add this element's AC excitation to the right-hand side. */
+  loadAc(_c: Circuit, _br: Float64Array, _bi: Float64Array): void {}
+  /** Element current at c.x (positive from nodes[0] through the element to nodes[1]). */
+  current(_c: Circuit): number { return 0; }
+  /** AC current (same sign convention) given the complex solution; writes [re, im] into out. */
+  acCurrent(_c: Circuit, _xr: Float64Array, _xi: Float64Array, _omega: number, out: Float64Array): void { out[0] = 0; out[1] = 0; }
+  info(_c: Circuit): DeviceInfo | null { return null; }
+  /** Push times (s, within (0, tStop]) where the element's stimulus has a corner. */
+  breakpoints(_tStop: number, _out: number[]): void {}
+  /** Set the integration state from c.x at the start of a transient (`fromIc`: use the elements' ic values). */
+  initState(_c: Circuit, _fromIc: boolean): void {}
+  /** Largest step (s) allowed at time t (e.g. inside a switch transition); Infinity for none. */
+  maxStepAt(_t: number): number { return Infinity; }
+}
+
+export class Circuit {
+  /** number of unknowns */
+  readonly n: number;
+  readonly stride: number;
+  /** unknowns 0..numNodes-1 are node voltages (user then internal), the rest branch currents */
+  readonly numNodes: number;
+  readonly mat: Float64Array;
+  readonly rhs: Float64Array;
+  x: Float64Array;
+  xNew: Float64Array;
+  readonly piv: Int32Array;
+  readonly diag: Int32Array;
+  readonly unknownNames: string[];
+  readonly userNodeNames: string[];
+  readonly elements: Element[];
+  readonly tol: SimTolerances;
+  /** thermal voltage kT/q, V */
+  readonly vt: number;
+
+  mode = MODE_DC;
+  time = 0;
+  /** sources follow their waves at c.time (transient and its initial operating point) instead of `dc` */
+  useWaves = false;
+  /** scale of every independent source (source stepping) */
+  srcScale = 1;
+  /** extra conductance from every node to ground (gmin stepping), S */
+  gshunt = 0;
+  /** incremented by a device whose voltages were limited in this load */
+  noncon = 0;
+  /** integration: iq = ag0·(q − q1) − trap·i1 */
+  ag0 = 0;
+  trap = 0;
+
+  /** integration state: q0/i0 this step, q1/i1 last accepted, q2/q3 older (for truncation error) */
+  nState = 0;
+  q0 = new Float64Array(0);
+  q1 = new Float64Array(0);
+  q2 = new Float64Array(0);
+  q3 = new Float64Array(0);
+  i0 = new Float64Array(0);
+  i1 = new Float64Array(0);
+
+  /** work counters */
+  newtonIterations = 0;
+  deadline = Infinity;
+  shouldStop: (() => boolean) | undefined;
+
+  constructor(b: Builder, elements: Element[], tol: SimTolerances, tempC: number) {
+    const nUser = b.nodeNames.length;
+    this.numNodes = nUser + b.internal.length;
+    this.n = this.numNodes + b.branches.length;
+    this.stride = this.n + 1;
+    this.mat = new Float64Array(this.stride * this.stride);
+    this.rhs = new Float64Array(this.stride);
+    this.x = new Float64Array(this.stride);
+    this.xNew = new Float64Array(this.stride);
+    this.piv = new Int32Array(this.stride);
+    this.diag = new Int32Array(this.numNodes);
+    for (let i = 0; i < this.numNodes; i++) this.diag[i] = i * this.stride + i;
+    this.userNodeNames = b.nodeNames.slice();
+    this.unknownNames = [
+      ...b.nodeNames.map((s) => `node "${s}"`),
+      ...b.internal.map((s) => `internal node ${s}`),
+      ...b.branches.map((s) => `branch current of ${s}`),
+    ];
+    this.elements = elements;
+    this.tol = tol;
+    // 2019 SI exact constants: k = 1.380649e-23 J/K, q = 1.602176634e-19 C.
+    this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
+    for (const el of elements) el.bind(this);
+    this.q0 = new Float64Array(this.nState);
+    this.q1 = new Float64Array(this.nState);
+    this.q2 = new Float64Array(this.nState);
+    this.q3 = new Float64Array(this.nState);
+    this.i0 = new Float64Array(this.nState);
+    this.i1 = new Float64Array(this.nState);
+  }
+
+  /** Resolve a Builder placeholder to an unknown index (ground → n, the spare slot). */
+  idx(p: number): number {
+    const nUser = this.userNodeNames.length;
+    if (p === -1) return this.n;
+    if (p <= -1_000_000) return this.numNodes + (-1_000_000 - p);
+    if (p <= -1000) return nUser + (-1000 - p);
+    return p;
+  }
+  /** Matrix position of (row, col). */
+  pos(r: number, c: number): number {
+    return r * this.stride + c;
+  }
+  /** Reserve `k` integration state slots; returns the first. */
+  allocState(k: number): number {
+    const s = this.nState;
+    this.nState += k;
+    return s;
+  }
+
+  /**
+   * Integrate a charge (or flux) in slot s: returns the current dq/dt by the active formula and stores q and i.
+   * Trapezoidal: i = (2/h)(q − q_n) − i_n; backward Euler: i = (q − q_n)/h. (Companion forms: REFERENCES §2.2.)
+   */
+  integrate(s: number, q: number): number {
+    const i = this.ag0 * (q - this.q1[s]) - this.trap * this.i1[s];
+    this.q0[s] = q;
+    this.i0[s] = i;
+    return i;
+  }
+}
+
+/** Stamp a conductance g between unknowns whose positions are given. */
+export function stampG(m: Float64Array, aa: number, ab: number, ba: number, bb: number, g: number): void {
+  m[aa] += g;
+  m[bb] += g;
+  m[ab] -= g;
+  m[ba] -= g;
+}
+
+/** Positions of the 2×2 conductance block between unknowns a and b. */
+export function gPos(c: Circuit, a: number, b: number): [number, number, number, number] {
+  return [c.pos(a, a), c.pos(a, b), c.pos(b, a), c.pos(b, b)];
+}

@@ -1,0 +1,139 @@
+/**
+ * MOSFET, square law (H. Shichman & D. A. Hodges, IEEE JSSC SC-3(3), 1968):
+ *   saturation (VDS ≥ VGS−Vth): ID = K·(VGS−Vth)²·(1+λ·VDS)
+ *   triode:                      ID = K·(2(VGS−Vth)·VDS − VDS²)·(1+λ·VDS)
+ * Symmetric (drain and source swap when VDS < 0), N and P channel, fixed Cgs and Cgd, gmin from drain to source.
+ */
+import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
+import { nodeOf } from "./linear";
+
+export interface MosfetModel { Vth: number; K: number; lambda: number; Cgs: number; Cgd: number }
+
+/** Drain current and derivatives of the square law in normal mode (vds ≥ 0): writes [id, gm, gds]. */
+export function squareLaw(vgs: number, vds: number, m: MosfetModel, out: Float64Array): void {
+  const vov = vgs - m.Vth;
+  if (vov <= 0) { out[0] = 0; out[1] = 0; out[2] = 0; return; }
+  const cl = 1 + m.lambda * vds;
+  if (vds >= vov) {
+    out[0] = m.K * vov * vov * cl;
+    out[1] = 2 * m.K * vov * cl;
+    out[2] = m.K * vov * vov * m.lambda;
+  } else {
+    const f = 2 * vov * vds - vds * vds;
+    out[0] = m.K * f * cl;
+    out[1] = 2 * m.K * vds * cl;
+    out[2] = m.K * (2 * vov - 2 * vds) * cl + m.K * f * m.lambda;
+  }
+}
+
+const sq = new Float64Array(3);
+
+export class Mosfet extends Element {
+  private readonly p: number;
+  private d = 0; private g = 0; private s = 0;
+  private pdd = 0; private pdg = 0; private pds = 0; private psd = 0; private psg = 0; private pss = 0;
+  private gg = 0; private pgs = 0; private psgC = 0; private pgd = 0; private pdgC = 0;
+  private st = 0;
+  private vgs = 0; private vds = 0;
+  private id = 0; private Gg = 0; private Gd = 0;
+  constructor(name: string, private readonly nodeNames: readonly [string, string, string], polarity: "n" | "p", private readonly model: MosfetModel) {
+    super(name, "mosfet");
+    this.p = polarity === "n" ? 1 : -1;
+  }
+  setup(b: Builder): void {
+    this.d = nodeOf(b, this.nodeNames[0]);
+    this.g = nodeOf(b, this.nodeNames[1]);
+    this.s = nodeOf(b, this.nodeNames[2]);
+  }
+  bind(c: Circuit): void {
+    const d = (this.d = c.idx(this.d)), g = (this.g = c.idx(this.g)), s = (this.s = c.idx(this.s));
+    this.pdd = c.pos(d, d); this.pdg = c.pos(d, g); this.pds = c.pos(d, s);
+    this.psd = c.pos(s, d); this.psg = c.pos(s, g); this.pss = c.pos(s, s);
+    this.gg = c.pos(g, g); this.pgs = c.pos(g, s); this.psgC = c.pos(s, g); this.pgd = c.pos(g, d); this.pdgC = c.pos(d, g);
+    this.st = c.allocState(2);
+  }
+  /** normalised drain current and its derivatives wrt vgs, vds (both modes) */
+  private evaluate(vgs: number, vds: number): void {
+    if (vds >= 0) {
+      squareLaw(vgs, vds, this.model, sq);
+      this.id = sq[0]; this.Gg = sq[1]; this.Gd = sq[2];
+    } else {
+      squareLaw(vgs - vds, -vds, this.model, sq);
+      this.id = -sq[0]; this.Gg = -sq[1]; this.Gd = sq[1] + sq[2];
+    }
+  }
+  load(c: Circuit): void {
+    const m = c.mat, x = c.x, p = this.p;
+    let vgs = p * (x[this.g] - x[this.s]);
+    let vds = p * (x[this.d] - x[this.s]);
+    // simple step limiting (common practice): at most 1 V change of VGS and 5 V of VDS per iteration
+    const dg = vgs - this.vgs, dd = vds - this.vds;
+    if (Math.abs(dg) > 1 && this.vgs !== 0) { vgs = this.vgs + Math.sign(dg); c.noncon++; }
+    if (Math.abs(dd) > 5 && this.vds !== 0) { vds = this.vds + 5 * Math.sign(dd); c.noncon++; }
+    this.vgs = vgs; this.vds = vds;
+    this.evaluate(vgs, vds);
+    const gmin = c.tol.gmin;
+    const Gg = this.Gg, Gd = this.Gd + gmin;
+    const id = this.id + gmin * vds;
+    m[this.pdg] += Gg; m[this.pdd] += Gd; m[this.pds] -= Gg + Gd;
+    m[this.psg] -= Gg; m[this.psd] -= Gd; m[this.pss] += Gg + Gd;
+    const ceq = p * (id - Gg * vgs - Gd * vds);
+    c.rhs[this.d] -= ceq;
+    c.rhs[this.s] += ceq;
+    if (c.mode === MODE_TRAN) {
+      const { Cgs, Cgd } = this.model;
+      if (Cgs > 0) {
+        const v = x[this.g] - x[this.s];
+        const i = c.integrate(this.st, Cgs * v);
+        const geq = c.ag0 * Cgs;
+        stampG(m, this.gg, this.pgs, this.psgC, this.pss, geq);
+        c.rhs[this.g] -= i - geq * v; c.rhs[this.s] += i - geq * v;
+      }
+      if (Cgd > 0) {
+        const v = x[this.g] - x[this.d];
+        const i = c.integrate(this.st + 1, Cgd * v);
+        const geq = c.ag0 * Cgd;
+        stampG(m, this.gg, this.pgd, this.pdgC, this.pdd, geq);
+        c.rhs[this.g] -= i - geq * v; c.rhs[this.d] += i - geq * v;
+      }
+    }
+  }
+  override initState(c: Circuit): void {
+    c.q1[this.st] = this.model.Cgs * (c.x[this.g] - c.x[this.s]);
+    c.q1[this.st + 1] = this.model.Cgd * (c.x[this.g] - c.x[this.d]);
+    c.i1[this.st] = 0; c.i1[this.st + 1] = 0;
+  }
+  override loadCap(_c: Circuit, cap: Float64Array): void {
+    stampG(cap, this.gg, this.pgs, this.psgC, this.pss, this.model.Cgs);
+    stampG(cap, this.gg, this.pgd, this.pdgC, this.pdd, this.model.Cgd);
+  }
+  /** The element's current: drain current (into the drain terminal). */
+  override current(c: Circuit): number {
+    const p = this.p;
+    const vgs = p * (c.x[this.g] - c.x[this.s]);
+    const vds = p * (c.x[this.d] - c.x[this.s]);
+    this.evaluate(vgs, vds);
+    let i = p * (this.id + c.tol.gmin * vds);
+    if (c.mode === MODE_TRAN) i -= c.i0[this.st + 1];
+    return i;
+  }
+  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
+    const p = this.p;
+    this.evaluate(p * (c.x[this.g] - c.x[this.s]), p * (c.x[this.d] - c.x[this.s]));
+    const vgsR = xr[this.g] - xr[this.s], vgsI = xi[this.g] - xi[this.s];
+    const vdsR = xr[this.d] - xr[this.s], vdsI = xi[this.d] - xi[this.s];
+    const vgdR = xr[this.g] - xr[this.d], vgdI = xi[this.g] - xi[this.d];
+    const wc = w * this.model.Cgd;
+    out[0] = this.Gg * vgsR + this.Gd * vdsR + wc * vgdI;
+    out[1] = this.Gg * vgsI + this.Gd * vdsI - wc * vgdR;
+  }
+  override info(c: Circuit): DeviceInfo {
+    const id = this.current(c);
+    const vgs = c.x[this.g] - c.x[this.s];
+    const vds = c.x[this.d] - c.x[this.s];
+    const vov = this.p * vgs - this.model.Vth;
+    const vdsN = Math.abs(vds);
+    const region = vov <= 0 ? "cutoff" : vdsN >= vov ? "saturation" : "triode";
+    return { kind: "mosfet", id, vgs, vds, power: id * vds, region };
+  }
+}

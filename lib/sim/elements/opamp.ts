@@ -1,0 +1,201 @@
+/**
+ * Op-amp macro model, a behavioural reduction of the Boyle–Cohn–Pederson–Solomon structure (IEEE JSSC SC-9(6),
+ * 1974; REFERENCES §3.1–3.2):
+ *   vd = v(inp) − v(inn) + Vos drives a transconductance (1 S, or Imax·tanh(vd/Imax) with Imax = SR·C1 for the slew
+ *   limit) into an internal node x loaded by G1 = 1/Aol and C1 = 1/(2π·GBW): vx = Aol·vd/(1 + s/ωp),
+ *   ωp = 2π·GBW/Aol. Optional second pole: unit-gain stage into node y with C2 = 1/(2π·fp2).
+ *   Output swing: smooth (softplus) clamps hold vx between vee+swingLow and vcc−swingHigh (they also stop wind-up).
+ *   Output: ideal follower (Rout = 0, no current limit) or Norton iout = Ilim·tanh(u/(Rout·Ilim)), u = v(x|y) − v(out).
+ *   The output current is drawn from the vcc pin when sourcing and from the vee pin when sinking (smooth split).
+ *   Bias current Ib flows into each input.
+ * With Rout = 0, fp2 = null and no limits this is exactly Aol/(1 + s/ωp) with infinite input impedance.
+ */
+import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN } from "../circuit";
+import { nodeOf } from "./linear";
+
+export interface OpampModel {
+  Aol: number; GBW: number; fp2: number | null; Rout: number; slewRate: number | null; Vos: number; Ib: number;
+  swingHigh: number | null; swingLow: number | null; Iout: number | null;
+}
+
+/** clamp conductance (S) and knee width (V) of the swing limits */
+const G_CLAMP = 1e3;
+const W_CLAMP = 5e-3;
+/** smoothing current (A) of the supply-pin split */
+const EPS_SPLIT = 1e-6;
+
+function softplus(z: number): number { return z > 30 ? z : z < -30 ? Math.exp(z) : Math.log1p(Math.exp(z)); }
+function sigmoid(z: number): number { return z >= 0 ? 1 / (1 + Math.exp(-z)) : Math.exp(z) / (1 + Math.exp(z)); }
+
+export class Opamp extends Element {
+  private inp = 0; private inn = 0; private out = 0; private vcc = 0; private vee = 0;
+  private nx = 0; private ny = 0; private k = -1;
+  private readonly g1: number;
+  private readonly c1: number;
+  private readonly c2: number;
+  private readonly imax: number;
+  private readonly ideal: boolean;
+  private readonly rout: number;
+  private sx = 0; private sy = 0;
+  // positions
+  private pxInp = 0; private pxInn = 0; private pxx = 0; private pxVcc = 0; private pxVee = 0;
+  private pyx = 0; private pyy = 0;
+  private pOutK = 0; private pKOut = 0; private pKs = 0;
+  private pOutOut = 0; private pOutS = 0;
+  private pCccK = 0; private pCcOut = 0; private pCcS = 0; private pEeK = 0; private pEeOut = 0; private pEeS = 0;
+  private src = 0; // index of the node the output follows (x or y)
+
+  constructor(name: string, private readonly nodeNames: readonly [string, string, string, string, string], private readonly model: OpampModel) {
+    super(name, "opamp");
+    this.g1 = 1 / model.Aol;
+    this.c1 = 1 / (2 * Math.PI * model.GBW);
+    this.c2 = model.fp2 === null ? 0 : 1 / (2 * Math.PI * model.fp2);
+    this.imax = model.slewRate === null ? Infinity : model.slewRate * this.c1;
+    this.ideal = model.Rout === 0 && model.Iout === null;
+    this.rout = model.Rout > 0 ? model.Rout : 1e-3;
+  }
+  setup(b: Builder): void {
+    const [a, bb, o, p, n] = this.nodeNames;
+    this.inp = nodeOf(b, a); this.inn = nodeOf(b, bb); this.out = nodeOf(b, o);
+    this.vcc = nodeOf(b, p); this.vee = nodeOf(b, n);
+    this.nx = b.internalNode(`${this.name}:gain`);
+    this.ny = this.model.fp2 === null ? this.nx : b.internalNode(`${this.name}:pole2`);
+    if (this.ideal) this.k = b.branch(`opamp "${this.name}" output`);
+  }
+  bind(c: Circuit): void {
+    this.inp = c.idx(this.inp); this.inn = c.idx(this.inn); this.out = c.idx(this.out);
+    this.vcc = c.idx(this.vcc); this.vee = c.idx(this.vee);
+    this.nx = c.idx(this.nx); this.ny = c.idx(this.ny);
+    const x = this.nx;
+    this.src = this.ny;
+    this.pxInp = c.pos(x, this.inp); this.pxInn = c.pos(x, this.inn); this.pxx = c.pos(x, x);
+    this.pxVcc = c.pos(x, this.vcc); this.pxVee = c.pos(x, this.vee);
+    this.pyx = c.pos(this.ny, x); this.pyy = c.pos(this.ny, this.ny);
+    const s = this.src;
+    if (this.ideal) {
+      this.k = c.idx(this.k);
+      this.pOutK = c.pos(this.out, this.k); this.pKOut = c.pos(this.k, this.out); this.pKs = c.pos(this.k, s);
+      this.pCccK = c.pos(this.vcc, this.k); this.pEeK = c.pos(this.vee, this.k);
+    } else {
+      this.pOutOut = c.pos(this.out, this.out); this.pOutS = c.pos(this.out, s);
+      this.pCcOut = c.pos(this.vcc, this.out); this.pCcS = c.pos(this.vcc, s);
+      this.pEeOut = c.pos(this.vee, this.out); this.pEeS = c.pos(this.vee, s);
+    }
+    this.sx = c.allocState(2);
+    this.sy = this.sx + 1;
+  }
+
+  /** output current (A, out of the op-amp into the out pin) at the present solution and its slope d/du */
+  private ioutOf(u: number): number {
+    const lim = this.model.Iout;
+    return lim === null ? u / this.rout : lim * Math.tanh(u / (this.rout * lim));
+  }
+  private ioutSlope(u: number): number {
+    const lim = this.model.Iout;
+    if (lim === null) return 1 / this.rout;
+    const t = Math.tanh(u / (this.rout * lim));
+    return (1 - t * t) / this.rout;
+  }
+
+  load(c: Circuit): void {
+    const m = c.mat, x = c.x, rhs = c.rhs, mod = this.model;
+    const nx = this.nx;
+    // input bias currents leave the input nodes into the op-amp
+    if (mod.Ib !== 0) { rhs[this.inp] -= mod.Ib; rhs[this.inn] -= mod.Ib; }
+    // drive: current idrv(vd) into node x
+    const vd = x[this.inp] - x[this.inn] + mod.Vos;
+    let idrv = vd, gd = 1;
+    if (this.imax !== Infinity) {
+      const t = Math.tanh(vd / this.imax);
+      idrv = this.imax * t;
+      gd = 1 - t * t;
+    }
+    m[this.pxInp] -= gd; m[this.pxInn] += gd;
+    rhs[nx] += idrv - gd * (x[this.inp] - x[this.inn]);
+    m[this.pxx] += this.g1;
+    // swing clamps on vx, relative to the supply pins
+    const vx = x[nx];
+    if (mod.swingHigh !== null) {
+      const z = (vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP;
+      const i = G_CLAMP * W_CLAMP * softplus(z);
+      const g = G_CLAMP * sigmoid(z);
+      m[this.pxx] += g; m[this.pxVcc] -= g;
+      rhs[nx] -= i - g * (vx - x[this.vcc]);
+    }
+    if (mod.swingLow !== null) {
+      const z = (x[this.vee] + mod.swingLow - vx) / W_CLAMP;
+      const i = -G_CLAMP * W_CLAMP * softplus(z);
+      const g = G_CLAMP * sigmoid(z);
+      m[this.pxx] += g; m[this.pxVee] -= g;
+      rhs[nx] -= i - g * (vx - x[this.vee]);
+    }
+    if (this.ny !== nx) { m[this.pyy] += 1; m[this.pyx] -= 1; }
+    if (c.mode === MODE_TRAN) {
+      const ix = c.integrate(this.sx, this.c1 * vx);
+      const gx = c.ag0 * this.c1;
+      m[this.pxx] += gx;
+      rhs[nx] -= ix - gx * vx;
+      if (this.ny !== nx) {
+        const vy = x[this.ny];
+        const iy = c.integrate(this.sy, this.c2 * vy);
+        const gy = c.ag0 * this.c2;
+        m[this.pyy] += gy;
+        rhs[this.ny] -= iy - gy * vy;
+      }
+    }
+    // output stage and supply-pin currents
+    if (this.ideal) {
+      const k = this.k;
+      m[this.pOutK] += 1; m[this.pKOut] += 1; m[this.pKs] -= 1;
+      const iout = -x[k];
+      const sq = Math.sqrt(iout * iout + EPS_SPLIT * EPS_SPLIT);
+      const ipos = 0.5 * (iout + sq), ineg = 0.5 * (iout - sq);
+      const dpos = 0.5 * (1 + iout / sq), dneg = 0.5 * (1 - iout / sq);
+      // d(iout)/d(x_k) = −1
+      m[this.pCccK] -= dpos; rhs[this.vcc] -= ipos - dpos * iout;
+      m[this.pEeK] -= dneg; rhs[this.vee] -= ineg - dneg * iout;
+    } else {
+      const s = this.src, out = this.out;
+      const u = x[s] - x[out];
+      const iout = this.ioutOf(u), g = this.ioutSlope(u);
+      // KCL at out: current leaving = −iout
+      m[this.pOutOut] += g; m[this.pOutS] -= g;
+      rhs[out] -= -iout + g * u;
+      const sq = Math.sqrt(iout * iout + EPS_SPLIT * EPS_SPLIT);
+      const ipos = 0.5 * (iout + sq), ineg = 0.5 * (iout - sq);
+      const dpos = 0.5 * (1 + iout / sq) * g, dneg = 0.5 * (1 - iout / sq) * g;
+      m[this.pCcS] += dpos; m[this.pCcOut] -= dpos; rhs[this.vcc] -= ipos - dpos * u;
+      m[this.pEeS] += dneg; m[this.pEeOut] -= dneg; rhs[this.vee] -= ineg - dneg * u;
+    }
+  }
+  override initState(c: Circuit): void {
+    c.q1[this.sx] = this.c1 * c.x[this.nx];
+    c.q1[this.sy] = this.c2 * c.x[this.ny];
+    c.i1[this.sx] = 0; c.i1[this.sy] = 0;
+  }
+  override loadCap(_c: Circuit, cap: Float64Array): void {
+    cap[this.pxx] += this.c1;
+    if (this.ny !== this.nx) cap[this.pyy] += this.c2;
+  }
+  /** The element's current: output current, out of the op-amp into the out pin. */
+  override current(c: Circuit): number {
+    return this.ideal ? -c.x[this.k] : this.ioutOf(c.x[this.src] - c.x[this.out]);
+  }
+  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
+    if (this.ideal) { out[0] = -xr[this.k]; out[1] = -xi[this.k]; return; }
+    const g = this.ioutSlope(c.x[this.src] - c.x[this.out]);
+    out[0] = g * (xr[this.src] - xr[this.out]);
+    out[1] = g * (xi[this.src] - xi[this.out]);
+  }
+  override info(c: Circuit): DeviceInfo {
+    const mod = this.model, x = c.x;
+    const vx = x[this.nx];
+    const vd = x[this.inp] - x[this.inn] + mod.Vos;
+    let limiting = false;
+    if (mod.swingHigh !== null && vx > x[this.vcc] - mod.swingHigh - 2 * W_CLAMP) limiting = true;
+    if (mod.swingLow !== null && vx < x[this.vee] + mod.swingLow + 2 * W_CLAMP) limiting = true;
+    if (this.imax !== Infinity && Math.abs(vd) > this.imax) limiting = true;
+    if (!this.ideal && mod.Iout !== null && Math.abs(x[this.src] - x[this.out]) > this.rout * mod.Iout) limiting = true;
+    return { kind: "opamp", vout: x[this.out], iout: this.current(c), limiting };
+  }
+}

@@ -1,0 +1,91 @@
+/**
+ * Quell's circuit engine: modified nodal analysis with operating point, DC sweep, AC and transient analyses;
+ * diode, Ebers–Moll BJT, square-law MOSFET and macro op-amp models. Pure TypeScript (runs in a Web Worker or Node).
+ *
+ *   const result = simulate(netlist, { timeBudgetMs: 5000, shouldStop, onProgress });
+ *
+ * `compile(netlist)` validates and builds the topology once and returns an object whose `run()` can be called
+ * repeatedly (each run restarts from a zero guess; device limiting state is reused as a warm start). Build a new one
+ * when element values change — compiling is cheap next to solving.
+ */
+import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";
+import { parseNetlist } from "./netlist";
+import { buildCircuit } from "./compile";
+import type { Circuit } from "./circuit";
+import { runDcSweep, runOp } from "./analysis/dc";
+import { runAc } from "./analysis/ac";
+import { runTran } from "./analysis/tran";
+import { SimError } from "./errors";
+import type { SimResult } from "./results";
+
+export { netlistSchema, elementSchema, analysisSchema, waveSchema, ELEMENT_KINDS } from "./schema";
+export type { Netlist, ParsedNetlist, NetlistElement, ParsedElement, Analysis, ParsedAnalysis, Wave, SimTolerances } from "./schema";
+export { parseNetlist, isGround } from "./netlist";
+export { SimError, isSimError, type SimErrorCode } from "./errors";
+export { resultToJSON } from "./results";
+export type { SimResult, OpResult, DcSweepResult, AcResult, TranResult, ComplexColumn, DeviceInfo } from "./results";
+export { transportCurrents } from "./elements/bjt";
+export { logFrequencies } from "./analysis/ac";
+
+export interface SimOptions {
+  /** wall-clock budget, ms (default 30 000); exceeding it throws SimError "budget" */
+  timeBudgetMs?: number;
+  /** polled between steps/iterations; returning true throws SimError "cancelled" */
+  shouldStop?: () => boolean;
+  /** fraction done, 0..1 (sweeps, AC and transient) */
+  onProgress?: (fraction: number) => void;
+}
+
+export const DEFAULT_TIME_BUDGET_MS = 30_000;
+
+export interface CompiledNetlist {
+  /** the validated netlist with defaults filled in */
+  readonly netlist: ParsedNetlist;
+  /** user node names, in unknown order (ground excluded) */
+  readonly nodeNames: readonly string[];
+  /** size of the MNA system */
+  readonly unknowns: number;
+  /** Run the netlist's analysis, or another one on the same circuit. */
+  run(options?: SimOptions, analysis?: Analysis): SimResult;
+}
+
+function execute(c: Circuit, netlist: ParsedNetlist, analysis: ParsedNetlist["analysis"], options: SimOptions): SimResult {
+  c.deadline = performance.now() + (options.timeBudgetMs ?? DEFAULT_TIME_BUDGET_MS);
+  c.shouldStop = options.shouldStop;
+  c.newtonIterations = 0;
+  c.srcScale = 1;
+  c.gshunt = 0;
+  switch (analysis.kind) {
+    case "op": return runOp(c);
+    case "dcsweep": return runDcSweep(c, analysis.source, analysis.from, analysis.to, analysis.points, options.onProgress);
+    case "ac": return runAc(c, analysis.fStart, analysis.fStop, analysis.pointsPerDecade, options.onProgress);
+    case "tran": return runTran(c, analysis, options.onProgress);
+  }
+}
+
+export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
+  const parsed = parseNetlist(netlist);
+  const c = buildCircuit(parsed);
+  return {
+    netlist: parsed,
+    nodeNames: c.userNodeNames,
+    unknowns: c.n,
+    run(options: SimOptions = {}, analysis?: Analysis): SimResult {
+      let a = parsed.analysis;
+      if (analysis) {
+        const r = analysisSchema.safeParse(analysis);
+        if (!r.success) throw new SimError("invalid", `Invalid analysis: ${r.error.issues.map((i) => `field "${i.path.join(".")}" ${i.message}`).join("; ")}`);
+        a = r.data;
+        if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === (a as { source: string }).source && (e.kind === "vsource" || e.kind === "isource"))) {
+          throw new SimError("invalid", `Invalid analysis: field "source" names "${a.source}", which is not a vsource or isource`);
+        }
+      }
+      return execute(c, parsed, a, options);
+    },
+  };
+}
+
+/** Validate and run the netlist's analysis. Throws SimError (see errors.ts for the codes). */
+export function simulate(netlist: Netlist | ParsedNetlist, options: SimOptions = {}): SimResult {
+  return compile(netlist).run(options);
+}
