@@ -45,6 +45,10 @@ const server = new SMTPServer({
 server.on("error", (err) => console.error("[mail] smtp error:", err.message));
 server.listen(port, host, () => console.log(`[mail] SMTP fake listening on ${host}:${port}`));
 
-const stop = () => server.close(() => void db.destroy().then(() => process.exit(0)));
+// Close gracefully, but never linger: an idle SMTP client must not keep the fake alive after Ctrl-C.
+const stop = () => {
+  setTimeout(() => process.exit(0), 1000).unref();
+  server.close(() => void db.destroy().finally(() => process.exit(0)));
+};
 process.on("SIGINT", stop);
 process.on("SIGTERM", stop);

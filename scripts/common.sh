@@ -55,3 +55,17 @@ build_if_stale() {
   say "building ($dist)"
   QUELL_DIST_DIR="$dist" npx next build
 }
+
+# Stop background processes: TERM first, KILL whatever is still there two seconds later.
+stop_all() {
+  local p i
+  for p in "$@"; do kill "$p" 2>/dev/null || true; done
+  for i in $(seq 1 20); do
+    local alive=0
+    for p in "$@"; do kill -0 "$p" 2>/dev/null && alive=1; done
+    [ $alive = 0 ] && break
+    sleep 0.1
+  done
+  for p in "$@"; do kill -9 "$p" 2>/dev/null || true; done
+  wait 2>/dev/null || true
+}

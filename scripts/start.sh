@@ -12,8 +12,7 @@ seed
 pids=()
 cleanup() {
   trap - INT TERM EXIT
-  for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done
-  wait 2>/dev/null || true
+  stop_all "${pids[@]}"
   say "stopped the app and the mail fake (the database keeps running: npm run db:stop)"
 }
 trap cleanup INT TERM EXIT
@@ -22,7 +21,7 @@ node --import tsx db/mail-fake.ts & pids+=($!)
 wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
 NODE_ENV=production build_if_stale .next
-NODE_ENV=production QUELL_DIST_DIR=.next npx next start -p "$PORT" & pids+=($!)
+NODE_ENV=production QUELL_DIST_DIR=.next npx next start -p "$PORT" -H "${QUELL_HOST:-127.0.0.1}" & pids+=($!)
 wait_http "http://127.0.0.1:$PORT/api/health" || { say "the app did not answer"; exit 1; }
 
 cat <<MSG

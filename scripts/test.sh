@@ -21,8 +21,7 @@ RESULTS="$QUELL_DATA/test-results-$QUELL_DB"; mkdir -p "$RESULTS"; rm -f "$RESUL
 pids=()
 cleanup() {
   trap - INT TERM EXIT
-  for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done
-  wait 2>/dev/null || true
+  stop_all "${pids[@]}"
 }
 trap cleanup INT TERM EXIT
 
