@@ -122,3 +122,17 @@ describe("workbench store: studies", () => {
     expect(store.getState().studies.map.status).toBe("idle");
   });
 });
+
+import { getPath, setPath } from "@/lib/workbench/paths";
+
+describe("scenario paths", () => {
+  it("writes a nested field by copying only the objects on the path", () => {
+    const s = { parts: { compCapacitor: 1e-9, senseResistor: 0.1 }, load: { cable: { length: 4 } } };
+    const t = setPath(s, "load.cable.length", 10);
+    expect(getPath(t, "load.cable.length")).toBe(10);
+    expect(s.load.cable.length).toBe(4);
+    expect(t.parts).toBe(s.parts);
+    expect(setPath(s, "parts.compCapacitor", 1e-9)).toBe(s);
+    expect(() => setPath(s, "parts.nope", 1)).toThrow(RangeError);
+  });
+});

@@ -1,0 +1,146 @@
+"use client";
+/**
+ * Step response and Bode plots. The worker's columns go to uPlot as they are; the previous run is drawn behind as
+ * a dashed ghost at ~35 % opacity so that a change shows as a change.
+ */
+import { useMemo, useRef } from "react";
+import type uPlot from "uplot";
+import { formatEng } from "@/lib/units/eng";
+import type { BodeView, LoopView, StepView } from "@/lib/workbench/types";
+import type { CsvColumn } from "@/lib/workbench/csv";
+import { UPlotChart, type Marker, type Overlay, type UPlotHandle } from "./UPlotChart";
+import { AXIS, GHOST_ALPHA, GHOST_DASH, OKABE_ITO } from "./palette";
+import { ExportButtons } from "./ExportMenu";
+
+const engTicks = (unit: string) => (_u: uPlot, vals: number[]) => vals.map((v) => (v == null ? "" : formatEng(v, unit, 3)));
+
+const axis = (over: Partial<uPlot.Axis>): uPlot.Axis => ({
+  stroke: AXIS.stroke, grid: AXIS.grid, ticks: AXIS.ticks, font: AXIS.font, labelFont: AXIS.labelFont, ...over,
+});
+
+const STEP_SERIES = [
+  { key: "iLoad", label: "Load current", unit: "A", scale: "A", color: OKABE_ITO[0] },
+  { key: "vCommand", label: "Command", unit: "V", scale: "V", color: OKABE_ITO[1] },
+  { key: "vOpampOut", label: "Op-amp output", unit: "V", scale: "V", color: OKABE_ITO[2] },
+  { key: "vPass", label: "Collector/drain", unit: "V", scale: "V", color: OKABE_ITO[3] },
+] as const;
+
+function PlotHeader({ title, children }: { title: string; children?: React.ReactNode }) {
+  return (
+    <div className="flex items-center justify-between px-1 pb-1">
+      <h3 className="text-[13px] font-semibold text-ink">{title}</h3>
+      {children}
+    </div>
+  );
+}
+
+export function StepPlot({ step, ghost, height = 230, title = "Step response" }: { step: StepView | null; ghost: StepView | null; height?: number; title?: string }) {
+  const ref = useRef<UPlotHandle>(null);
+  const options = useMemo<Omit<uPlot.Options, "width" | "height">>(() => ({
+    legend: { live: true },
+    cursor: { drag: { x: true, y: false }, sync: { key: "step" } },
+    scales: { x: { time: false }, A: { auto: true }, V: { auto: true } },
+    series: [
+      { label: "t", value: (_u, v) => (v == null ? "—" : formatEng(v, "s")) },
+      ...STEP_SERIES.map((s) => ({
+        label: s.label,
+        scale: s.scale,
+        stroke: s.color,
+        width: s.key === "iLoad" ? 2 : 1.4,
+        value: (_u: uPlot, v: number | null) => (v == null ? "—" : formatEng(v, s.unit)),
+      })),
+    ],
+    axes: [
+      axis({ values: engTicks("s") }),
+      axis({ scale: "A", values: engTicks("A"), size: 58 }),
+      axis({ scale: "V", side: 1, values: engTicks("V"), size: 52, grid: { show: false } }),
+    ],
+  }), []);
+  const data = useMemo<uPlot.AlignedData>(
+    () => (step ? [step.time, step.iLoad, step.vCommand, step.vOpampOut, step.vPass] : [[], [], [], [], []]),
+    [step],
+  );
+  const under = useMemo<Overlay[]>(
+    () => (ghost ? STEP_SERIES.map((s) => ({ x: ghost.time, y: ghost[s.key], stroke: s.color, scale: s.scale, dash: GHOST_DASH, alpha: GHOST_ALPHA })) : []),
+    [ghost],
+  );
+  const columns = (): CsvColumn[] | null =>
+    step ? [{ name: "time", unit: "s", data: step.time }, ...STEP_SERIES.map((s) => ({ name: s.label, unit: s.unit, data: step[s.key] }))] : null;
+  return (
+    <figure className="rounded border border-hairline bg-white p-2" data-testid="plot-step">
+      <PlotHeader title={title}>
+        <ExportButtons name={title} columns={columns} png={() => ref.current?.toPng() ?? null} testId="export-step" />
+      </PlotHeader>
+      <UPlotChart ref={ref} options={options} data={data} height={height} under={under} ariaLabel={`${title}: load current, command, op-amp output and collector voltage against time`} testId="uplot-step" />
+    </figure>
+  );
+}
+
+export interface BodeProps {
+  title: string;
+  bode: BodeView | null;
+  ghost: BodeView | null;
+  magUnit: string;
+  /** cursor sync key, and a testid stem */
+  id: string;
+  loop?: LoopView | null;
+  height?: number;
+  extraMarkers?: Marker[];
+}
+
+export function BodePlot({ title, bode, ghost, magUnit, id, loop, height = 150, extraMarkers }: BodeProps) {
+  const magRef = useRef<UPlotHandle>(null);
+  const phRef = useRef<UPlotHandle>(null);
+  const mk = (scale: "mag" | "ph"): Omit<uPlot.Options, "width" | "height"> => ({
+    legend: { live: true },
+    cursor: { drag: { x: true, y: false }, sync: { key: id } },
+    scales: { x: { time: false, distr: 3 }, [scale]: { auto: true } },
+    series: [
+      { label: "f", value: (_u, v) => (v == null ? "—" : formatEng(v, "Hz")) },
+      {
+        label: scale === "mag" ? `|${title}|` : `∠${title}`,
+        scale,
+        stroke: scale === "mag" ? OKABE_ITO[0] : OKABE_ITO[1],
+        width: 1.8,
+        value: (_u, v) => (v == null ? "—" : scale === "mag" ? `${v.toFixed(1)} ${magUnit}` : `${v.toFixed(1)}°`),
+      },
+    ],
+    axes: [
+      axis({ values: engTicks("Hz"), space: 50 }),
+      axis({ scale, size: 52, values: (_u, vals) => vals.map((v) => (v == null ? "" : scale === "mag" ? `${v}` : `${v}°`)), label: scale === "mag" ? magUnit : "phase", labelSize: 14 }),
+    ],
+  });
+  const magOpts = useMemo(() => mk("mag"), [id, title, magUnit]); // eslint-disable-line react-hooks/exhaustive-deps
+  const phOpts = useMemo(() => mk("ph"), [id, title, magUnit]); // eslint-disable-line react-hooks/exhaustive-deps
+  const magData = useMemo<uPlot.AlignedData>(() => (bode ? [bode.freq, bode.magDb] : [[], []]), [bode]);
+  const phData = useMemo<uPlot.AlignedData>(() => (bode ? [bode.freq, bode.phaseDeg] : [[], []]), [bode]);
+  const magGhost = useMemo<Overlay[]>(() => (ghost ? [{ x: ghost.freq, y: ghost.magDb, stroke: OKABE_ITO[0], scale: "mag", dash: GHOST_DASH, alpha: GHOST_ALPHA }] : []), [ghost]);
+  const phGhost = useMemo<Overlay[]>(() => (ghost ? [{ x: ghost.freq, y: ghost.phaseDeg, stroke: OKABE_ITO[1], scale: "ph", dash: GHOST_DASH, alpha: GHOST_ALPHA }] : []), [ghost]);
+  const magMarkers = useMemo<Marker[]>(() => {
+    const m: Marker[] = [...(extraMarkers ?? [])];
+    if (loop) {
+      m.push({ y: 0, scale: "mag", label: "0 dB", color: "#5B6472" });
+      if (loop.crossoverHz !== null) m.push({ x: loop.crossoverHz, label: `crossover ${formatEng(loop.crossoverHz, "Hz")}`, color: "#0F766E" });
+    }
+    return m;
+  }, [loop, extraMarkers]);
+  const phMarkers = useMemo<Marker[]>(() => {
+    if (!loop) return [];
+    const m: Marker[] = [{ y: -180, scale: "ph", label: "−180°", color: "#B91C1C" }];
+    if (loop.crossoverHz !== null) {
+      m.push({ x: loop.crossoverHz, label: loop.phaseMarginDeg !== null ? `phase margin ${loop.phaseMarginDeg.toFixed(1)}°` : "", color: "#0F766E" });
+    }
+    return m;
+  }, [loop]);
+  const columns = (): CsvColumn[] | null =>
+    bode ? [{ name: "frequency", unit: "Hz", data: bode.freq }, { name: `${title} magnitude`, unit: magUnit, data: bode.magDb }, { name: `${title} phase`, unit: "deg", data: bode.phaseDeg }] : null;
+  return (
+    <figure className="rounded border border-hairline bg-white p-2" data-testid={`plot-${id}`}>
+      <PlotHeader title={title}>
+        <ExportButtons name={title} columns={columns} png={() => magRef.current?.toPng() ?? null} testId={`export-${id}`} />
+      </PlotHeader>
+      <UPlotChart ref={magRef} options={magOpts} data={magData} under={magGhost} markers={magMarkers} height={height} ariaLabel={`${title} magnitude against frequency`} testId={`uplot-${id}-mag`} />
+      <UPlotChart ref={phRef} options={phOpts} data={phData} under={phGhost} markers={phMarkers} height={Math.round(height * 0.8)} ariaLabel={`${title} phase against frequency`} testId={`uplot-${id}-phase`} />
+    </figure>
+  );
+}

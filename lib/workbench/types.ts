@@ -1,0 +1,90 @@
+/**
+ * What the workbench shows, in the shape the plots want: Float64Array columns straight from the worker (transferred,
+ * never reshaped on the main thread), the design layer's metric and check types unchanged.
+ */
+import type { Caution, CheckRow } from "@/lib/design/checks";
+import type { Scenario } from "@/lib/design/schema";
+import type { StepMetrics } from "@/lib/design/metrics";
+import type { WorkbenchState, WorkbenchStore } from "./store";
+
+export interface StepView {
+  time: Float64Array;
+  /** load current, A */
+  iLoad: Float64Array;
+  /** command voltage, V */
+  vCommand: Float64Array;
+  /** op-amp output, V */
+  vOpampOut: Float64Array;
+  /** collector/drain voltage, V */
+  vPass: Float64Array;
+  metrics: StepMetrics;
+}
+
+export interface BodeView {
+  freq: Float64Array;
+  magDb: Float64Array;
+  phaseDeg: Float64Array;
+}
+
+export interface LoopView extends BodeView {
+  phaseMarginDeg: number | null;
+  gainMarginDb: number | null;
+  crossoverHz: number | null;
+}
+
+export interface OperatingPointResult {
+  nodes: Record<string, number>;
+  currents: Record<string, number>;
+  devices: Record<string, object>;
+}
+
+export interface LiveResult {
+  step: StepView | null;
+  loop: LoopView | null;
+  /** closed-loop transconductance Iload/Vcommand, magnitude in dB(A/V) */
+  closed: (BodeView & { bandwidthHz: number | null }) | null;
+  /** output impedance seen by the load, magnitude in dBΩ */
+  zout: BodeView | null;
+  op: OperatingPointResult | null;
+  checks: CheckRow[];
+  cautions: Caution[];
+  /** worst-case DC error, % of full scale */
+  fullScaleErrorPct: number | null;
+  /** worst-case pass-device dissipation, W */
+  worstDissipationW: number | null;
+  /** analyses that failed, with the engine's message (the others still show) */
+  failures: { analysis: string; message: string }[];
+}
+
+/** One chunk of a study, as the worker streams it back. */
+export interface SweepChunk {
+  /** index of each point in the sweep, parameter value, and its results */
+  points: { index: number; value: number; step: StepView | null; loop: LoopView | null; metrics: Record<string, number | null> }[];
+}
+export interface MapChunk {
+  /** cells: flat index ix + iy·nx, and the metric value (null when the run failed) */
+  cells: { ix: number; iy: number; value: number | null }[];
+}
+export interface SpreadChunk {
+  runs: { index: number; errorPct: number | null; phaseMarginDeg: number | null }[];
+}
+export interface CompensateChunk {
+  result: CompensateOutcome;
+}
+export interface CompensateOutcome {
+  found: boolean;
+  compCapacitor: number | null;
+  baseResistor: number | null;
+  phaseMarginDeg: number | null;
+  overshootPct: number | null;
+  settlingTime1pct: number | null;
+  message: string;
+  candidates: { compCapacitor: number; baseResistor: number; phaseMarginDeg: number | null; overshootPct: number | null; settlingTime1pct: number | null; ok: boolean }[];
+}
+
+export type StudyChunks = { sweep: SweepChunk; map: MapChunk; spread: SpreadChunk; compensate: CompensateChunk };
+export type StudyKind = keyof StudyChunks;
+export const STUDY_KINDS: readonly StudyKind[] = ["sweep", "map", "spread", "compensate"];
+
+export type WbState = WorkbenchState<Scenario, LiveResult, StudyChunks>;
+export type WbStore = WorkbenchStore<Scenario, LiveResult, StudyChunks>;
