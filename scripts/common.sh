@@ -53,7 +53,7 @@ build_if_stale() {
     return 0
   fi
   say "building ($dist)"
-  QUELL_DIST_DIR="$dist" npx next build
+  QUELL_DIST_DIR="$dist" node_modules/.bin/next build
 }
 
 # Stop background processes: TERM first, KILL whatever is still there two seconds later.
