@@ -45,7 +45,7 @@ choose_dir() {
     local h
     h=$(printf '%s' "$QUELL_ROOT" | cksum | cut -d' ' -f1)
     PGDATA_DIR="${TMPDIR:-/tmp}/quell-pg-$h"
-    log "postgres cannot reach $QUELL_DATA; using $PGDATA_DIR"
+    FALLBACK_REASON="the postgres user cannot reach $QUELL_DATA"
   fi
 }
 
@@ -59,7 +59,7 @@ start() {
   ensure_installed
   choose_dir
   if [ ! -f "$PGDATA_DIR/PG_VERSION" ]; then
-    log "initialising a cluster in $PGDATA_DIR"
+    log "initialising a cluster in $PGDATA_DIR${FALLBACK_REASON:+ ($FALLBACK_REASON)}"
     mkdir -p "$PGDATA_DIR"
     [ "$(id -u)" = 0 ] && chown postgres:postgres "$PGDATA_DIR"
     chmod 700 "$PGDATA_DIR"
