@@ -1,0 +1,366 @@
+/**
+ * Templates → engine netlists. One builder per template; the load, cable, supplies and stimulus are shared.
+ *
+ * Fixed names the runners rely on (see `NAMES`): the command source VCMD, the load-current ammeter VMEAS (a 0 V
+ * source in series with the load whose current is positive in the regulated direction), the op-amp U1 with its
+ * output at node "oa", the pass-device terminal "c" (collector/drain), and for loop gain the probe VPROBE/IPROBE
+ * between the op-amp's output pin ("oa_i") and the node it drives ("oa") — the one wire every loop passes through.
+ */
+import type { AnalysisJson, NetlistElementJson, NetlistJson, Wave } from "./netlist";
+import type { Scenario } from "./schema";
+
+export type CompilePurpose = "op" | "step" | "loopgain-v" | "loopgain-i" | "closedloop" | "zout" | "dcsweep";
+
+export interface CompileOptions {
+  /** zout: DC voltage across the load terminals (hi − lo) to hold while measuring, V (default: an estimate) */
+  zoutBias?: number;
+  /** AC sweep: start and stop frequency, Hz, and points per decade */
+  fStart?: number;
+  fStop?: number;
+  pointsPerDecade?: number;
+  /** dcsweep: points */
+  sweepPoints?: number;
+  /** transient: suggested output step, s */
+  tStep?: number;
+}
+
+export const NAMES = {
+  command: "VCMD",
+  ammeter: "VMEAS",
+  probeV: "VPROBE",
+  probeI: "IPROBE",
+  opamp: "U1",
+  zoutSource: "VTEST",
+  loadSupply: "VLOAD",
+  sense: "RSENSE",
+  nodeOpampOut: "oa",
+  nodeOpampPin: "oa_i",
+  nodePass: "c",
+  nodeCommand: "cmd",
+} as const;
+
+const AC_DEFAULT = { fStart: 10, fStop: 10e6, pointsPerDecade: 20 };
+
+/** The command the small-signal analyses and the operating point are taken at, V. */
+export function operatingCommand(s: Scenario): number {
+  return s.stimulus.commandHigh;
+}
+
+/** Ideal transfer Iload/Vcommand, A/V: k/Rsense for the divider templates, R2/(R1·Rs) for the Howland pump. */
+export function idealTransconductance(s: Scenario): number {
+  const p = s.parts;
+  if (s.template === "howland") return p.howlandR2 / (p.howlandR1 * p.senseResistor);
+  return dividerRatio(s) / p.senseResistor;
+}
+
+/** Command divider ratio k = Rbottom/(Rtop + Rbottom). */
+export function dividerRatio(s: Scenario): number {
+  return s.parts.dividerBottom / (s.parts.dividerTop + s.parts.dividerBottom);
+}
+
+/** Total series resistance of the cable loop (two conductors), Ω. */
+export function cableResistance(s: Scenario): number {
+  const c = s.load.cable;
+  return 2 * c.length * c.rPerM;
+}
+
+function isSink(s: Scenario): boolean {
+  return s.template === "sink-npn" || s.template === "sink-darlington" || s.template === "sink-nmos";
+}
+
+/** Estimated DC voltage across the load network (hi − lo) at current i, V. */
+export function loadDrop(s: Scenario, i: number, resistance = s.load.resistance): number {
+  const L = s.load;
+  const vt = thermalVoltage(s.thermal.ambient);
+  switch (L.kind) {
+    case "resistor":
+    case "coil":
+      return i * resistance;
+    case "led": {
+      const a = Math.abs(i);
+      const vd = a > 0 ? L.ledCount * L.ledN * vt * Math.log(a / L.ledIs + 1) : 0;
+      return Math.sign(i) * vd + i * resistance;
+    }
+    case "cell":
+      // A sink discharges the cell (it drives current), a source charges it (it opposes current).
+      return isSink(s) ? -L.cellVoltage + i * resistance : L.cellVoltage + i * resistance;
+  }
+}
+
+/** kT/q at a temperature in °C, with the exact 2019 SI constants. */
+export function thermalVoltage(tempC: number): number {
+  return (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
+}
+
+interface Builder {
+  els: NetlistElementJson[];
+  s: Scenario;
+  purpose: CompilePurpose;
+  opts: CompileOptions;
+}
+
+function add(b: Builder, e: NetlistElementJson): void {
+  b.els.push(e);
+}
+
+function res(b: Builder, name: string, n1: string, n2: string, value: number): void {
+  add(b, { kind: "resistor", name, nodes: [n1, n2], value });
+}
+
+function pwlStep(low: number, high: number, t0: number, edge: number): Wave {
+  return { shape: "pwl", points: [[0, low], [t0, low], [t0 + edge, high]] };
+}
+
+/** Command source (with its output resistance) driving node "cmd" relative to `ref`. */
+function commandSource(b: Builder, plus: string, minus: string): void {
+  const { s, purpose } = b;
+  const st = s.stimulus;
+  const dcOp = operatingCommand(s);
+  let dc = dcOp;
+  let wave: Wave | undefined;
+  let ac: number | undefined;
+  if (purpose === "step") {
+    if (st.kind === "command-step") {
+      dc = st.commandLow;
+      wave = pwlStep(st.commandLow, st.commandHigh, st.stepTime, st.edgeTime);
+    } else if (st.kind === "command-ramp") {
+      dc = st.commandLow;
+      wave = pwlStep(st.commandLow, st.commandHigh, st.stepTime, st.rampTime);
+    }
+  }
+  if (purpose === "closedloop") ac = 1;
+  const out = st.sourceResistance > 0 ? "cmd_s" : plus;
+  const src: NetlistElementJson = { kind: "vsource", name: NAMES.command, nodes: [out, minus], dc };
+  if (wave) src.wave = wave;
+  if (ac !== undefined) src.ac = ac;
+  add(b, src);
+  if (st.sourceResistance > 0) res(b, "RCMD", out, plus, st.sourceResistance);
+}
+
+function supplySource(b: Builder, name: string, node: string, value: number, steps: boolean): void {
+  const { s, purpose } = b;
+  const st = s.stimulus;
+  const src: NetlistElementJson = { kind: "vsource", name, nodes: [node, "0"], dc: value };
+  if (purpose === "step" && st.kind === "power-up") {
+    src.dc = 0;
+    src.wave = pwlStep(0, value, st.stepTime, Math.max(st.edgeTime, st.rampTime));
+  } else if (purpose === "step" && steps && st.kind === "supply-step") {
+    src.wave = pwlStep(value, value + st.supplyStep, st.stepTime, st.edgeTime);
+  }
+  add(b, src);
+}
+
+/** Op-amp with its supplies; its output pin is "oa_i" when probed, else "oa". */
+function opamp(b: Builder, inp: string, inn: string): void {
+  const { s, purpose } = b;
+  const o = s.opamp;
+  supplySource(b, "VCC", "vcc", s.supplies.opampPositive, false);
+  let vee = "0";
+  if (s.supplies.opampNegative < 0) {
+    supplySource(b, "VEE", "vee", s.supplies.opampNegative, false);
+    vee = "vee";
+  }
+  const probed = purpose === "loopgain-v" || purpose === "loopgain-i";
+  const pin = probed ? NAMES.nodeOpampPin : NAMES.nodeOpampOut;
+  add(b, {
+    kind: "opamp",
+    name: NAMES.opamp,
+    nodes: [inp, inn, pin, "vcc", vee],
+    model: {
+      Aol: o.Aol, GBW: o.GBW, fp2: o.fp2, Rout: o.Rout, slewRate: o.slewRate, Vos: o.Vos, Ib: o.Ib,
+      swingHigh: o.swingHigh, swingLow: o.swingLow, Iout: o.Iout,
+    },
+  });
+  if (probed) {
+    // Series voltage probe: v(oa) = v(oa_i) + Vi; shunt current probe injects into "oa".
+    add(b, { kind: "vsource", name: NAMES.probeV, nodes: [NAMES.nodeOpampOut, NAMES.nodeOpampPin], dc: 0, ac: purpose === "loopgain-v" ? 1 : 0 });
+    add(b, { kind: "isource", name: NAMES.probeI, nodes: ["0", NAMES.nodeOpampOut], dc: 0, ac: purpose === "loopgain-i" ? 1 : 0 });
+  }
+}
+
+function bjtModel(s: Scenario, scale = 1): Record<string, number | null> {
+  const p = s.pass;
+  return {
+    Is: p.Is * scale, betaF: p.betaF, betaR: p.betaR, VA: p.VA,
+    Cje0: p.Cje0 * scale, Cjc0: p.Cjc0 * scale, tauF: p.tauF,
+  };
+}
+
+function mosModel(s: Scenario): Record<string, number | null> {
+  const p = s.pass;
+  return { Vth: p.Vth, K: p.K, lambda: p.lambda, Cgs: p.Cgs, Cgd: p.Cgd };
+}
+
+/**
+ * The load path from the pass-device terminal "c" through the cable, the ammeter and the load to the far side.
+ * `sink`: current flows from the load supply through the load into "c"; otherwise out of "c" into the load.
+ */
+function loadPath(b: Builder, sink: boolean, farNode: string): void {
+  const { s, purpose } = b;
+  const L = s.load;
+  const cab = L.cable;
+  // Cable: `sections` lumped R–L sections, shunt C at each section's pass-side end to the far conductor.
+  let near: string = NAMES.nodePass;
+  if (cab.length > 0) {
+    const n = cab.sections;
+    const rSec = cableResistance(s) / n;
+    const lSec = (cab.length * cab.lPerM) / n;
+    const cSec = (cab.length * cab.cPerM) / n;
+    for (let k = 0; k < n; k++) {
+      const a = k === 0 ? NAMES.nodePass : `cab${k}`;
+      const mid = `cabm${k}`;
+      const z = k === n - 1 ? "lw" : `cab${k + 1}`;
+      if (lSec > 0) {
+        res(b, `RCAB${k}`, a, mid, Math.max(rSec, 1e-6));
+        add(b, { kind: "inductor", name: `LCAB${k}`, nodes: [mid, z], value: lSec });
+      } else {
+        res(b, `RCAB${k}`, a, z, Math.max(rSec, 1e-6));
+      }
+      if (cSec > 0) add(b, { kind: "capacitor", name: `CCAB${k}`, nodes: [a, farNode], value: cSec });
+    }
+    near = "lw";
+  }
+  // Ammeter: positive in the regulated direction.
+  add(b, { kind: "vsource", name: NAMES.ammeter, nodes: sink ? ["lt", near] : [near, "lt"], dc: 0 });
+  const hi = sink ? farNode : "lt";
+  const lo = sink ? "lt" : farNode;
+  if (purpose === "zout") {
+    const bias = b.opts.zoutBias ?? loadDrop(s, idealTransconductance(s) * operatingCommand(s));
+    add(b, { kind: "vsource", name: NAMES.zoutSource, nodes: [hi, lo], dc: bias, ac: 1 });
+    return;
+  }
+  const rLoad = Math.max(L.resistance, 1e-6);
+  switch (L.kind) {
+    case "resistor":
+      res(b, "RLOAD", hi, lo, rLoad);
+      break;
+    case "coil":
+      res(b, "RLOAD", hi, "lc", rLoad);
+      if (L.inductance > 0) add(b, { kind: "inductor", name: "LLOAD", nodes: ["lc", lo], value: L.inductance });
+      else res(b, "RLC", "lc", lo, 1e-6);
+      if (L.clampDiode) add(b, { kind: "diode", name: "DCLAMP", nodes: [lo, hi], model: { Is: 1e-12, n: 1.5, Rs: 0.05 } });
+      break;
+    case "led":
+      // N identical diodes in series carry the same current, so V = N·n·Vt·ln(I/Is + 1): exactly one diode with
+      // emission coefficient N·n. One element instead of N keeps the matrix small.
+      add(b, { kind: "diode", name: "DLED", nodes: [hi, "ld"], model: { Is: L.ledIs, n: L.ledN * L.ledCount } });
+      res(b, "RLOAD", "ld", lo, rLoad);
+      break;
+    case "cell":
+      // A sink discharges the cell: its + terminal faces the sink. A source charges it: + faces the source.
+      if (sink) add(b, { kind: "vsource", name: "VCELL", nodes: ["lcell", hi], dc: L.cellVoltage });
+      else add(b, { kind: "vsource", name: "VCELL", nodes: ["lcell", lo], dc: L.cellVoltage });
+      if (sink) res(b, "RLOAD", "lcell", lo, rLoad);
+      else res(b, "RLOAD", hi, "lcell", rLoad);
+      break;
+  }
+  if (L.extraCapacitance > 0) add(b, { kind: "capacitor", name: "CLOAD", nodes: [hi, lo], value: L.extraCapacitance });
+  if (s.stimulus.kind === "load-step") {
+    const t0 = purpose === "step" ? s.stimulus.stepTime : Number.MAX_SAFE_INTEGER;
+    res(b, "RSTEP", hi, "ls", s.load.stepResistance);
+    add(b, {
+      kind: "switch", name: "SSTEP", nodes: ["ls", lo], ron: 1e-3, roff: 1e9,
+      schedule: purpose === "step" ? [[0, "off"], [t0, "on"]] : [[0, "off"]],
+      transition: s.stimulus.edgeTime,
+    });
+  }
+}
+
+/** Low-side sinks (NPN, Darlington, N-MOSFET). */
+function buildSink(b: Builder): void {
+  const { s } = b;
+  const p = s.parts;
+  commandSource(b, NAMES.nodeCommand, "0");
+  const ref = p.dividerTop > 0 ? "ref" : NAMES.nodeCommand;
+  if (p.dividerTop > 0) res(b, "RDIVT", NAMES.nodeCommand, "ref", p.dividerTop);
+  res(b, "RDIVB", ref, "0", p.dividerBottom);
+  opamp(b, ref, "inv");
+  res(b, "RBASE", NAMES.nodeOpampOut, "b", p.baseResistor);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
+  res(b, "RFB", "e", "inv", p.feedbackResistor);
+  res(b, NAMES.sense, "e", "0", p.senseResistor);
+  if (s.template === "sink-nmos") {
+    add(b, { kind: "mosfet", name: "M1", nodes: [NAMES.nodePass, "b", "e"], polarity: "n", model: mosModel(s) });
+  } else if (s.template === "sink-darlington") {
+    // Driver transistor: a tenth of the output device's area (common practice for Darlington pairs).
+    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "bm"], polarity: "npn", model: bjtModel(s, 0.1) });
+    add(b, { kind: "bjt", name: "Q2", nodes: [NAMES.nodePass, "bm", "e"], polarity: "npn", model: bjtModel(s) });
+    if (p.darlingtonResistor !== null) res(b, "RDAR", "bm", "e", p.darlingtonResistor);
+  } else {
+    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "e"], polarity: "npn", model: bjtModel(s) });
+  }
+  supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);
+  loadPath(b, true, "vs");
+}
+
+/** High-side source: sense resistor from the supply to the emitter/source of a PNP or P-MOSFET. */
+function buildHighSide(b: Builder): void {
+  const { s } = b;
+  const p = s.parts;
+  supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);
+  // The command is referred to the supply rail (as a level shifter would present it): cmd = vs − Vcommand.
+  commandSource(b, "vs", NAMES.nodeCommand);
+  const ref = "ref";
+  res(b, "RDIVB", "vs", ref, p.dividerBottom);
+  res(b, "RDIVT", ref, NAMES.nodeCommand, Math.max(p.dividerTop, 1e-3));
+  opamp(b, ref, "inv");
+  res(b, "RBASE", NAMES.nodeOpampOut, "b", p.baseResistor);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
+  res(b, "RFB", "e", "inv", p.feedbackResistor);
+  res(b, NAMES.sense, "vs", "e", p.senseResistor);
+  if (s.pass.kind === "pmos") {
+    add(b, { kind: "mosfet", name: "M1", nodes: [NAMES.nodePass, "b", "e"], polarity: "p", model: mosModel(s) });
+  } else {
+    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "e"], polarity: "pnp", model: bjtModel(s) });
+  }
+  loadPath(b, false, "0");
+}
+
+/** Improved Howland pump: R1 command→P, R2 P→load node, R3 N→ground, R4 (∥ Ccomp) output→N, Rs output→load node. */
+function buildHowland(b: Builder): void {
+  const { s } = b;
+  const p = s.parts;
+  commandSource(b, NAMES.nodeCommand, "0");
+  res(b, "RH1", NAMES.nodeCommand, "p", p.howlandR1);
+  res(b, "RH2", "p", NAMES.nodePass, p.howlandR2);
+  res(b, "RH3", "n", "0", p.howlandR3);
+  res(b, "RH4", NAMES.nodeOpampOut, "n", p.howlandR4);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "n"], value: p.compCapacitor });
+  opamp(b, "p", "n");
+  res(b, NAMES.sense, NAMES.nodeOpampOut, NAMES.nodePass, p.senseResistor);
+  supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);
+  loadPath(b, false, "vs");
+}
+
+function analysisFor(s: Scenario, purpose: CompilePurpose, opts: CompileOptions): AnalysisJson {
+  switch (purpose) {
+    case "op":
+      return { kind: "op" };
+    case "dcsweep": {
+      const fs = s.stimulus.commandFullScale;
+      return { kind: "dcsweep", source: NAMES.command, from: s.template === "howland" ? -fs : 0, to: fs, points: opts.sweepPoints ?? 41 };
+    }
+    case "step": {
+      const t = s.stimulus.stopTime;
+      return { kind: "tran", tStop: t, tStep: opts.tStep ?? t / 2000, maxStep: t / 500, start: "op" };
+    }
+    default: {
+      const fStop = opts.fStop ?? Math.max(AC_DEFAULT.fStop, 10 * s.opamp.GBW);
+      return {
+        kind: "ac",
+        fStart: opts.fStart ?? AC_DEFAULT.fStart,
+        fStop,
+        pointsPerDecade: opts.pointsPerDecade ?? AC_DEFAULT.pointsPerDecade,
+      };
+    }
+  }
+}
+
+/** Compile a scenario to the engine's netlist JSON for one purpose. */
+export function compileNetlistJson(s: Scenario, purpose: CompilePurpose, opts: CompileOptions = {}): NetlistJson {
+  const b: Builder = { els: [], s, purpose, opts };
+  if (s.template === "howland") buildHowland(b);
+  else if (s.template === "source-highside") buildHighSide(b);
+  else buildSink(b);
+  return { temperature: s.thermal.ambient, elements: b.els, analysis: analysisFor(s, purpose, opts) };
+}

@@ -1,0 +1,48 @@
+/**
+ * The design layer's public face: scenarios, templates, netlists, runs, metrics, checks, studies and E-series.
+ * Pure TypeScript: runs in a Web Worker and in Node alike.
+ */
+export {
+  SCHEMA_VERSION, TEMPLATE_IDS, LOAD_KINDS, PASS_KINDS, STIMULUS_KINDS, scenarioSchema, partsSchema, opampSchema, passSchema,
+  loadSchema, stimulusSchema, tolerancesSchema, studiesSchema, ScenarioError, describeIssues,
+} from "./schema";
+export type { Scenario, TemplateId, Parts, OpampParams, PassParams, LoadParams, Stimulus, Tolerances, SweepAxis } from "./schema";
+export { upgradeScenario, tryUpgradeScenario } from "./upgrade";
+export { TEMPLATES, templateInfo, defaultScenario } from "./templates";
+export type { TemplateInfo, PartSpec } from "./templates";
+export { OPAMP_PRESETS, PASS_PRESETS, opampPreset, passPreset } from "./presets";
+export {
+  compileNetlistJson, NAMES, idealTransconductance, dividerRatio, cableResistance, operatingCommand, loadDrop, thermalVoltage,
+} from "./compile";
+export type { CompilePurpose, CompileOptions } from "./compile";
+export type { NetlistJson, NetlistElementJson } from "./netlist";
+export {
+  stepMetrics, loopMetrics, bandwidth3dB, unwrapDeg, phaseMarginFromDamping, overshootFromDamping, dampingFromOvershoot,
+  dampingFromPhaseMargin,
+} from "./metrics";
+export type { StepMetrics, LoopMetrics } from "./metrics";
+export { estimateRinging, matrixPencil, fftPeakHz, peakSpacing } from "./ringing";
+export type { RingingEstimate } from "./ringing";
+export {
+  runChecks, accuracyBudget, worstDissipation, dissipationMaximum, junctionTemperature, baseCurrentError, effectiveBeta,
+  fullScaleCurrent, driveVoltage,
+} from "./checks";
+export type { CheckRow, Caution, Verdict, AccuracyBudget, BudgetTerm } from "./checks";
+export { eSeries, nearestE, nextUp, nextDown, toleranceBand, eValuesBetween, E_SERIES_NAMES, E_SERIES_TOLERANCE } from "./eseries";
+export type { ESeriesName } from "./eseries";
+export { createRng, rngForRun, normal, deviation, summarize, histogram } from "./stats";
+export type { Summary } from "./stats";
+export { demoScenarios } from "./demos";
+export type { DemoScenario } from "./demos";
+export {
+  compileNetlist, runOperatingPoint, runStep, runLoopGain, runClosedLoop, runOutputImpedance, runDcTransfer, summarizeOp, tianLoopGain,
+} from "./run";
+export type { OperatingPointSummary, StepResult, LoopGainResult, SimOptions } from "./run";
+export {
+  SWEEPABLE_PARAMETERS, getParameter, withParameter, axisValues, sweep1d, map2d, evaluateMetric, spread, spreadScenario, mergeSpread,
+  summarizeSpread, compensate, compensateScan, compensatePick, compensateCandidates, loadCorners,
+} from "./studies";
+export type {
+  StudyOptions, IndexRange, SweepableParameter, SweepResult, SweepPoint, MapResult, MapMetric, SpreadResult, SpreadDraw,
+  CompensateSettings, CompensateCandidate, CompensateScanRow, CompensateResult,
+} from "./studies";

@@ -1,0 +1,224 @@
+/**
+ * Reducing waveforms to the numbers a design is judged by: step metrics from a transient, stability margins from a
+ * loop gain, bandwidth from a closed-loop response, and the second-order relations that link them.
+ */
+import { estimateRinging, type RingingEstimate } from "./ringing";
+
+export interface StepMetrics {
+  /** value before the step and the final value (mean of the last 2 % of the record) */
+  initial: number;
+  final: number;
+  /** 10–90 % rise time, s */
+  riseTime: number | null;
+  /** overshoot beyond the final value in the direction of the step, % of the step */
+  overshootPct: number;
+  /** time of the extreme after the step, measured from the step, s */
+  peakTime: number | null;
+  /** time from the step after which the response stays within ±1 % / ±0.1 % of the step around the final value, s */
+  settlingTime1pct: number | null;
+  settlingTime01pct: number | null;
+  /** final minus target, as a fraction of the target (null without a target) */
+  steadyStateError: number | null;
+  ringing: RingingEstimate;
+}
+
+function crossing(t: ArrayLike<number>, y: ArrayLike<number>, from: number, level: number, rising: boolean): number | null {
+  for (let i = Math.max(1, from); i < y.length; i++) {
+    const a = y[i - 1], b = y[i];
+    if (rising ? a < level && b >= level : a > level && b <= level) {
+      const f = b !== a ? (level - a) / (b - a) : 0;
+      return t[i - 1] + f * (t[i] - t[i - 1]);
+    }
+  }
+  return null;
+}
+
+function settleTime(t: ArrayLike<number>, y: ArrayLike<number>, from: number, final: number, band: number, tStep: number): number | null {
+  // The last sample outside the band; settled if it is not the last sample of the record.
+  let last = -1;
+  for (let i = y.length - 1; i >= from; i--) {
+    if (Math.abs(y[i] - final) > band) { last = i; break; }
+  }
+  if (last === y.length - 1) return null;
+  if (last < 0) return Math.max(0, t[from] - tStep);
+  // Interpolate the exit of the band between samples last and last+1.
+  const a = y[last] - final, b = y[last + 1] - final;
+  const edge = a > 0 ? band : -band;
+  const f = b !== a ? (edge - a) / (b - a) : 0;
+  return Math.max(0, t[last] + Math.min(1, Math.max(0, f)) * (t[last + 1] - t[last]) - tStep);
+}
+
+/**
+ * Step metrics of `y(t)` for a step at `tStep`. `initial` defaults to the value at the step; `target` (the ideal
+ * final value) gives the steady-state error.
+ */
+export function stepMetrics(
+  t: ArrayLike<number>,
+  y: ArrayLike<number>,
+  tStep: number,
+  opts: { initial?: number; final?: number; target?: number } = {},
+): StepMetrics {
+  const n = t.length;
+  if (n < 3 || y.length !== n) throw new RangeError("stepMetrics needs matching time and value arrays of 3 or more samples");
+  let i0 = 0;
+  while (i0 < n - 1 && t[i0] < tStep) i0++;
+  const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
+  let final = opts.final ?? NaN;
+  if (!Number.isFinite(final)) {
+    const tEnd = t[n - 1];
+    const tTail = tEnd - 0.02 * (tEnd - tStep);
+    let sum = 0, cnt = 0;
+    for (let i = n - 1; i >= 0 && t[i] >= tTail; i--) { sum += y[i]; cnt++; }
+    final = cnt ? sum / cnt : y[n - 1];
+  }
+  const step = final - initial;
+  const rising = step >= 0;
+  const steadyStateError = opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null;
+  const emptyRinging: RingingEstimate = {
+    frequencyHz: null, dampingRatio: null, peakSpacingHz: null, logDecrementDamping: null, fftHz: null, pencilHz: null, pencilDamping: null,
+  };
+  if (step === 0 || !Number.isFinite(step)) {
+    return { initial, final, riseTime: null, overshootPct: 0, peakTime: null, settlingTime1pct: 0, settlingTime01pct: 0, steadyStateError, ringing: emptyRinging };
+  }
+  const t10 = crossing(t, y, i0, initial + 0.1 * step, rising);
+  const t90 = crossing(t, y, i0, initial + 0.9 * step, rising);
+  const riseTime = t10 !== null && t90 !== null ? t90 - t10 : null;
+  // Peak: the extreme in the direction of the step, refined by a parabola through its neighbours.
+  let ip = i0;
+  for (let i = i0; i < n; i++) if (rising ? y[i] > y[ip] : y[i] < y[ip]) ip = i;
+  let peakValue = y[ip];
+  let peakT = t[ip];
+  if (ip > 0 && ip < n - 1) {
+    const ta = t[ip - 1], tb = t[ip], tc = t[ip + 1];
+    const a = y[ip - 1], b = y[ip], c = y[ip + 1];
+    // Parabola through three (possibly non-uniform) points.
+    const d1 = (b - a) / (tb - ta), d2 = (c - b) / (tc - tb);
+    const curv = (d2 - d1) / (tc - ta);
+    if (curv !== 0) {
+      // Newton form y ≈ a + d1(t−ta) + curv(t−ta)(t−tb): the vertex is where its derivative vanishes.
+      const tv = (ta + tb) / 2 - d1 / (2 * curv);
+      if (tv > ta && tv < tc) {
+        peakT = tv;
+        peakValue = a + d1 * (tv - ta) + curv * (tv - ta) * (tv - tb);
+      }
+    }
+  }
+  const overshootPct = Math.max(0, ((peakValue - final) / step) * 100);
+  const peakTime = overshootPct > 0 ? peakT - tStep : null;
+  const band = Math.abs(step);
+  const settlingTime1pct = settleTime(t, y, i0, final, 0.01 * band, tStep);
+  const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * band, tStep);
+  const ringing = overshootPct > 0.05 ? estimateRinging(t, y, final, peakT) : emptyRinging;
+  return { initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, steadyStateError, ringing };
+}
+
+/** Phase unwrapped to a continuous curve, degrees. */
+export function unwrapDeg(phase: Float64Array): Float64Array {
+  const out = new Float64Array(phase.length);
+  let offset = 0;
+  for (let i = 0; i < phase.length; i++) {
+    if (i > 0) {
+      const d = phase[i] + offset - out[i - 1];
+      if (d > 180) offset -= 360 * Math.round(d / 360);
+      else if (d < -180) offset -= 360 * Math.round(d / 360);
+    }
+    out[i] = phase[i] + offset;
+  }
+  return out;
+}
+
+export interface LoopMetrics {
+  magDb: Float64Array;
+  phaseDeg: Float64Array;
+  phaseMarginDeg: number | null;
+  gainMarginDb: number | null;
+  crossoverHz: number | null;
+  /** frequency where the phase reaches −180°, Hz */
+  phaseCrossoverHz: number | null;
+}
+
+function logInterp(f: Float64Array, i: number, frac: number): number {
+  return Math.exp(Math.log(f[i - 1]) + frac * (Math.log(f[i]) - Math.log(f[i - 1])));
+}
+
+/**
+ * Margins of a loop gain T(jω) (T > 0 at low frequency for negative feedback; the closed loop is 1/(1+T)-shaped).
+ * PM = 180° + ∠T at the first |T| = 1 crossing downward; GM = −|T|dB where ∠T first reaches −180°.
+ */
+export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Array): LoopMetrics {
+  const n = freq.length;
+  const magDb = new Float64Array(n);
+  const raw = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    magDb[i] = 20 * Math.log10(Math.hypot(re[i], im[i]));
+    raw[i] = (Math.atan2(im[i], re[i]) * 180) / Math.PI;
+  }
+  const phaseDeg = unwrapDeg(raw);
+  // Reference the unwrapped phase so the low-frequency end lies in (−180°, 180°].
+  if (n > 0) {
+    const k = Math.round(phaseDeg[0] / 360);
+    if (k !== 0) for (let i = 0; i < n; i++) phaseDeg[i] -= 360 * k;
+  }
+  let crossoverHz: number | null = null;
+  let phaseMarginDeg: number | null = null;
+  for (let i = 1; i < n; i++) {
+    if (magDb[i - 1] >= 0 && magDb[i] < 0) {
+      const frac = magDb[i - 1] / (magDb[i - 1] - magDb[i]);
+      crossoverHz = logInterp(freq, i, frac);
+      const ph = phaseDeg[i - 1] + frac * (phaseDeg[i] - phaseDeg[i - 1]);
+      phaseMarginDeg = 180 + ph;
+      break;
+    }
+  }
+  let gainMarginDb: number | null = null;
+  let phaseCrossoverHz: number | null = null;
+  for (let i = 1; i < n; i++) {
+    if (phaseDeg[i - 1] > -180 && phaseDeg[i] <= -180) {
+      const frac = (phaseDeg[i - 1] + 180) / (phaseDeg[i - 1] - phaseDeg[i]);
+      phaseCrossoverHz = logInterp(freq, i, frac);
+      gainMarginDb = -(magDb[i - 1] + frac * (magDb[i] - magDb[i - 1]));
+      break;
+    }
+  }
+  return { magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, phaseCrossoverHz };
+}
+
+/** −3 dB bandwidth relative to the first (lowest-frequency) point, Hz; null if it never drops that far. */
+export function bandwidth3dB(freq: Float64Array, magDb: Float64Array): number | null {
+  const ref = magDb[0] - 3.0103;
+  for (let i = 1; i < freq.length; i++) {
+    if (magDb[i - 1] >= ref && magDb[i] < ref) {
+      const frac = (magDb[i - 1] - ref) / (magDb[i - 1] - magDb[i]);
+      return logInterp(freq, i, frac);
+    }
+  }
+  return null;
+}
+
+/** Second-order loop T = ωn²/(s(s+2ζωn)): exact phase margin, degrees (Ogata; REFERENCES §5a). */
+export function phaseMarginFromDamping(zeta: number): number {
+  return (Math.atan((2 * zeta) / Math.sqrt(Math.sqrt(1 + 4 * zeta ** 4) - 2 * zeta * zeta)) * 180) / Math.PI;
+}
+
+/** Percent overshoot of a second-order step: 100·exp(−ζπ/√(1−ζ²)). */
+export function overshootFromDamping(zeta: number): number {
+  if (zeta >= 1) return 0;
+  return 100 * Math.exp((-zeta * Math.PI) / Math.sqrt(1 - zeta * zeta));
+}
+
+/** Damping ratio for a percent overshoot (inverse of overshootFromDamping). */
+export function dampingFromOvershoot(pct: number): number {
+  if (pct <= 0) return 1;
+  const l = Math.log(pct / 100);
+  return -l / Math.sqrt(Math.PI * Math.PI + l * l);
+}
+
+/** Damping ratio giving a phase margin (bisection on phaseMarginFromDamping, which rises monotonically). */
+export function dampingFromPhaseMargin(pmDeg: number): number {
+  let lo = 0, hi = 5;
+  for (let k = 0; k < 80; k++) {
+    const mid = (lo + hi) / 2;
+    if (phaseMarginFromDamping(mid) < pmDeg) lo = mid; else hi = mid;
+  }
+  return (lo + hi) / 2;
+}

@@ -1,0 +1,61 @@
+/**
+ * Opening stored scenarios of any version. Version 0 (the seed's minimal records: `{ schemaVersion: 0, template }`)
+ * becomes the template's starting scenario. For the current version, fields added after a scenario was saved are
+ * filled from the template's defaults before validation, so a stored scenario keeps opening as the schema grows.
+ */
+import { SCHEMA_VERSION, ScenarioError, TEMPLATE_IDS, describeIssues, scenarioSchema, type Scenario, type TemplateId } from "./schema";
+import { defaultScenario } from "./templates";
+
+function isObject(x: unknown): x is Record<string, unknown> {
+  return typeof x === "object" && x !== null && !Array.isArray(x);
+}
+
+/** Fill what `value` lacks from `defaults` (objects merged key by key; arrays and scalars taken whole). */
+function fillMissing(defaults: unknown, value: unknown): unknown {
+  if (value === undefined) return defaults;
+  if (isObject(defaults) && isObject(value)) {
+    const out: Record<string, unknown> = { ...value };
+    for (const [k, d] of Object.entries(defaults)) out[k] = fillMissing(d, value[k]);
+    return out;
+  }
+  return value;
+}
+
+function templateOf(json: Record<string, unknown>): TemplateId {
+  const t = json.template;
+  if (typeof t !== "string" || !(TEMPLATE_IDS as readonly string[]).includes(t)) {
+    throw new ScenarioError(`template: must be one of ${TEMPLATE_IDS.join(", ")} (got ${JSON.stringify(t)})`);
+  }
+  return t as TemplateId;
+}
+
+/** Validate (and upgrade when older) a stored or uploaded scenario; throws ScenarioError naming the field. */
+export function upgradeScenario(json: unknown): Scenario {
+  if (!isObject(json)) throw new ScenarioError("scenario: must be a JSON object");
+  const version = json.schemaVersion ?? 0;
+  if (typeof version !== "number" || !Number.isInteger(version) || version < 0) {
+    throw new ScenarioError(`schemaVersion: must be a whole number (got ${JSON.stringify(version)})`);
+  }
+  if (version > SCHEMA_VERSION) {
+    throw new ScenarioError(`schemaVersion: ${version} is newer than this version of Quell understands (${SCHEMA_VERSION})`);
+  }
+  const template = templateOf(json);
+  let body: unknown;
+  if (version === 0) {
+    body = defaultScenario(template);
+  } else {
+    body = fillMissing(defaultScenario(template), json);
+  }
+  const parsed = scenarioSchema.safeParse(body);
+  if (!parsed.success) throw new ScenarioError(describeIssues(parsed.error));
+  return parsed.data;
+}
+
+/** Like upgradeScenario but returns the error text instead of throwing (for forms and API answers). */
+export function tryUpgradeScenario(json: unknown): { ok: true; scenario: Scenario } | { ok: false; error: string } {
+  try {
+    return { ok: true, scenario: upgradeScenario(json) };
+  } catch (e) {
+    return { ok: false, error: e instanceof Error ? e.message : String(e) };
+  }
+}
