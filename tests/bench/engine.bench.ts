@@ -1,0 +1,131 @@
+/**
+ * Engine benchmark (`npm run bench -- engine`): the reference sink of our own (tests/unit/lib/sim/fixtures/sink.ts).
+ * Cases: op, ac (10 Hz–10 MHz, 50 points/decade), tran (2 ms; command step at 0.2 ms, load step at 1 ms) and lu
+ * (one bare LU factor + solve of the same matrix). The tran line carries iteration_vs_lu (time per Newton iteration ÷
+ * the bare LU) and heap growth over a long run of Newton iterations. One JSON line per case; ≥ 10 runs after warm-up.
+ */
+import { setFlagsFromString } from "node:v8";
+import { runInNewContext } from "node:vm";
+import { compile, simulate, type Analysis } from "@/lib/sim";
+import { buildCircuit } from "@/lib/sim/compile";
+import { parseNetlist } from "@/lib/sim/netlist";
+import { MODE_TRAN } from "@/lib/sim/circuit";
+import { loadAll, solveInto, solveDc } from "@/lib/sim/analysis/newton";
+import { luFactor, luSolve } from "@/lib/sim/lu";
+import { referenceSink } from "../unit/lib/sim/fixtures/sink";
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+function time(fn: () => void, runs: number, warm = 5): number[] {
+  for (let i = 0; i < warm; i++) fn();
+  const out: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const t0 = performance.now();
+    fn();
+    out.push(performance.now() - t0);
+  }
+  return out;
+}
+
+function gcFn(): (() => void) | null {
+  try {
+    setFlagsFromString("--expose-gc");
+    return runInNewContext("gc") as () => void;
+  } catch {
+    return null;
+  }
+}
+
+const r3 = (x: number) => Math.round(x * 1000) / 1000;
+
+export async function run(): Promise<void> {
+  const RUNS = 30;
+  const opA: Analysis = { kind: "op" };
+  const acA: Analysis = { kind: "ac", fStart: 10, fStop: 1e7, pointsPerDecade: 50 };
+  const trA: Analysis = { kind: "tran", tStop: 2e-3 };
+
+  const opT = time(() => simulate(referenceSink(opA)), RUNS);
+  const compiledOp = compile(referenceSink(opA));
+  const opRunT = time(() => compiledOp.run(), RUNS);
+  console.log(JSON.stringify({ case: "op", median_ms: r3(median(opT)), runs: RUNS, solve_only_median_ms: r3(median(opRunT)), unknowns: compiledOp.unknowns, target_ms: 1 }));
+
+  const acT = time(() => simulate(referenceSink(acA)), RUNS);
+  console.log(JSON.stringify({ case: "ac", median_ms: r3(median(acT)), runs: RUNS, points: 301, target_ms: 5 }));
+
+  let stats = { accepted: 0, rejected: 0, newtonIterations: 0 };
+  const trT = time(() => {
+    const r = simulate(referenceSink(trA));
+    if (r.kind === "tran") stats = r.stats;
+  }, RUNS);
+
+  // The sink compiled once; its transient-mode Jacobian (companion models stamped, mid-run) is the matrix both the
+  // bare LU and the Newton iteration work on, so the ratio compares like with like.
+  const c = buildCircuit(parseNetlist(referenceSink({ kind: "op" })));
+  c.deadline = Infinity;
+  solveDc(c, "bench");
+  c.mode = MODE_TRAN;
+  c.ag0 = 2 / 1e-6;
+  c.trap = 1;
+  c.time = 5e-4;
+  c.useWaves = true;
+  for (const el of c.elements) el.initState(c, false);
+  const xs = c.x.slice();
+  loadAll(c);
+  const base = c.mat.slice();
+  const rhs0 = c.rhs.slice();
+  const a = new Float64Array(base.length);
+  const b = new Float64Array(c.stride);
+  const piv = new Int32Array(c.stride);
+  const BATCH = 20000;
+  const luOnce = () => {
+    for (let k = 0; k < BATCH; k++) {
+      a.set(base);
+      for (let i = 0; i < c.n; i++) b[i] = rhs0[i];
+      luFactor(a, c.n, c.stride, piv);
+      luSolve(a, c.n, c.stride, piv, b);
+    }
+  };
+  // one Newton iteration = load every element (companion models) + factor + solve
+  const iterOnce = () => {
+    for (let k = 0; k < BATCH; k++) {
+      loadAll(c);
+      solveInto(c, c.xNew);
+      c.x.set(xs);
+    }
+  };
+  // interleave the two so machine load affects both alike
+  const luT: number[] = [];
+  const itT: number[] = [];
+  luOnce(); iterOnce();
+  for (let r = 0; r < RUNS; r++) {
+    let t0 = performance.now();
+    luOnce();
+    luT.push((performance.now() - t0) / BATCH);
+    t0 = performance.now();
+    iterOnce();
+    itT.push((performance.now() - t0) / BATCH);
+  }
+  const luMs = median(luT);
+  const itMs = median(itT);
+
+  // heap growth over 200 000 Newton iterations (after a forced GC on both sides when available)
+  const gc = gcFn();
+  gc?.();
+  const h0 = process.memoryUsage().heapUsed;
+  for (let k = 0; k < 10; k++) iterOnce();
+  gc?.();
+  const h1 = process.memoryUsage().heapUsed;
+
+  console.log(JSON.stringify({
+    case: "tran", median_ms: r3(median(trT)), runs: RUNS, ...stats,
+    iteration_us: r3(itMs * 1000), lu_us: r3(luMs * 1000), iteration_vs_lu: r3(itMs / luMs),
+    tran_ms_per_newton_iteration_us: r3((median(trT) / stats.newtonIterations) * 1000),
+    newton_heap_growth_bytes: h1 - h0, heap_measured_with_gc: gc !== null, newton_iterations_for_heap: 10 * BATCH,
+    target_ms: 20,
+  }));
+  console.log(JSON.stringify({ case: "lu", median_ms: r3(luMs * 1e3) / 1e3, median_us: r3(luMs * 1000), runs: RUNS, batch: BATCH, n: c.n }));
+}
