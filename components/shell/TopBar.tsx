@@ -1,7 +1,21 @@
 import Link from "next/link";
+import { currentUser } from "@/lib/auth/current";
+import { teamsOfUser } from "@/lib/db/users";
+import { UserMenu } from "@/components/account/UserMenu";
+import { signOutAction, switchTeamAction } from "@/app/(account)/actions";
 
-/** The quiet bar above every page: the product name and the main places. */
-export function TopBar() {
+async function signedIn() {
+  try {
+    const user = await currentUser();
+    return user ? { user, teams: await teamsOfUser(user.id) } : null;
+  } catch {
+    return null; // the database is down: the page (and its health badge) still renders
+  }
+}
+
+/** The quiet bar above every page: the product name, the main places, and who is signed in. */
+export async function TopBar() {
+  const me = await signedIn();
   return (
     <header className="no-print border-b border-hairline bg-white">
       <nav className="mx-auto flex h-12 max-w-screen-2xl items-center gap-6 px-4 text-sm" aria-label="Main">
@@ -13,6 +27,19 @@ export function TopBar() {
           Quell
         </Link>
         <Link href="/scenarios" className="text-ink-muted hover:text-ink">Scenarios</Link>
+        {me && <Link href="/team" className="text-ink-muted hover:text-ink">Team</Link>}
+        {me ? (
+          <UserMenu
+            name={me.user.name}
+            role={me.user.role}
+            teamId={me.user.teamId}
+            teams={me.teams}
+            switchTeam={switchTeamAction}
+            signOut={signOutAction}
+          />
+        ) : (
+          <Link href="/sign-in" className="ml-auto rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>
+        )}
       </nav>
     </header>
   );

@@ -1,0 +1,52 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requirePageUser } from "@/lib/auth/current";
+import { getScenarioDetail } from "@/lib/db/scenarios";
+import { DomainError } from "@/lib/db/errors";
+import { RevisionHistory } from "@/components/scenarios/RevisionHistory";
+import { ShareDialog } from "@/components/scenarios/ShareDialog";
+import { Comments } from "@/components/scenarios/Comments";
+import { ForkButton, DeleteButton } from "@/components/scenarios/ScenarioButtons";
+import { SaveRevisionForm } from "@/components/scenarios/SaveRevisionForm";
+import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
+
+export const dynamic = "force-dynamic";
+export const metadata = { title: "History" };
+
+export default async function HistoryPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requirePageUser("viewer");
+  const { id } = await params;
+  const s = await getScenarioDetail(user, id, { includeDeleted: true }).catch((e) => {
+    if (e instanceof DomainError && e.status === 404) notFound();
+    throw e;
+  });
+  return (
+    <main className="mx-auto max-w-6xl px-6 py-8">
+      <p className="text-sm text-ink-muted">
+        <Link href="/scenarios" className="hover:underline">Scenarios</Link> /{" "}
+        {s.deletedAt ? s.title : <Link href={`/scenarios/${s.id}`} className="hover:underline">{s.title}</Link>}
+      </p>
+      <div className="mt-1 flex flex-wrap items-center gap-3">
+        <h1 className="mr-auto text-2xl font-semibold">History of {s.title}</h1>
+        {s.revisionId && s.revisionNumber !== null && (
+          <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} />
+        )}
+        {s.can.share && s.revisionId && <ForkButton revisionId={s.revisionId} fork={forkScenario} label="Fork" />}
+        {s.can.delete && <DeleteButton scenarioId={s.id} deleted={!!s.deletedAt} setDeleted={setScenarioDeleted} />}
+      </div>
+      <p className="mt-1 text-sm text-ink-muted">
+        {s.template} · owner {s.ownerName} · status {s.status}
+        {s.deletedAt && <span className="ml-2 font-medium text-verdict-fail">Deleted — restore it to edit</span>}
+      </p>
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+        <div className="space-y-6">
+          <RevisionHistory scenarioId={s.id} />
+          {s.can.edit && s.revisionId && s.revisionNumber !== null && (
+            <SaveRevisionForm scenarioId={s.id} baseRevisionId={s.revisionId} baseNumber={s.revisionNumber} body={s.body} save={saveScenarioRevision} />
+          )}
+        </div>
+        <Comments scenarioId={s.id} revisionId={s.revisionId ?? undefined} />
+      </div>
+    </main>
+  );
+}

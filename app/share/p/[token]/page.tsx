@@ -1,0 +1,41 @@
+import type { Metadata } from "next";
+import { openPublicLink } from "@/lib/db/shareLinks";
+import { RevisionView } from "@/components/scenarios/RevisionView";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Shared scenario", robots: { index: false, follow: false }, referrer: "no-referrer" };
+
+const WHY = {
+  revoked: "This link has been revoked by the people who shared it.",
+  expired: "This link has expired.",
+  unknown: "This link is not valid.",
+} as const;
+
+/** A public read-only link: anyone holding the token sees one revision; revoked or expired links say so. */
+export default async function PublicSharePage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  const link = await openPublicLink(token);
+  if (link.state !== "active") {
+    return (
+      <main className="mx-auto max-w-xl px-6 py-16">
+        <h1 className="text-2xl font-semibold">Shared scenario</h1>
+        <p role="alert" className="mt-3">{WHY[link.state]}</p>
+        <p className="mt-2 text-sm text-ink-muted">Ask whoever sent it for a new link.</p>
+      </main>
+    );
+  }
+  const r = link.revision;
+  return (
+    <main className="mx-auto max-w-4xl px-6 py-8">
+      <p className="text-sm text-ink-muted">Public read-only link · valid until {new Date(link.expiresAt).toUTCString()}</p>
+      <h1 className="mt-1 text-2xl font-semibold">
+        {r.scenarioTitle} <span className="num text-ink-muted">· revision {r.number}</span>
+      </h1>
+      <p className="mt-1 text-sm text-ink-muted">Saved by {r.authorName} on {new Date(r.createdAt).toUTCString()} · {r.template}</p>
+      {r.note && <p className="mt-3 rounded border border-hairline bg-white px-4 py-2 text-sm">“{r.note}”</p>}
+      <div className="mt-6">
+        <RevisionView body={r.body} />
+      </div>
+    </main>
+  );
+}

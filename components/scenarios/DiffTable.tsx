@@ -1,0 +1,29 @@
+import type { DiffRow } from "./diff";
+import { showValue } from "./RevisionView";
+
+/** Differences as a table, each row with a word for its kind (never colour alone). */
+export function DiffTable({ rows, beforeLabel, afterLabel }: { rows: DiffRow[]; beforeLabel: string; afterLabel: string }) {
+  if (rows.length === 0) return <p className="px-4 py-3 text-sm text-ink-muted">No differences.</p>;
+  return (
+    <table className="w-full text-sm" data-testid="diff">
+      <thead className="border-b border-hairline text-xs uppercase tracking-wide text-ink-muted">
+        <tr>
+          <th scope="col" className="px-4 py-2 text-left font-medium">Value</th>
+          <th scope="col" className="px-4 py-2 text-right font-medium">{beforeLabel}</th>
+          <th scope="col" className="px-4 py-2 text-right font-medium">{afterLabel}</th>
+          <th scope="col" className="px-4 py-2 text-left font-medium">Change</th>
+        </tr>
+      </thead>
+      <tbody className="divide-y divide-hairline">
+        {rows.map((r) => (
+          <tr key={r.path}>
+            <th scope="row" className="px-4 py-1.5 text-left font-normal">{r.path}</th>
+            <td className="num px-4 py-1.5 text-right text-ink-muted">{showValue(r.path, r.before)}</td>
+            <td className="num px-4 py-1.5 text-right">{showValue(r.path, r.after)}</td>
+            <td className={`px-4 py-1.5 ${r.kind === "changed" ? "text-verdict-warn" : r.kind === "added" ? "text-verdict-pass" : "text-verdict-fail"}`}>{r.kind}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

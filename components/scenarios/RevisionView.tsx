@@ -1,0 +1,68 @@
+import { flatten, type Scalar } from "./diff";
+import { formatEng } from "@/lib/units/eng";
+
+/** Unit of a part value from its name (resistors Ω, capacitors F, inductors H), else none. */
+export function unitFor(path: string): string {
+  const leaf = path.split(".").pop() ?? "";
+  if (/resist/i.test(leaf) || /^divider/i.test(leaf)) return "Ω";
+  if (/capacit/i.test(leaf)) return "F";
+  if (/inductance/i.test(leaf)) return "H";
+  return "";
+}
+
+export function showValue(path: string, v: Scalar | undefined): string {
+  if (v === undefined) return "—";
+  if (typeof v === "number") {
+    const unit = unitFor(path);
+    return unit ? formatEng(v, unit) : String(v);
+  }
+  return String(v);
+}
+
+/** A revision's content, read-only: part values first, then everything else grouped by section. */
+export function RevisionView({ body }: { body: unknown }) {
+  const flat = [...flatten(body)];
+  const parts = flat.filter(([p]) => p.startsWith("parts."));
+  const rest = flat.filter(([p]) => !p.startsWith("parts."));
+  const sections = new Map<string, [string, Scalar][]>();
+  for (const [p, v] of rest) {
+    const head = p.includes(".") ? p.split(".")[0]! : "general";
+    sections.set(head, [...(sections.get(head) ?? []), [p, v]]);
+  }
+  return (
+    <div className="space-y-4">
+      <section aria-labelledby="pv-title" className="rounded border border-hairline bg-white">
+        <h2 id="pv-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Part values</h2>
+        {parts.length === 0 ? (
+          <p className="px-4 py-3 text-sm text-ink-muted">This revision has no part values yet.</p>
+        ) : (
+          <table className="w-full text-sm">
+            <tbody className="divide-y divide-hairline">
+              {parts.map(([p, v]) => (
+                <tr key={p}>
+                  <th scope="row" className="px-4 py-1.5 text-left font-normal text-ink-muted">{p.slice(6)}</th>
+                  <td className="num px-4 py-1.5 text-right">{showValue(p, v)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+      {[...sections].map(([name, rows]) => (
+        <details key={name} className="rounded border border-hairline bg-white">
+          <summary className="cursor-pointer px-4 py-2 text-sm font-semibold capitalize">{name}</summary>
+          <table className="w-full text-sm">
+            <tbody className="divide-y divide-hairline">
+              {rows.map(([p, v]) => (
+                <tr key={p}>
+                  <th scope="row" className="px-4 py-1 text-left font-normal text-ink-muted">{p}</th>
+                  <td className="num px-4 py-1 text-right">{showValue(p, v)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </details>
+      ))}
+    </div>
+  );
+}
