@@ -25,7 +25,7 @@ export function valveCoilDemo(): Scenario {
     baseResistor: 220,
     feedbackResistor: 10e3,
     // A small compensation capacitor: the loop rings with the coil and cable — the thing to tune.
-    compCapacitor: 100e-12,
+    compCapacitor: 47e-12,
     senseResistor: 1,
   };
   s.opamp = opampPreset("General 1 MHz single-supply");
@@ -52,7 +52,7 @@ export function valveCoilDemo(): Scenario {
     commandFullScale: 5,
     stepTime: 0.1e-3,
     edgeTime: 0.2e-6,
-    stopTime: 1.5e-3,
+    stopTime: 3e-3,
     sourceResistance: 10,
     sourceCurrentLimit: 5e-3,
   };

@@ -183,8 +183,13 @@ export function estimateRinging(t: ArrayLike<number>, y: ArrayLike<number>, fina
       (m) => m.im > 1e-9 / dtp && m.im < (Math.PI / dtp) * 0.95 && m.re < 0 && m.amplitude > 0.05 * peak,
     );
     if (modes.length) {
-      modes.sort((a, b) => b.amplitude - a.amplitude);
-      const d = modes[0];
+      // Cross-check with the peak spacing: the dominant pair is the one that rings at the spacing's frequency
+      // (within ±30 %); the largest amplitude among those.
+      const target = 2 * Math.PI * ps.hz;
+      const near = modes.filter((m) => Math.abs(m.im / target - 1) < 0.3);
+      const pool = near.length ? near : modes;
+      pool.sort((a, b) => b.amplitude - a.amplitude);
+      const d = pool[0];
       pencilHz = d.im / (2 * Math.PI);
       const wn = Math.hypot(d.re, d.im);
       pencilDamping = -d.re / wn;
