@@ -115,6 +115,8 @@ export class Circuit {
   i0 = new Float64Array(0);
   i1 = new Float64Array(0);
 
+  /** which DC method produced the last operating point */
+  dcMethod: "newton" | "gmin" | "source" = "newton";
   /** work counters */
   newtonIterations = 0;
   deadline = Infinity;

@@ -97,20 +97,41 @@ export function solveDc(c: Circuit, what: string): void {
   c.mode = MODE_DC;
   const maxIter = c.tol.maxNewton;
   const guess = c.x.slice();
+  c.dcMethod = "newton";
   if (newton(c, maxIter)) return;
   const tried: string[] = [`Newton–Raphson (${maxIter} iterations; largest change at ${worstName(c)})`];
 
-  // gmin stepping: a shunt from every node to ground, from 1e-2 S down by decades, then removed.
+  // gmin stepping: a shunt from every node to ground, from 1e-2 S down to nothing; the reduction factor adapts
+  // (÷10 while steps converge, its square root after a failure, from the last converged solution).
   c.x.set(guess);
-  let gmOk = true;
+  const good = new Float64Array(c.x.length);
   let gs = 1e-2;
-  for (; gs > c.tol.gmin * 0.999 && gs >= 1e-13; gs /= 10) {
-    c.gshunt = gs;
-    if (!newton(c, maxIter)) { gmOk = false; break; }
+  let factor = 10;
+  let gmOk = false;
+  c.gshunt = gs;
+  let first = newton(c, maxIter);
+  if (!first) { c.gshunt = gs = 1; c.x.set(guess); first = newton(c, maxIter); }
+  if (first) {
+    good.set(c.x);
+    for (let guard = 0; guard < 200; guard++) {
+      const next = gs / factor;
+      c.gshunt = next <= 1e-13 ? 0 : next;
+      if (newton(c, maxIter)) {
+        if (c.gshunt === 0) { gmOk = true; break; }
+        gs = next;
+        good.set(c.x);
+        factor = Math.min(factor * factor, 10);
+      } else {
+        c.x.set(good);
+        factor = Math.sqrt(factor);
+        if (factor < 1.05) break;
+      }
+    }
   }
   c.gshunt = 0;
-  if (gmOk && newton(c, maxIter)) return;
-  tried.push(`gmin stepping (${gmOk ? "final solve without shunt" : `stuck at ${gs.toExponential(0)} S`}; largest change at ${worstName(c)})`);
+  c.dcMethod = "gmin";
+  if (gmOk) return;
+  tried.push(`gmin stepping (stuck at ${gs.toExponential(1)} S; largest change at ${worstName(c)})`);
 
   // source stepping: scale every independent source from 0 to 1, adapting the increment.
   c.x.fill(0);
@@ -142,6 +163,7 @@ export function solveDc(c: Circuit, what: string): void {
     }
   }
   c.srcScale = 1;
+  c.dcMethod = "source";
   if (alpha >= 1) return;
   tried.push(`source stepping (stuck at ${(alpha * 100).toFixed(4)} % of the sources; largest change at ${worstName(c)})`);
   throw new SimError("convergence", `No convergence for ${what} at ${worstName(c)}. Tried: ${tried.join("; ")}`);
