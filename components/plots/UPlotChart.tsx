@@ -127,6 +127,7 @@ export const UPlotChart = forwardRef<UPlotHandle, UPlotChartProps>(function UPlo
   const extras = useRef({ under, over, markers });
   extras.current = { under, over, markers };
   const redraws = useRef(0);
+  const hasData = data.length > 0 && (data[0] as ArrayLike<number>).length > 0;
 
   useImperativeHandle(ref, () => ({
     toPng: () => plot.current?.ctx.canvas.toDataURL("image/png") ?? null,
@@ -136,7 +137,7 @@ export const UPlotChart = forwardRef<UPlotHandle, UPlotChartProps>(function UPlo
   // (Re)create the plot when its options change; data updates go through setData below.
   useEffect(() => {
     const el = host.current;
-    if (!el) return;
+    if (!el || !hasData) return;
     const width = Math.max(200, el.clientWidth);
     const opts: uPlot.Options = {
       ...options,
@@ -169,7 +170,7 @@ export const UPlotChart = forwardRef<UPlotHandle, UPlotChartProps>(function UPlo
     };
     // data is applied by the next effect; recreating on each data change would lose zoom and cost a layout.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [options, height]);
+  }, [options, height, hasData]);
 
   useEffect(() => {
     const u = plot.current;
@@ -178,5 +179,9 @@ export const UPlotChart = forwardRef<UPlotHandle, UPlotChartProps>(function UPlo
     else u.redraw(false);
   }, [data, under, over, markers]);
 
-  return <div ref={host} role="img" aria-label={ariaLabel} data-testid={testId} className="w-full" />;
+  return (
+    <div ref={host} role="img" aria-label={ariaLabel} data-testid={testId} className="w-full" style={hasData ? undefined : { height }}>
+      {!hasData && <p className="flex h-full items-center justify-center text-[12px] text-ink-muted">Waiting for the first run…</p>}
+    </div>
+  );
 });

@@ -5,6 +5,7 @@
 import type { Caution, CheckRow } from "@/lib/design/checks";
 import type { Scenario } from "@/lib/design/schema";
 import type { StepMetrics } from "@/lib/design/metrics";
+import type { CompensateResult, CompensateScanRow, MapResult, SpreadResult, SweepResult } from "@/lib/design/studies";
 import type { WorkbenchState, WorkbenchStore } from "./store";
 
 export interface StepView {
@@ -56,31 +57,12 @@ export interface LiveResult {
   failures: { analysis: string; message: string }[];
 }
 
-/** One chunk of a study, as the worker streams it back. */
-export interface SweepChunk {
-  /** index of each point in the sweep, parameter value, and its results */
-  points: { index: number; value: number; step: StepView | null; loop: LoopView | null; metrics: Record<string, number | null> }[];
-}
-export interface MapChunk {
-  /** cells: flat index ix + iy·nx, and the metric value (null when the run failed) */
-  cells: { ix: number; iy: number; value: number | null }[];
-}
-export interface SpreadChunk {
-  runs: { index: number; errorPct: number | null; phaseMarginDeg: number | null }[];
-}
-export interface CompensateChunk {
-  result: CompensateOutcome;
-}
-export interface CompensateOutcome {
-  found: boolean;
-  compCapacitor: number | null;
-  baseResistor: number | null;
-  phaseMarginDeg: number | null;
-  overshootPct: number | null;
-  settlingTime1pct: number | null;
-  message: string;
-  candidates: { compCapacitor: number; baseResistor: number; phaseMarginDeg: number | null; overshootPct: number | null; settlingTime1pct: number | null; ok: boolean }[];
-}
+/** One chunk of a study, as the worker streams it back: the design layer's chunk results as they are. */
+export type SweepChunk = SweepResult;
+export type MapChunk = MapResult;
+export type SpreadChunk = SpreadResult;
+/** Compensate streams its scan rows, then one chunk with the pick. */
+export type CompensateChunk = { scan: CompensateScanRow[]; result: null } | { scan: null; result: CompensateResult };
 
 export type StudyChunks = { sweep: SweepChunk; map: MapChunk; spread: SpreadChunk; compensate: CompensateChunk };
 export type StudyKind = keyof StudyChunks;

@@ -1,0 +1,11 @@
+import { NewScenario } from "@/components/workbench/NewScenario";
+import { requirePageUser } from "@/lib/auth/current";
+
+export const metadata = { title: "New scenario" };
+
+export const dynamic = "force-dynamic";
+
+export default async function NewScenarioPage() {
+  await requirePageUser("viewer"); // signed-in members only; the API refuses viewers when saving
+  return <NewScenario />;
+}

@@ -1,0 +1,120 @@
+"use client";
+/**
+ * Save the scenario as a new revision with a note. A save on a stale base revision comes back as a conflict: both
+ * versions' differing values are shown, and the person chooses to open theirs or to save theirs-plus-mine on top.
+ */
+import { useState } from "react";
+import { upgradeScenario } from "@/lib/design/upgrade";
+import type { Scenario } from "@/lib/design/schema";
+import { useWb, useWbStore } from "./context";
+
+export type SaveResult =
+  | { ok: true; revisionId: string; number: number }
+  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string };
+
+export type SaveFn = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<SaveResult>;
+
+/** Leaf values that differ between two scenarios, by dotted path. */
+export function scenarioDiff(a: unknown, b: unknown, prefix = ""): { path: string; mine: unknown; theirs: unknown }[] {
+  if (a !== null && b !== null && typeof a === "object" && typeof b === "object" && !Array.isArray(a) && !Array.isArray(b)) {
+    const keys = new Set([...Object.keys(a as object), ...Object.keys(b as object)]);
+    return [...keys].flatMap((k) =>
+      scenarioDiff((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], prefix ? `${prefix}.${k}` : k),
+    );
+  }
+  return JSON.stringify(a) === JSON.stringify(b) ? [] : [{ path: prefix, mine: a, theirs: b }];
+}
+
+const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] hover:bg-paper focus-visible:outline-2 focus-visible:outline-signal disabled:opacity-40";
+
+export function SaveControl({ scenarioId, revisionId, save }: { scenarioId: string | null; revisionId: string | null; save: SaveFn | null }) {
+  const store = useWbStore();
+  const dirty = useWb((s) => s.dirty);
+  const [open, setOpen] = useState(false);
+  const [note, setNote] = useState("");
+  const [base, setBase] = useState(revisionId);
+  const [busy, setBusy] = useState(false);
+  const [msg, setMsg] = useState<string | null>(null);
+  const [conflict, setConflict] = useState<{ revisionId: string; number: number; author: string; createdAt: string; theirs: Scenario | null; diff: ReturnType<typeof scenarioDiff> } | null>(null);
+
+  if (!save || !scenarioId || !base) {
+    return <span className="text-[12px] text-ink-muted" title="This scenario is a local draft: it is not saved anywhere">Local draft</span>;
+  }
+
+  const doSave = async (baseRevisionId: string) => {
+    setBusy(true);
+    setMsg(null);
+    const body = store.getState().scenario;
+    try {
+      const r = await save({ scenarioId, baseRevisionId, note, body });
+      if (r.ok) {
+        setBase(r.revisionId);
+        store.getState().markSaved(body);
+        setConflict(null);
+        setOpen(false);
+        setNote("");
+        setMsg(`Saved as revision ${r.number}`);
+      } else if (r.conflict) {
+        const c = r.conflict.current;
+        let theirs: Scenario | null = null;
+        try {
+          theirs = upgradeScenario(c.body);
+        } catch {
+          theirs = null;
+        }
+        setConflict({ revisionId: c.revisionId, number: c.number, author: c.author, createdAt: c.createdAt, theirs, diff: scenarioDiff(body, theirs ?? c.body) });
+        setMsg(r.message);
+      } else {
+        setMsg(r.message);
+      }
+    } catch (e) {
+      setMsg(e instanceof Error ? e.message : String(e));
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <div className="relative">
+      <button type="button" className={`${BTN} ${dirty ? "border-signal text-signal" : ""}`} onClick={() => setOpen((o) => !o)} aria-expanded={open} data-testid="save-open">
+        Save…
+      </button>
+      {msg && !open && <span className="ml-2 text-[12px] text-ink-muted" role="status">{msg}</span>}
+      {open && (
+        <div className="absolute right-0 z-30 mt-1 w-96 rounded border border-hairline bg-white p-3 shadow-lg" role="dialog" aria-label="Save revision">
+          <label htmlFor="save-note" className="text-[12px] font-semibold">Note for this revision</label>
+          <textarea id="save-note" className="mt-1 w-full rounded border border-hairline p-1.5 text-[13px]" rows={2} maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} data-testid="save-note" />
+          <div className="mt-2 flex justify-end gap-2">
+            <button type="button" className={BTN} onClick={() => setOpen(false)}>Close</button>
+            <button type="button" className={`${BTN} border-signal bg-signal text-white hover:bg-signal-dark`} disabled={busy} onClick={() => doSave(base)} data-testid="save-submit">
+              {busy ? "Saving…" : "Save revision"}
+            </button>
+          </div>
+          {msg && <p className="mt-2 text-[12px] text-verdict-fail" role="alert" data-testid="save-message">{msg}</p>}
+          {conflict && (
+            <div className="mt-2 rounded border border-verdict-warn/50 bg-verdict-warn/5 p-2 text-[12px]" data-testid="save-conflict">
+              <p className="font-semibold text-verdict-warn">Conflict: revision {conflict.number} by {conflict.author} ({new Date(conflict.createdAt).toLocaleString()}) was saved after the one you opened.</p>
+              <table className="mt-1 w-full text-[11px]">
+                <thead><tr className="text-left text-ink-muted"><th>Field</th><th>Yours</th><th>Theirs</th></tr></thead>
+                <tbody>
+                  {conflict.diff.slice(0, 12).map((d) => (
+                    <tr key={d.path}><td className="pr-1">{d.path}</td><td className="num pr-1">{JSON.stringify(d.mine)}</td><td className="num">{JSON.stringify(d.theirs)}</td></tr>
+                  ))}
+                </tbody>
+              </table>
+              {conflict.diff.length > 12 && <p className="text-ink-muted">…and {conflict.diff.length - 12} more</p>}
+              <div className="mt-2 flex gap-2">
+                {conflict.theirs && (
+                  <button type="button" className={BTN} onClick={() => { store.getState().load(conflict.theirs!); setBase(conflict.revisionId); setConflict(null); setMsg(`Opened revision ${conflict.number}`); }}>
+                    Open theirs (drop mine)
+                  </button>
+                )}
+                <button type="button" className={BTN} onClick={() => doSave(conflict.revisionId)}>Save mine on top</button>
+              </div>
+            </div>
+          )}
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,155 @@
+"use client";
+/**
+ * The Verdict zone: headline figures with pass/warn/fail words, the checks table with formulas, and the cautions.
+ * Verdict words always accompany the colour.
+ */
+import type { CheckRow, Verdict as VerdictWord } from "@/lib/design/checks";
+import { formatEng } from "@/lib/units/eng";
+import type { LiveResult } from "@/lib/workbench/types";
+import { useWb } from "./context";
+
+const COLOR: Record<VerdictWord, string> = { pass: "text-verdict-pass", warn: "text-verdict-warn", fail: "text-verdict-fail" };
+const BG: Record<VerdictWord, string> = { pass: "bg-verdict-pass/10", warn: "bg-verdict-warn/10", fail: "bg-verdict-fail/10" };
+
+export function VerdictWordBadge({ v }: { v: VerdictWord | null }) {
+  if (!v) return <span className="text-[11px] uppercase tracking-wide text-ink-muted">—</span>;
+  return <span className={`rounded px-1.5 py-0.5 text-[11px] font-semibold uppercase tracking-wide ${COLOR[v]} ${BG[v]}`}>{v}</span>;
+}
+
+/** Phase margin: ≥ 45° pass, 30–45° warn, below fail (common practice for a robust loop). */
+export function phaseMarginVerdict(pm: number | null): VerdictWord | null {
+  if (pm === null) return null;
+  return pm >= 45 ? "pass" : pm >= 30 ? "warn" : "fail";
+}
+
+interface Headline {
+  id: string;
+  label: string;
+  value: string;
+  verdict: VerdictWord | null;
+  hint: string;
+}
+
+export function headlines(r: LiveResult | null, maxOvershootPct: number): Headline[] {
+  const loop = r?.loop ?? null;
+  const m = r?.step?.metrics ?? null;
+  const row = (id: string): CheckRow | undefined => r?.checks.find((c) => c.id === id);
+  const acc = row("accuracy");
+  const diss = row("dissipation") ?? row("junction-temperature");
+  const pm = loop?.phaseMarginDeg ?? null;
+  const os = m ? m.overshootPct : null;
+  return [
+    {
+      id: "phase-margin", label: "Phase margin",
+      value: pm === null ? (loop ? "no crossover" : "—") : `${pm.toFixed(1)}°`,
+      verdict: phaseMarginVerdict(pm), hint: "≥ 45° pass, 30–45° warn (common practice)",
+    },
+    {
+      id: "crossover", label: "Crossover",
+      value: loop?.crossoverHz != null ? formatEng(loop.crossoverHz, "Hz") : "—",
+      verdict: loop ? (loop.crossoverHz !== null ? "pass" : "warn") : null,
+      hint: loop?.gainMarginDb != null ? `gain margin ${loop.gainMarginDb.toFixed(1)} dB` : "where |T| = 1",
+    },
+    {
+      id: "overshoot", label: "Overshoot",
+      value: os === null ? "—" : `${os.toFixed(1)} %`,
+      verdict: os === null ? null : os <= maxOvershootPct ? "pass" : os <= 2 * maxOvershootPct + 5 ? "warn" : "fail",
+      hint: `target ≤ ${maxOvershootPct} % (Compensate settings)`,
+    },
+    {
+      id: "settling", label: "Settling (±1 %)",
+      value: m?.settlingTime1pct != null ? formatEng(m.settlingTime1pct, "s") : m ? "not settled" : "—",
+      verdict: m ? (m.settlingTime1pct === null ? "fail" : m.settlingTime01pct === null ? "warn" : "pass") : null,
+      hint: m?.settlingTime01pct != null ? `±0.1 %: ${formatEng(m.settlingTime01pct, "s")}` : "±0.1 %: not within the record",
+    },
+    {
+      id: "full-scale-error", label: "Full-scale error",
+      value: acc ? `${acc.value.toFixed(2)} %` : "—",
+      verdict: acc?.verdict ?? null,
+      hint: acc ? `worst case; limit ${acc.limit.toFixed(2)} %` : "DC accuracy budget",
+    },
+    {
+      id: "dissipation", label: "Worst dissipation",
+      value: diss ? formatEng(diss.value, diss.unit) : "—",
+      verdict: diss?.verdict ?? null,
+      hint: diss ? `rating ${formatEng(diss.limit, diss.unit)}` : "pass device",
+    },
+  ];
+}
+
+export function HeadlineFigures() {
+  const current = useWb((s) => s.run.current);
+  const maxOs = useWb((s) => s.scenario.studies.compensate.maxOvershootPct);
+  const list = headlines(current, maxOs);
+  return (
+    <div className="grid grid-cols-2 gap-2" data-testid="headlines">
+      {list.map((h) => (
+        <div key={h.id} className="rounded border border-hairline bg-white px-3 py-2" data-testid={`metric-${h.id}`}>
+          <div className="flex items-center justify-between gap-1">
+            <span className="text-[12px] text-ink-muted">{h.label}</span>
+            <VerdictWordBadge v={h.verdict} />
+          </div>
+          <div className="num mt-0.5 text-[22px] font-semibold leading-tight text-ink" data-testid={`metric-${h.id}-value`}>{h.value}</div>
+          <div className="mt-0.5 truncate text-[11px] text-ink-muted" title={h.hint}>{h.hint}</div>
+        </div>
+      ))}
+    </div>
+  );
+}
+
+function fmtValue(c: CheckRow): string {
+  if (c.unit === "" ) return c.value.toPrecision(3);
+  if (c.unit === "% FS" || c.unit === "°C" || c.unit === "%") return `${c.value.toFixed(c.unit === "°C" ? 0 : 2)} ${c.unit}`;
+  return formatEng(c.value, c.unit);
+}
+
+export function ChecksTable() {
+  const checks = useWb((s) => s.run.current?.checks ?? null);
+  if (!checks) return <p className="text-[13px] text-ink-muted">Checks appear after the first run.</p>;
+  return (
+    <table className="w-full border-collapse text-[12px]" data-testid="checks-table">
+      <caption className="sr-only">Design checks</caption>
+      <thead>
+        <tr className="border-b border-hairline text-left text-ink-muted">
+          <th scope="col" className="py-1 pr-2 font-medium">Check</th>
+          <th scope="col" className="py-1 pr-2 text-right font-medium">Value</th>
+          <th scope="col" className="py-1 pr-2 text-right font-medium">Limit</th>
+          <th scope="col" className="py-1 font-medium">Verdict</th>
+        </tr>
+      </thead>
+      <tbody>
+        {checks.map((c) => (
+          <tr key={c.id} className="border-b border-hairline align-top" data-testid={`check-${c.id}`}>
+            <td className="py-1 pr-2">
+              <details>
+                <summary className="cursor-pointer">{c.label}</summary>
+                <p className="num mt-1 text-[11px] text-ink">{c.formula}</p>
+                <p className="mt-0.5 text-[11px] text-ink-muted">{c.detail}</p>
+              </details>
+            </td>
+            <td className="num py-1 pr-2 text-right">{fmtValue(c)}</td>
+            <td className="num py-1 pr-2 text-right text-ink-muted">{fmtValue({ ...c, value: c.limit })}</td>
+            <td className="py-1"><VerdictWordBadge v={c.verdict} /></td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+export function CautionsList() {
+  const cautions = useWb((s) => s.run.current?.cautions ?? null);
+  if (!cautions || cautions.length === 0) {
+    return <p className="text-[12px] text-ink-muted">No cautions for this scenario. Local codes and licensed practice still apply.</p>;
+  }
+  return (
+    <ul className="space-y-2" data-testid="cautions">
+      {cautions.map((c) => (
+        <li key={c.id} className="rounded border border-verdict-warn/40 bg-verdict-warn/5 px-3 py-2 text-[12px]">
+          <p className="font-semibold text-verdict-warn">Caution: {c.title}</p>
+          <p className="mt-0.5 text-ink">{c.text}</p>
+        </li>
+      ))}
+    </ul>
+  );
+}

@@ -1,0 +1,255 @@
+"use client";
+/**
+ * The workbench: Circuit (schematic, part values, panels) · Response (plots) · Verdict (figures, checks, cautions),
+ * with the studies drawer at the bottom. Owns the live runner and the study pool for the page's lifetime.
+ */
+import { useEffect, useRef, useState } from "react";
+import type { Scenario } from "@/lib/design/schema";
+import { compileNetlistJson } from "@/lib/design/compile";
+import { safeFileName } from "@/lib/workbench/csv";
+import { WorkbenchProvider, useWb, useWbStore } from "./context";
+import { LoadSupplyPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
+import { CautionsList, ChecksTable, HeadlineFigures } from "./Verdict";
+import { Schematic } from "@/components/schematic/Schematic";
+import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
+import { downloadText } from "@/components/plots/ExportMenu";
+import { useEngine, type Engine } from "./engine";
+import { StudiesDrawer } from "./StudiesDrawer";
+import { SaveControl, type SaveFn } from "./SaveControl";
+
+export interface WorkbenchProps {
+  scenario: Scenario;
+  title: string;
+  scenarioId: string | null;
+  revisionId: string | null;
+  revisionNumber: number | null;
+  /** Server action that saves a revision; null when saving is not possible here (a local draft). */
+  save: SaveFn | null;
+}
+
+export function Workbench(props: WorkbenchProps) {
+  return (
+    <WorkbenchProvider scenario={props.scenario}>
+      <WorkbenchInner {...props} />
+    </WorkbenchProvider>
+  );
+}
+
+function focusField(key: string) {
+  const ids: Record<string, string> = {
+    load: "field-load-resistance",
+    cable: "field-load-cable-length",
+    loadSupply: "field-supplies-load",
+    command: "field-stimulus-commandHigh",
+    opamp: "opamp-preset",
+    pass: "pass-preset",
+  };
+  const id = ids[key] ?? `field-parts-${key}`;
+  const el = document.getElementById(id);
+  if (!el) return;
+  const details = el.closest("details");
+  if (details && !details.open) details.open = true;
+  el.focus();
+  el.scrollIntoView({ block: "nearest" });
+}
+
+const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] text-ink hover:bg-paper disabled:opacity-40 focus-visible:outline-2 focus-visible:outline-signal";
+
+function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps & { engine: Engine | null }) {
+  const store = useWbStore();
+  const canUndo = useWb((s) => s.past.length > 0);
+  const canRedo = useWb((s) => s.future.length > 0);
+  const dirty = useWb((s) => s.dirty);
+  const pending = useWb((s) => s.run.pending);
+  const elapsed = useWb((s) => s.run.elapsedMs);
+  const showOp = useWb((s) => s.showOperatingPoint);
+  const template = useWb((s) => s.scenario.template);
+  void engine;
+  return (
+    <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
+      <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
+      <span className="text-[12px] text-ink-muted">{template}{revisionNumber !== null ? ` · revision ${revisionNumber}` : " · local draft"}</span>
+      <span
+        className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
+        data-testid="dirty-indicator"
+        aria-live="polite"
+      >
+        {dirty ? "● Unsaved changes" : "Saved"}
+      </span>
+      <div className="ml-auto flex flex-wrap items-center gap-2">
+        <span className="num w-28 text-right text-[11px] text-ink-muted" data-testid="run-status" aria-live="off">
+          {pending ? "simulating…" : elapsed !== null ? `ran in ${Math.round(elapsed)} ms` : ""}
+        </span>
+        <button type="button" className={BTN} disabled={!canUndo} onClick={() => store.getState().undo()} aria-keyshortcuts="Control+Z" data-testid="undo">
+          Undo
+        </button>
+        <button type="button" className={BTN} disabled={!canRedo} onClick={() => store.getState().redo()} aria-keyshortcuts="Control+Shift+Z" data-testid="redo">
+          Redo
+        </button>
+        <label className="flex items-center gap-1 text-[13px]">
+          <input type="checkbox" className="accent-signal" checked={showOp} onChange={(e) => store.getState().setShowOperatingPoint(e.target.checked)} data-testid="toggle-op" />
+          Operating point
+        </label>
+        <button
+          type="button"
+          className={BTN}
+          data-testid="export-netlist"
+          onClick={() => {
+            const s = store.getState().scenario;
+            const json = JSON.stringify(compileNetlistJson(s, "step"), null, 2);
+            downloadText(safeFileName(`${title} netlist`, "json"), json, "application/json");
+          }}
+        >
+          Netlist JSON
+        </button>
+        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} />
+      </div>
+    </div>
+  );
+}
+
+const NO_FAILURES: { analysis: string; message: string }[] = [];
+
+function RunError() {
+  const error = useWb((s) => s.run.error);
+  const failures = useWb((s) => s.run.current?.failures ?? NO_FAILURES);
+  if (!error && failures.length === 0) return null;
+  return (
+    <div role="alert" className="rounded border border-verdict-fail/40 bg-verdict-fail/5 px-3 py-2 text-[12px] text-verdict-fail" data-testid="run-error">
+      {error && <p><strong>The last run failed:</strong> {error} <span className="text-ink-muted">(showing the last good result)</span></p>}
+      {!error && failures.map((f) => <p key={f.analysis}><strong>{f.analysis}:</strong> {f.message}</p>)}
+    </div>
+  );
+}
+
+function ResponseZone() {
+  const current = useWb((s) => s.run.current);
+  const previous = useWb((s) => s.run.previous);
+  const [tab, setTab] = useState<"closed" | "zout">("closed");
+  return (
+    <div className="space-y-2">
+      <RunError />
+      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} />
+      <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB" />
+      <div>
+        <div role="tablist" aria-label="More responses" className="flex gap-1">
+          {([["closed", "Closed loop"], ["zout", "Output impedance"]] as const).map(([k, label]) => (
+            <button
+              key={k}
+              role="tab"
+              type="button"
+              aria-selected={tab === k}
+              className={`rounded-t border border-b-0 border-hairline px-3 py-1 text-[12px] ${tab === k ? "bg-white font-semibold" : "bg-paper text-ink-muted"}`}
+              onClick={() => setTab(k)}
+              data-testid={`tab-${k}`}
+            >
+              {label}
+            </button>
+          ))}
+        </div>
+        <div role="tabpanel">
+          {tab === "closed" ? (
+            <BodePlot id="closed" title="Closed loop" bode={current?.closed ?? null} ghost={previous?.closed ?? null} magUnit="dB(A/V)" height={130}
+              extraMarkers={current?.closed?.bandwidthHz != null ? [{ x: current.closed.bandwidthHz, label: "−3 dB", color: "#0F766E" }] : undefined} />
+          ) : (
+            <BodePlot id="zout" title="Output impedance" bode={current?.zout ?? null} ghost={previous?.zout ?? null} magUnit="dBΩ" height={130} />
+          )}
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function CircuitZone() {
+  const store = useWbStore();
+  const scenario = useWb((s) => s.scenario);
+  const selected = useWb((s) => s.selectedPart);
+  const op = useWb((s) => s.run.current?.op ?? null);
+  const showOp = useWb((s) => s.showOperatingPoint);
+  return (
+    <div className="space-y-2">
+      <div className="rounded border border-hairline bg-white p-1">
+        <Schematic
+          scenario={scenario}
+          selected={selected}
+          op={op}
+          showOp={showOp}
+          onSelect={(k) => {
+            store.getState().selectPart(k);
+            focusField(k);
+          }}
+        />
+      </div>
+      <PartValues />
+      <LoadSupplyPanel />
+      <StimulusPanel />
+      <OpampPanel />
+      <PassPanel />
+    </div>
+  );
+}
+
+function useShortcuts() {
+  const store = useWbStore();
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (!(e.ctrlKey || e.metaKey) || e.altKey) return;
+      const k = e.key.toLowerCase();
+      if (k !== "z" && k !== "y") return;
+      const t = e.target as HTMLElement | null;
+      // Inside a text field the browser's own undo edits the text being typed.
+      if (t && (t.tagName === "TEXTAREA" || (t.tagName === "INPUT" && (t as HTMLInputElement).type === "text"))) return;
+      e.preventDefault();
+      if (k === "y" || e.shiftKey) store.getState().redo();
+      else store.getState().undo();
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [store]);
+}
+
+function WorkbenchInner(props: WorkbenchProps) {
+  const engine = useEngine();
+  const [drawer, setDrawer] = useState(false);
+  const warned = useRef(false);
+  const dirty = useWb((s) => s.dirty);
+  useShortcuts();
+  useEffect(() => {
+    const onBefore = (e: BeforeUnloadEvent) => {
+      if (dirty && props.save) {
+        e.preventDefault();
+        warned.current = true;
+      }
+    };
+    window.addEventListener("beforeunload", onBefore);
+    return () => window.removeEventListener("beforeunload", onBefore);
+  }, [dirty, props.save]);
+  return (
+    <div className="flex min-h-[calc(100vh-3rem)] flex-col" data-testid="workbench">
+      <Toolbar {...props} engine={engine} />
+      <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_300px]">
+        <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto md:pr-1">
+          <h2 className="sr-only">Circuit</h2>
+          <CircuitZone />
+        </section>
+        <section aria-label="Response" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto">
+          <h2 className="sr-only">Response</h2>
+          <ResponseZone />
+        </section>
+        <section aria-label="Verdict" className="min-w-0 space-y-3 md:col-span-2 xl:col-span-1 xl:max-h-[calc(100vh-7rem)] xl:overflow-y-auto">
+          <h2 className="sr-only">Verdict</h2>
+          <HeadlineFigures />
+          <div className="rounded border border-hairline bg-white p-2">
+            <h3 className="mb-1 text-[13px] font-semibold">Checks</h3>
+            <ChecksTable />
+          </div>
+          <div className="rounded border border-hairline bg-white p-2">
+            <h3 className="mb-1 text-[13px] font-semibold">Cautions</h3>
+            <CautionsList />
+          </div>
+        </section>
+      </div>
+      <StudiesDrawer open={drawer} onToggle={() => setDrawer((d) => !d)} engine={engine} />
+    </div>
+  );
+}

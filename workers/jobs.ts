@@ -1,0 +1,109 @@
+/**
+ * What the worker does, as plain functions (tested in Node without a worker): run a scenario through the design
+ * layer and shape the results for the plots, and list the buffers to transfer.
+ */
+import { upgradeScenario } from "@/lib/design/upgrade";
+import { runClosedLoop, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "@/lib/design/run";
+import { runChecks } from "@/lib/design/checks";
+import type { Scenario } from "@/lib/design/schema";
+import type { BodeView, LiveResult, LoopView, OperatingPointResult, StepView } from "@/lib/workbench/types";
+
+/** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
+export const LIVE_BUDGET_MS = 10_000;
+
+function message(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+/** dB of a magnitude column, in place of a copy (20·log10). */
+function toDb(mag: Float64Array): Float64Array {
+  const out = new Float64Array(mag.length);
+  for (let i = 0; i < mag.length; i++) out[i] = 20 * Math.log10(mag[i]!);
+  return out;
+}
+
+export function stepView(s: Scenario, budgetMs = LIVE_BUDGET_MS): StepView {
+  const r = runStep(s, { timeBudgetMs: budgetMs });
+  return { time: r.time, ...r.series, metrics: r.metrics };
+}
+
+export function loopView(s: Scenario, budgetMs = LIVE_BUDGET_MS): LoopView {
+  const r = runLoopGain(s, { timeBudgetMs: budgetMs });
+  return {
+    freq: r.freq, magDb: r.magDb, phaseDeg: r.phaseDeg,
+    phaseMarginDeg: r.phaseMarginDeg, gainMarginDb: r.gainMarginDb, crossoverHz: r.crossoverHz,
+  };
+}
+
+/**
+ * The live run. The step response and loop gain are the core: if either fails the whole run fails with the
+ * engine's message (the page keeps the last good result). Closed loop, output impedance and the operating point
+ * may fail alone; their messages travel in `failures`.
+ */
+export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
+  const s = upgradeScenario(json);
+  const failures: LiveResult["failures"] = [];
+  let op: OperatingPointResult | null = null;
+  try {
+    op = runOperatingPoint(s, { timeBudgetMs: budgetMs }).op;
+  } catch (e) {
+    failures.push({ analysis: "Operating point", message: message(e) });
+  }
+  let step: StepView;
+  try {
+    step = stepView(s, budgetMs);
+  } catch (e) {
+    throw new Error(`Step response: ${message(e)}`);
+  }
+  let loop: LoopView;
+  try {
+    loop = loopView(s, budgetMs);
+  } catch (e) {
+    throw new Error(`Loop gain: ${message(e)}`);
+  }
+  let closed: LiveResult["closed"] = null;
+  try {
+    closed = runClosedLoop(s, { timeBudgetMs: budgetMs });
+  } catch (e) {
+    failures.push({ analysis: "Closed loop", message: message(e) });
+  }
+  let zout: BodeView | null = null;
+  try {
+    const z = runOutputImpedance(s, { timeBudgetMs: budgetMs });
+    zout = { freq: z.freq, magDb: toDb(z.magOhm), phaseDeg: z.phaseDeg };
+  } catch (e) {
+    failures.push({ analysis: "Output impedance", message: message(e) });
+  }
+  const checks = runChecks(s, op ?? undefined);
+  const acc = checks.checks.find((c) => c.id === "accuracy");
+  const diss = checks.checks.find((c) => c.id === "dissipation");
+  return {
+    step, loop, closed, zout, op,
+    checks: checks.checks,
+    cautions: checks.cautions,
+    fullScaleErrorPct: acc ? acc.value : null,
+    worstDissipationW: diss ? diss.value : null,
+    failures,
+  };
+}
+
+/** Every distinct ArrayBuffer under `value` (typed arrays in objects and arrays), for comlink's transfer list. */
+export function collectBuffers(value: unknown): ArrayBuffer[] {
+  const seen = new Set<ArrayBuffer>();
+  const visit = (v: unknown, depth: number) => {
+    if (v === null || typeof v !== "object" || depth > 8) return;
+    if (ArrayBuffer.isView(v)) {
+      if (v.buffer instanceof ArrayBuffer) seen.add(v.buffer);
+      return;
+    }
+    if (Array.isArray(v)) {
+      for (const x of v) visit(x, depth + 1);
+      return;
+    }
+    for (const x of Object.values(v as Record<string, unknown>)) visit(x, depth + 1);
+  };
+  visit(value, 0);
+  return [...seen];
+}
+
+export { sweep1d, map2d, spread, compensateScan, compensatePick } from "@/lib/design/studies";
