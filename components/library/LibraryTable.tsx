@@ -1,0 +1,53 @@
+/** The library's entries: each row points to an immutable revision and shows its key figures and evidence. */
+import Link from "next/link";
+import { formatEng } from "@/lib/units/eng";
+import type { LibraryEntrySummary } from "@/lib/db/library";
+import { StatusBadge } from "./StatusBadge";
+import { VerdictBadge } from "@/components/traces/VerdictBadge";
+
+function worst(e: LibraryEntrySummary): "pass" | "warn" | "fail" | null {
+  const v = e.evidence.comparisons.map((c) => c.verdict);
+  if (!v.length) return null;
+  return v.includes("fail") ? "fail" : v.includes("warn") ? "warn" : "pass";
+}
+
+export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
+  if (entries.length === 0) {
+    return <p className="rounded border border-hairline bg-white px-4 py-6 text-sm text-ink-muted" data-testid="library-empty">No entries match. Designers submit a revision from its Bench traces page.</p>;
+  }
+  return (
+    <div className="overflow-x-auto rounded border border-hairline bg-white">
+      <table className="w-full border-collapse text-sm" data-testid="library-table">
+        <thead>
+          <tr className="border-b border-hairline text-left text-xs text-ink-muted">
+            <th className="px-3 py-2 font-medium">Entry</th>
+            <th className="px-3 py-2 font-medium">Status</th>
+            <th className="px-3 py-2 font-medium">Template · pass · load</th>
+            <th className="px-3 py-2 text-right font-medium">Current range</th>
+            <th className="px-3 py-2 text-right font-medium">Overshoot</th>
+            <th className="px-3 py-2 text-right font-medium">Settling</th>
+            <th className="px-3 py-2 font-medium">Evidence</th>
+            <th className="px-3 py-2 font-medium">Validated by</th>
+          </tr>
+        </thead>
+        <tbody>
+          {entries.map((e) => (
+            <tr key={e.id} className="border-b border-hairline/60 align-top" data-testid="library-row">
+              <td className="px-3 py-2">
+                <Link href={`/library/${e.id}`} className="font-medium text-signal hover:underline">{e.title}</Link>
+                <span className="block text-xs text-ink-muted">revision {e.revisionNumber}{e.submittedByName ? ` · submitted by ${e.submittedByName}` : ""}</span>
+              </td>
+              <td className="px-3 py-2"><StatusBadge status={e.status} /></td>
+              <td className="px-3 py-2 text-xs">{e.template} · {e.passElement || "—"} · {e.loadType || "—"}</td>
+              <td className="num px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatEng(e.currentMin ?? 0, "A")} – ${formatEng(e.currentMax, "A")}`}</td>
+              <td className="num px-3 py-2 text-right">{typeof e.keyFigures.overshootPct === "number" ? `${e.keyFigures.overshootPct.toFixed(1)} %` : "—"}</td>
+              <td className="num px-3 py-2 text-right">{typeof e.keyFigures.settlingTime === "number" ? formatEng(e.keyFigures.settlingTime, "s") : "—"}</td>
+              <td className="px-3 py-2 text-xs">{e.evidence.traceIds.length} trace{e.evidence.traceIds.length === 1 ? "" : "s"} <VerdictBadge verdict={worst(e)} /></td>
+              <td className="px-3 py-2 text-xs">{e.validatedByName ? `${e.validatedByName}, ${e.validatedAt?.slice(0, 10)}` : "—"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
