@@ -421,49 +421,79 @@ export interface CompensateResult {
 }
 
 /**
- * Pick among scanned candidates: those meeting the phase-margin target at every load corner, in ascending order of
- * capacitance (a smaller capacitor means a faster loop), are stepped at every corner until `maxStepped` meet the
- * overshoot limit; the fastest worst-case settling wins.
+ * Pick among scanned candidates. Those meeting the phase-margin target at every load corner are ordered by
+ * capacitance (a smaller capacitor means a faster loop). Overshoot falls as the capacitor grows, so a bisection over
+ * that list finds the smallest value whose worst-corner overshoot meets the limit; it and the next `extra` values
+ * above it are compared and the fastest worst-case settling wins. Each step run covers every load corner.
  */
-export function compensatePick(s: Scenario, settings: CompensateSettings, rows: CompensateScanRow[], opts: StudyOptions = {}, maxStepped = 3): CompensateResult {
+export function compensatePick(s: Scenario, settings: CompensateSettings, rows: CompensateScanRow[], opts: StudyOptions = {}, extra = 2): CompensateResult {
   const corners = loadCorners(s);
   const passing = rows
     .filter((r) => Number.isFinite(r.minPhaseMarginDeg) && r.minPhaseMarginDeg >= settings.targetPhaseMarginDeg)
     .sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   const stepped: CompensateResult["stepped"] = [];
-  let best: CompensateResult["chosen"] = null;
-  let good = 0;
-  for (const cand of passing) {
-    if (good >= maxStepped) break;
+  const cache = new Map<number, { os: number; ts: number } | null>();
+  const measure = (k: number): { os: number; ts: number } | null => {
+    if (cache.has(k)) return cache.get(k)!;
     checkStop(opts);
+    const cand = passing[k];
     let os = 0, ts = 0;
+    let res: { os: number; ts: number } | null = null;
     try {
       for (const corner of corners) {
         const m = runStep(applyCandidate(corner, cand), engineOptions(opts)).metrics;
         os = Math.max(os, m.overshootPct);
         ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
       }
+      res = { os, ts };
+      stepped.push({ compCapacitor: cand.compCapacitor, baseResistor: cand.baseResistor, worstOvershootPct: os, worstSettlingTime1pct: ts });
     } catch (e) {
-      if (isSimError(e) && e.code === "cancelled") throw e;
-      if (!isSimError(e)) throw e;
-      continue;
+      if (!isSimError(e) || e.code === "cancelled") throw e;
     }
-    stepped.push({ compCapacitor: cand.compCapacitor, baseResistor: cand.baseResistor, worstOvershootPct: os, worstSettlingTime1pct: ts });
-    if (os <= settings.maxOvershootPct) {
-      good++;
-      if (!best || ts < best.worstSettlingTime1pct) {
-        best = {
-          compCapacitor: cand.compCapacitor,
-          baseResistor: cand.baseResistor,
-          minPhaseMarginDeg: cand.minPhaseMarginDeg,
-          worstOvershootPct: os,
-          worstSettlingTime1pct: ts,
-          phaseMarginToSpareDeg: cand.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
-          overshootToSparePct: settings.maxOvershootPct - os,
-        };
+    cache.set(k, res);
+    return res;
+  };
+  const meets = (k: number) => {
+    const m = measure(k);
+    return m !== null && m.os <= settings.maxOvershootPct;
+  };
+  let best: CompensateResult["chosen"] = null;
+  if (passing.length > 0) {
+    // Overshoot falls with capacitance until the loop gets too slow (then wind-up brings it back), so first probe
+    // about eight values spread over the list, then bisect between the last failing probe and the first that meets.
+    const n = passing.length;
+    const stride = Math.max(1, Math.ceil(n / 8));
+    const probes: number[] = [];
+    for (let k = 0; k < n; k += stride) probes.push(k);
+    if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
+    let lo = -1, hi = -1;
+    for (let j = 0; j < probes.length; j++) {
+      if (meets(probes[j])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
+    }
+    if (hi >= 0) {
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (meets(mid)) hi = mid; else lo = mid;
+      }
+      for (let k = hi; k < Math.min(passing.length, hi + 1 + extra); k++) {
+        const m = measure(k);
+        if (!m || m.os > settings.maxOvershootPct) continue;
+        if (!best || m.ts < best.worstSettlingTime1pct) {
+          const cand = passing[k];
+          best = {
+            compCapacitor: cand.compCapacitor,
+            baseResistor: cand.baseResistor,
+            minPhaseMarginDeg: cand.minPhaseMarginDeg,
+            worstOvershootPct: m.os,
+            worstSettlingTime1pct: m.ts,
+            phaseMarginToSpareDeg: cand.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
+            overshootToSparePct: settings.maxOvershootPct - m.os,
+          };
+        }
       }
     }
   }
+  stepped.sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   const message = best
     ? `Compensation capacitor ${best.compCapacitor} F${settings.tuneBaseResistor ? ` with base/gate resistor ${best.baseResistor} Ω` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range.`
     : passing.length === 0

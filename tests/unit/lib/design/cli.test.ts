@@ -1,0 +1,46 @@
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { main } from "@/lib/design/cli";
+import { defaultScenario } from "@/lib/design";
+
+describe("scenario CLI", () => {
+  let out = "";
+  let err = "";
+  beforeEach(() => {
+    out = "";
+    err = "";
+    vi.spyOn(process.stdout, "write").mockImplementation((c) => { out += String(c); return true; });
+    vi.spyOn(process.stderr, "write").mockImplementation((c) => { err += String(c); return true; });
+  });
+  afterEach(() => vi.restoreAllMocks());
+  const dir = mkdtempSync(join(tmpdir(), "quell-cli-"));
+
+  it("prints the operating point of a scenario file as JSON", async () => {
+    const file = join(dir, "s.json");
+    writeFileSync(file, JSON.stringify(defaultScenario("sink-npn")));
+    expect(await main(["--scenario", file, "--study", "op"])).toBe(0);
+    const j = JSON.parse(out);
+    expect(j.study).toBe("op");
+    // Reference: Vcommand·k/Rsense = 5 × 1/48 / 0.1 = 1.0417 A, less the base current 1/(β+1).
+    expect(j.result.summary.iLoad).toBeGreaterThan(1.0);
+    expect(j.result.summary.iLoad).toBeLessThan(1.0417);
+  });
+  it("prints the checks, and exits 2 naming the bad field of an invalid scenario", async () => {
+    const file = join(dir, "c.json");
+    writeFileSync(file, JSON.stringify(defaultScenario("sink-nmos")));
+    expect(await main(["--scenario", file, "--study", "checks"])).toBe(0);
+    expect(JSON.parse(out).result.checks.length).toBeGreaterThan(5);
+    const bad = defaultScenario("sink-npn") as unknown as { parts: { baseResistor: unknown } };
+    bad.parts.baseResistor = "2k2";
+    writeFileSync(file, JSON.stringify(bad));
+    expect(await main(["--scenario", file, "--study", "op"])).toBe(2);
+    expect(err).toContain("parts.baseResistor");
+  });
+  it("refuses an unknown study and a missing file", async () => {
+    expect(await main(["--scenario", "x.json", "--study", "nope"])).toBe(2);
+    expect(await main(["--scenario", join(dir, "missing.json"), "--study", "op"])).toBe(2);
+    expect(err).toContain("cannot read");
+  });
+});

@@ -1,0 +1,87 @@
+import { describe, expect, it } from "vitest";
+import { isSimError } from "@/lib/sim";
+import {
+  SWEEPABLE_PARAMETERS, axisValues, compensate, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
+  withParameter,
+} from "@/lib/design";
+
+describe("parameters and axes", () => {
+  it("every sweepable path exists in every template's scenario", () => {
+    const s = defaultScenario("sink-npn");
+    for (const p of SWEEPABLE_PARAMETERS) expect(Number.isFinite(getParameter(s, p.path))).toBe(true);
+  });
+  it("withParameter copies and changes one value; unknown paths are named", () => {
+    const s = defaultScenario("sink-npn");
+    const v = withParameter(s, "load.cable.length", 7);
+    expect(v.load.cable.length).toBe(7);
+    expect(s.load.cable.length).toBe(2);
+    expect(() => withParameter(s, "parts.nothing", 1)).toThrow(/Unknown parameter "parts.nothing"/);
+  });
+  it("log axes are geometric with both ends included (closed form 10^(i/(n−1)) per decade)", () => {
+    const v = axisValues({ path: "x", from: 1e-9, to: 1e-6, points: 4, scale: "log", values: [] });
+    [1e-9, 1e-8, 1e-7, 1e-6].forEach((x, i) => expect(v[i] / x).toBeCloseTo(1, 12));
+    expect(axisValues({ path: "x", from: 0, to: 1, points: 3, scale: "linear", values: [] })).toEqual([0, 0.5, 1]);
+  });
+});
+
+describe("studies on the reference sink", () => {
+  const s = defaultScenario("sink-npn");
+
+  it("a 1D sweep of the compensation capacitor: one step and one Bode curve per value, and chunks agree with the whole", () => {
+    const axis = { path: "parts.compCapacitor", from: 100e-12, to: 10e-9, points: 3, scale: "log" as const, values: [] };
+    const whole = sweep1d(s, axis);
+    expect(whole.points.length).toBe(3);
+    for (const p of whole.points) {
+      expect(p.step!.time.length).toBeGreaterThan(10);
+      expect(p.loop!.freq.length).toBeGreaterThan(10);
+    }
+    const tail = sweep1d(s, axis, {}, { start: 2, end: 3 });
+    expect(Number.isNaN(tail.phaseMarginDeg[0])).toBe(true);
+    expect(tail.phaseMarginDeg[2]).toBe(whole.phaseMarginDeg[2]);
+    // A larger compensation capacitor slows the loop: the 10 nF step settles later than the 1 nF one's rise.
+    expect(whole.riseTime[2]).toBeGreaterThan(whole.riseTime[0]);
+  });
+
+  it("a 2D map fills its grid row by row and reports progress", () => {
+    let last = 0;
+    const m = map2d(
+      s,
+      {
+        x: { path: "parts.compCapacitor", from: 1e-9, to: 4.7e-9, points: 2, scale: "log", values: [] },
+        y: { path: "load.cable.length", from: 1, to: 10, points: 2, scale: "log", values: [] },
+        metric: "phaseMarginDeg",
+      },
+      { onProgress: (d) => { last = d; } },
+    );
+    expect(m.values.length).toBe(4);
+    for (const v of m.values) expect(v).toBeGreaterThan(0);
+    expect(last).toBe(4);
+  });
+
+  it("cancellation stops a study with SimError 'cancelled'", () => {
+    let calls = 0;
+    try {
+      sweep1d(s, s.studies.sweep, { shouldStop: () => ++calls > 1 });
+      expect.unreachable();
+    } catch (e) {
+      expect(isSimError(e) && e.code === "cancelled").toBe(true);
+    }
+  });
+
+  it("Spread is reproducible from its seed and independent of how runs are split into chunks", () => {
+    const one = spread(s, { runs: 12, seed: 5 });
+    const parts = mergeSpread([spread(s, { runs: 12, seed: 5 }, {}, { start: 0, end: 5 }), spread(s, { runs: 12, seed: 5 }, {}, { start: 5, end: 12 })]);
+    expect(Array.from(parts.errorPctFs)).toEqual(Array.from(one.errorPctFs));
+    expect(one.summary!.errorPctFs.count + one.failures.length).toBe(12);
+  });
+
+  it("Compensate picks an E-series capacitor that meets the targets it reports", () => {
+    const r = compensate(s, { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false });
+    expect(r.chosen).not.toBeNull();
+    const c = r.chosen!;
+    expect(nearestE(c.compCapacitor, "E12")).toBeCloseTo(c.compCapacitor, 20);
+    expect(c.minPhaseMarginDeg).toBeGreaterThanOrEqual(60);
+    expect(c.worstOvershootPct).toBeLessThanOrEqual(5);
+    expect(c.phaseMarginToSpareDeg).toBeCloseTo(c.minPhaseMarginDeg - 60, 12);
+  });
+});
