@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { SCENARIO_STATUSES } from "@/lib/db/scenarioBody";
 import { ROLES } from "@/lib/auth/roles";
+import { TEMPLATE_IDS } from "@/lib/design/schema";
 
 const uuid = (what: string) => z.string().uuid(`${what} must be an id`);
 const intFromQuery = (min: number, max: number, name: string) =>
@@ -23,7 +24,7 @@ export const scenarioListQuery = z
 export const createScenarioBody = z
   .object({
     title: z.string().trim().min(1, "title: give the scenario a title").max(200, "title: at most 200 characters"),
-    template: z.string().trim().min(1, "template: pick a template").max(60),
+    template: z.enum(TEMPLATE_IDS, { error: `template must be one of ${TEMPLATE_IDS.join(", ")}` }),
     body: z.record(z.string(), z.unknown()).optional(),
     note: z.string().max(2000).optional(),
     /** Start from a revision (e.g. a library entry's) instead of the template's defaults. */

@@ -64,8 +64,7 @@ export async function saveRevision(
     const [rev] = await trx("revisions")
       .insert({ scenario_id: s.id, number, parent_id: input.baseRevisionId, author_id: actor.id, note, body: JSON.stringify(body) })
       .returning("id");
-    const template = typeof body.template === "string" ? body.template : s.template;
-    await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id, updated_at: trx.fn.now(), template });
+    await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id, updated_at: trx.fn.now(), template: body.template });
     await audit({ teamId: actor.teamId, actorId: actor.id, action: "revision.save", subjectType: "scenario", subjectId: s.id, detail: { number, note } }, trx);
     return { ok: true as const, revisionId: rev.id as string, number };
   });

@@ -1,34 +1,41 @@
 import { DomainError } from "./errors";
+import { upgradeScenario } from "@/lib/design/upgrade";
+import { TEMPLATES, defaultScenario } from "@/lib/design/templates";
+import { ScenarioError, TEMPLATE_IDS, type Scenario, type TemplateId } from "@/lib/design/schema";
 
 /** Largest scenario body accepted, bytes of JSON. */
 export const MAX_SCENARIO_BYTES = 256 * 1024;
 
 /**
- * Checks a scenario body before it becomes a revision: a JSON object of at most 256 KiB.
- * (The design layer's full scenario schema is applied here once lib/design exports it.)
+ * Checks a scenario body before it becomes a revision: at most 256 KiB of JSON, then the design layer's
+ * scenario schema (older versions are upgraded first). Returns the scenario as it will be stored.
  */
-export function checkScenarioBody(body: unknown): Record<string, unknown> {
+export function checkScenarioBody(body: unknown): Scenario {
   if (body === null || typeof body !== "object" || Array.isArray(body)) {
     throw new DomainError(400, "body: a scenario must be a JSON object.");
   }
   const size = Buffer.byteLength(JSON.stringify(body), "utf8");
   if (size > MAX_SCENARIO_BYTES) throw new DomainError(413, `body: the scenario is ${size} bytes, over the ${MAX_SCENARIO_BYTES}-byte limit.`);
-  return body as Record<string, unknown>;
+  try {
+    return upgradeScenario(body);
+  } catch (e) {
+    if (e instanceof ScenarioError) throw new DomainError(400, `body: ${e.message}`);
+    throw e;
+  }
 }
 
-/** A starting body for a template when nothing else is given. */
-export function starterBody(template: string): Record<string, unknown> {
-  return { schemaVersion: 0, template };
+export function isTemplateId(t: string): t is TemplateId {
+  return (TEMPLATE_IDS as readonly string[]).includes(t);
 }
 
-/** Template identifiers offered when creating a scenario. */
-export const TEMPLATE_CHOICES: readonly { id: string; title: string }[] = [
-  { id: "sink-npn", title: "Low-side sink, NPN" },
-  { id: "sink-darlington", title: "Low-side sink, Darlington" },
-  { id: "sink-nmos", title: "Low-side sink, N-MOSFET" },
-  { id: "source-highside", title: "High-side source" },
-  { id: "howland", title: "Howland pump" },
-];
+/** The template's starting scenario (from the design layer). */
+export function starterBody(template: string): Scenario {
+  if (!isTemplateId(template)) throw new DomainError(400, `template: must be one of ${TEMPLATE_IDS.join(", ")}.`);
+  return defaultScenario(template);
+}
+
+/** Templates offered when creating a scenario. */
+export const TEMPLATE_CHOICES: readonly { id: string; title: string }[] = TEMPLATES.map((t) => ({ id: t.id, title: t.title }));
 
 export const SCENARIO_STATUSES = ["draft", "review", "final"] as const;
 export type ScenarioStatus = (typeof SCENARIO_STATUSES)[number];

@@ -207,7 +207,7 @@ export async function createScenario(
   const body = checkScenarioBody(input.body ?? starterBody(input.template));
   return db().transaction(async (trx) => {
     const [s] = await trx("scenarios")
-      .insert({ team_id: actor.teamId, owner_id: actor.id, title: input.title.trim(), template: input.template })
+      .insert({ team_id: actor.teamId, owner_id: actor.id, title: input.title.trim(), template: body.template })
       .returning("*");
     const [rev] = await trx("revisions")
       .insert({ scenario_id: s.id, number: 1, author_id: actor.id, note: input.note?.trim() || "Created", body: JSON.stringify(body) })

@@ -29,7 +29,7 @@ import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenar
 import { createScenario } from "@/lib/db/scenarios";
 import { createPublicLink } from "@/lib/db/shareLinks";
 import { createInvitation } from "@/lib/db/teams";
-import { closeDb, cookieFor, ctx, makeFixture, request, type Actor, type Fixture } from "./support/fixtures";
+import { closeDb, cookieFor, ctx, makeFixture, request, scenarioBody, type Actor, type Fixture } from "./support/fixtures";
 
 type Who = "anonymous" | "viewer" | "designer" | "lead" | "outsider";
 const WHO: Who[] = ["anonymous", "viewer", "designer", "lead", "outsider"];
@@ -84,7 +84,7 @@ const cases: Case[] = [
     call: async (a) => {
       const id = await freshScenario();
       const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
-      return scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, a, { baseRevisionId: base, note: "matrix", body: { schemaVersion: 0, k: 1 } }), ctx({ id }));
+      return scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, a, { baseRevisionId: base, note: "matrix", body: scenarioBody({ senseResistor: 0.5 }) }), ctx({ id }));
     },
   },
   {
@@ -215,12 +215,13 @@ describe("route handlers: authentication first, then validation with proper stat
   it("answers 409 with both versions' information on a stale save, and writes nothing", async () => {
     const id = await freshScenario();
     const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
-    const first = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.designer, { baseRevisionId: base, note: "mine", body: { v: 1 } }), ctx({ id }));
+    const first = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.designer, { baseRevisionId: base, note: "mine", body: scenarioBody({ senseResistor: 0.33 }) }), ctx({ id }));
     expect(first.status).toBe(200);
-    const stale = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.lead, { baseRevisionId: base, note: "theirs", body: { v: 2 } }), ctx({ id }));
+    const stale = await scenario.PATCH(await request("PATCH", `/api/scenarios/${id}`, f.lead, { baseRevisionId: base, note: "theirs", body: scenarioBody({ senseResistor: 0.22 }) }), ctx({ id }));
     expect(stale.status).toBe(409);
-    const body = (await stale.json()) as { conflict: { current: { number: number; body: unknown; author: string } } };
-    expect(body.conflict.current).toMatchObject({ number: 2, body: { v: 1 }, author: f.designer.name });
+    const body = (await stale.json()) as { conflict: { current: { number: number; body: { parts: { senseResistor: number } }; author: string } } };
+    expect(body.conflict.current).toMatchObject({ number: 2, author: f.designer.name });
+    expect(body.conflict.current.body.parts.senseResistor).toBe(0.33);
     expect((await db()("revisions").where({ scenario_id: id })).length).toBe(2);
   });
 
@@ -259,7 +260,7 @@ describe("authorization matrix: server actions", () => {
     for (const w of WHO) {
       const id = await freshScenario();
       const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
-      got[w] = await outcome(w, () => saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "n", body: { a: 1 } }));
+      got[w] = await outcome(w, () => saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "n", body: scenarioBody({ senseResistor: 0.5 }) }));
     }
     expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "ok", lead: "ok", outsider: "denied" });
   });
@@ -268,11 +269,14 @@ describe("authorization matrix: server actions", () => {
     const id = await freshScenario();
     const base = (await db()("scenarios").where({ id }).first()).current_revision_id;
     await as("designer");
-    expect((await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "one", body: { a: 1 } })).ok).toBe(true);
+    expect((await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "one", body: scenarioBody({ senseResistor: 0.1 }) })).ok).toBe(true);
     await as("lead");
-    const r = await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "two", body: { a: 2 } });
+    const r = await saveScenarioRevision({ scenarioId: id, baseRevisionId: base, note: "two", body: scenarioBody({ senseResistor: 0.2 }) });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.conflict?.current).toMatchObject({ number: 2, body: { a: 1 } });
+    if (!r.ok) {
+      expect(r.conflict?.current.number).toBe(2);
+      expect((r.conflict?.current.body as { parts: { senseResistor: number } }).parts.senseResistor).toBe(0.1);
+    }
   });
 
   it("forkScenario: designers and leads of the team only", async () => {

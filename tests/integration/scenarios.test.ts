@@ -17,7 +17,8 @@ import { createPublicLink, listShareLinks, openPublicLink, revokePublicLink } fr
 import { listAudit } from "@/lib/db/audit";
 import { DomainError } from "@/lib/db/errors";
 import { MAX_SCENARIO_BYTES } from "@/lib/db/scenarioBody";
-import { closeDb, makeFixture, type Fixture } from "./support/fixtures";
+import { defaultScenario } from "@/lib/design/templates";
+import { closeDb, makeFixture, scenarioBody, type Fixture } from "./support/fixtures";
 
 // Runs against the real PostgreSQL migrated by the test command; each file works in its own throwaway team.
 let f: Fixture;
@@ -38,14 +39,15 @@ describe("revisions: save with optimistic concurrency", () => {
       scenarioId: f.scenarioId,
       baseRevisionId: f.revisionId,
       note: "Sense resistor to 0.5 Ω",
-      body: { schemaVersion: 0, template: "sink-npn", parts: { senseResistor: 0.5, baseResistor: 470 } },
+      body: scenarioBody({ senseResistor: 0.5, baseResistor: 470 }),
     });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
     expect(r.number).toBe(2);
     const first = await getRevision(f.viewer, f.revisionId);
-    expect(first.body).toEqual({ schemaVersion: 0, template: "sink-npn", parts: { senseResistor: 1, baseResistor: 470 } });
+    expect(first.body).toEqual(scenarioBody({ senseResistor: 1, baseResistor: 470 }));
     const second = await getRevision(f.viewer, r.revisionId);
+    expect((second.body as { parts: { senseResistor: number } }).parts.senseResistor).toBe(0.5);
     expect(second.parentId).toBe(f.revisionId);
     expect(second.note).toBe("Sense resistor to 0.5 Ω");
     const detail = await getScenarioDetail(f.viewer, f.scenarioId);
@@ -55,7 +57,7 @@ describe("revisions: save with optimistic concurrency", () => {
 
   it("refuses a save on a stale base and returns the current revision instead of overwriting", async () => {
     const before = await getScenarioDetail(f.lead, f.scenarioId);
-    const r = await saveRevision(f.lead, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "late", body: { schemaVersion: 0, x: 1 } });
+    const r = await saveRevision(f.lead, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "late", body: scenarioBody({ senseResistor: 2 }) });
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.conflict?.current.revisionId).toBe(before.revisionId);
@@ -71,17 +73,21 @@ describe("revisions: save with optimistic concurrency", () => {
   it("lets exactly one of two simultaneous saves on the same base win", async () => {
     const base = (await getScenarioDetail(f.designer, f.scenarioId)).revisionId!;
     const results = await Promise.all(
-      [1, 2].map((k) => saveRevision(k === 1 ? f.designer : f.lead, { scenarioId: f.scenarioId, baseRevisionId: base, note: `race ${k}`, body: { k } })),
+      [1, 2].map((k) => saveRevision(k === 1 ? f.designer : f.lead, { scenarioId: f.scenarioId, baseRevisionId: base, note: `race ${k}`, body: scenarioBody({ senseResistor: k }) })),
     );
     expect(results.filter((r) => r.ok)).toHaveLength(1);
     expect(results.filter((r) => !r.ok && r.conflict)).toHaveLength(1);
   });
 
-  it("refuses viewers, other teams, non-objects and bodies over the size limit", async () => {
-    await refused(saveRevision(f.viewer, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "", body: {} }), 403);
-    await refused(saveRevision(f.outsider, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "", body: {} }), 404);
+  it("refuses viewers, other teams, invalid scenarios and bodies over the size limit", async () => {
+    await refused(saveRevision(f.viewer, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "", body: scenarioBody() }), 403);
+    await refused(saveRevision(f.outsider, { scenarioId: f.scenarioId, baseRevisionId: f.revisionId, note: "", body: scenarioBody() }), 404);
     const base = (await getScenarioDetail(f.designer, f.scenarioId)).revisionId!;
     await refused(saveRevision(f.designer, { scenarioId: f.scenarioId, baseRevisionId: base, note: "", body: [1, 2] }), 400);
+    // The design layer's schema names the bad field.
+    const negative = saveRevision(f.designer, { scenarioId: f.scenarioId, baseRevisionId: base, note: "", body: scenarioBody({ senseResistor: -1 }) });
+    await refused(negative, 400);
+    await expect(saveRevision(f.designer, { scenarioId: f.scenarioId, baseRevisionId: base, note: "", body: scenarioBody({ senseResistor: -1 }) })).rejects.toThrow(/parts\.senseResistor/);
     await refused(saveRevision(f.designer, { scenarioId: f.scenarioId, baseRevisionId: base, note: "", body: { blob: "x".repeat(MAX_SCENARIO_BYTES) } }), 413);
   });
 });
@@ -93,6 +99,7 @@ describe("scenarios: table, create, fork, delete and restore", () => {
     expect(d.ownerId).toBe(f.designer.id);
     expect(d.revisionNumber).toBe(1);
     expect(d.template).toBe("sink-nmos");
+    expect(d.body).toEqual(defaultScenario("sink-nmos")); // the design layer's starting scenario
     await refused(createScenario(f.viewer, { title: "x", template: "sink-npn" }), 403);
   });
 

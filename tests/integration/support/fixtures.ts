@@ -9,6 +9,14 @@ import { db } from "@/lib/db/knex";
 import { hashPassword } from "@/lib/auth/password";
 import { SESSION_COOKIE, SESSION_TTL_S, sessionPassword } from "@/lib/auth/session-config";
 import type { CurrentUser, Role } from "@/lib/auth/roles";
+import { defaultScenario } from "@/lib/design/templates";
+import type { Parts, Scenario } from "@/lib/design/schema";
+
+/** A complete, valid scenario (the design layer's NPN-sink defaults) with some part values changed. */
+export function scenarioBody(parts: Partial<Parts> = {}): Scenario {
+  const s = defaultScenario("sink-npn");
+  return { ...s, parts: { ...s.parts, ...parts } };
+}
 
 export const FIXTURE_PASSWORD = "fixture-password-123";
 
@@ -56,7 +64,7 @@ export async function makeFixture(label: string): Promise<Fixture> {
       number: 1,
       author_id: designer.id,
       note: "first",
-      body: JSON.stringify({ schemaVersion: 0, template: "sink-npn", parts: { senseResistor: 1, baseResistor: 470 } }),
+      body: JSON.stringify(scenarioBody({ senseResistor: 1, baseResistor: 470 })),
     })
     .returning("*");
   await db()("scenarios").where({ id: s.id }).update({ current_revision_id: r.id });
