@@ -225,7 +225,7 @@ function WorkbenchInner(props: WorkbenchProps) {
     return () => window.removeEventListener("beforeunload", onBefore);
   }, [dirty, props.save]);
   return (
-    <div className="flex min-h-[calc(100vh-3rem)] flex-col" data-testid="workbench">
+    <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
       <Toolbar {...props} engine={engine} />
       <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_300px]">
         <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto md:pr-1">

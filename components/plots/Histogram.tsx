@@ -1,0 +1,51 @@
+"use client";
+/** A histogram drawn on a canvas from bin edges and counts (the design layer's `histogram`). */
+import { useEffect, useRef } from "react";
+import { formatEng } from "@/lib/units/eng";
+import { OKABE_ITO } from "./palette";
+
+export function Histogram({ edges, counts, label, unit, color = OKABE_ITO[0], height = 160, testId }: {
+  edges: ArrayLike<number>; counts: ArrayLike<number>; label: string; unit: string; color?: string; height?: number; testId?: string;
+}) {
+  const ref = useRef<HTMLCanvasElement>(null);
+  useEffect(() => {
+    const c = ref.current;
+    if (!c) return;
+    const width = Math.max(200, c.clientWidth);
+    const pr = window.devicePixelRatio || 1;
+    c.width = Math.round(width * pr);
+    c.height = Math.round(height * pr);
+    const ctx = c.getContext("2d");
+    if (!ctx) return;
+    ctx.setTransform(pr, 0, 0, pr, 0, 0);
+    ctx.clearRect(0, 0, width, height);
+    const n = counts.length;
+    if (n === 0 || edges.length !== n + 1) return;
+    let max = 0;
+    for (let i = 0; i < n; i++) max = Math.max(max, counts[i]!);
+    const L = 36, R = 8, T = 8, B = 30;
+    const w = width - L - R, h = height - T - B;
+    const lo = edges[0]!, hi = edges[n]!;
+    const X = (v: number) => L + (hi > lo ? ((v - lo) / (hi - lo)) * w : w / 2);
+    ctx.fillStyle = color;
+    for (let i = 0; i < n; i++) {
+      const bh = max > 0 ? (counts[i]! / max) * h : 0;
+      const x0 = X(edges[i]!), x1 = X(edges[i + 1]!);
+      ctx.fillRect(x0 + 0.5, T + h - bh, Math.max(1, x1 - x0 - 1), bh);
+    }
+    ctx.strokeStyle = "#E2DED5";
+    ctx.strokeRect(L, T, w, h);
+    ctx.fillStyle = "#5B6472";
+    ctx.font = '11px "Inter Variable", system-ui, sans-serif';
+    ctx.textAlign = "center";
+    for (let k = 0; k <= 4; k++) {
+      const v = lo + ((hi - lo) * k) / 4;
+      ctx.fillText(Math.abs(v) >= 1e-3 || v === 0 ? Number(v.toPrecision(3)).toString() : formatEng(v, ""), L + (w * k) / 4, T + h + 13);
+    }
+    ctx.fillText(`${label}${unit ? ` (${unit})` : ""}`, L + w / 2, height - 3);
+    ctx.textAlign = "right";
+    ctx.fillText(String(max), L - 4, T + 9);
+    ctx.fillText("0", L - 4, T + h);
+  }, [edges, counts, label, unit, color, height]);
+  return <canvas ref={ref} style={{ width: "100%", height }} role="img" aria-label={`Histogram of ${label}`} data-testid={testId} />;
+}
