@@ -79,10 +79,19 @@ export interface CompareOptions {
   tolerances?: Tolerances;
 }
 
-/** Automatic alignment: the shift that puts the measured 50 % crossing on the simulated one, s. */
+/**
+ * Automatic alignment: the shift that puts the measured 50 % crossing on the simulated one, s. With the simulated
+ * stimulus time given, the simulated levels are taken from the stimulus onwards (robust to adaptive time steps).
+ */
 export function alignmentOffset(measured: Waveform, simulated: Waveform, simulatedEdge?: number): number {
-  const simEdge = simulatedEdge ?? findStepEdge(simulated.time, simulated.values);
-  return simEdge - findStepEdge(measured.time, measured.values);
+  let simHalf: number;
+  if (simulatedEdge === undefined) simHalf = findStepEdge(simulated.time, simulated.values);
+  else {
+    const f = stepFigures(simulated.time, simulated.values, { edgeTime: simulatedEdge });
+    if (f.halfCrossing === null) throw new RangeError("the simulated response never reaches halfway to its final value");
+    simHalf = f.halfCrossing;
+  }
+  return simHalf - findStepEdge(measured.time, measured.values);
 }
 
 /** A copy of the measured time axis shifted by `offset`, s. */

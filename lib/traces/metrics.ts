@@ -16,8 +16,10 @@ export interface StepFigures {
   final: number;
   /** final − initial. */
   amplitude: number;
-  /** Time of the 50 % crossing, s: the step edge used for alignment. */
+  /** Time the figures are counted from, s: the given edge (stimulus), else the 50 % crossing. */
   edgeTime: number;
+  /** Time of the first 50 % crossing after the step starts, s (what alignment matches); null if never crossed. */
+  halfCrossing: number | null;
   /** 10 %–90 % rise time, s; null when the waveform never reaches 90 %. */
   riseTime: number | null;
   /** Peak overshoot beyond the final level, % of the amplitude (0 when there is none). */
@@ -195,5 +197,5 @@ export function stepFigures(time: Float64Array, values: Float64Array, options: S
     ringingHz = ringingFrequency(time, tail, peakIndex);
   }
 
-  return { initial, final, amplitude, edgeTime, riseTime, overshootPct, peakTime, settlingTime, ringingHz };
+  return { initial, final, amplitude, edgeTime, halfCrossing: c50 ? c50.t : null, riseTime, overshootPct, peakTime, settlingTime, ringingHz };
 }

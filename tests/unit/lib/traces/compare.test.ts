@@ -150,6 +150,19 @@ describe("alignment and comparison: a noisy, delayed, scaled capture of the same
     expect(c.verdict).toBe("pass");
   });
 
+  it("aligns 50 % crossing on 50 % crossing when the simulated stimulus time is given", () => {
+    // The stimulus is at t = 0 in the simulation; the 50 % crossing of the response comes later (bisection on §5a's
+    // closed form), and the capture is delayed by `delay`: the shift must be −delay, not the stimulus time.
+    const offset = alignmentOffset(measured, simulated, 0);
+    expect(Math.abs(offset + delay)).toBeLessThan(1e-6);
+    const c = compareStep(measured, simulated, { simulatedEdge: 0 });
+    expect(Math.abs(c.autoOffset + delay)).toBeLessThan(1e-6);
+    // Figures counted from the stimulus: peak time π/ωd = 100.6114863 µs (§5a) in both
+    expect(c.simulated.peakTime! * 1e6).toBeCloseTo(100.6114863, 0);
+    expect(Math.abs(c.measured.peakTime! - c.simulated.peakTime!)).toBeLessThan(3e-6);
+    expect(c.verdict).toBe("pass");
+  });
+
   it("a hand offset of 20 µs shows up as an RMS difference and moves the alignment", () => {
     const c = compareStep(measured, simulated, { manualOffset: 2e-5 });
     expect(c.offset - c.autoOffset).toBeCloseTo(2e-5, 12);
