@@ -8,6 +8,7 @@
  * ground land there and are ignored, so element code needs no branches for grounded terminals.
  */
 import type { SimTolerances } from "./schema";
+import { StaticLU } from "./sparse";
 
 export const MODE_DC = 0;
 export const MODE_TRAN = 1;
@@ -58,6 +59,8 @@ export abstract class Element {
   abstract load(c: Circuit): void;
   /** Stamp dq/dv at the operating point into `cap` (same positions as c.mat) for AC. */
   loadCap(_c: Circuit, _cap: Float64Array): void {}
+  /** Cache small-signal values at the operating point in c.x before an AC sweep (used by acCurrent). */
+  acPrepare(_c: Circuit): void {}
   /** Add this element's AC excitation to the right-hand side. */
   loadAc(_c: Circuit, _br: Float64Array, _bi: Float64Array): void {}
   /** Element current at c.x (positive from nodes[0] through the element to nodes[1]). */
@@ -85,6 +88,12 @@ export class Circuit {
   xNew: Float64Array;
   readonly piv: Int32Array;
   readonly diag: Int32Array;
+  /** structural non-zeros: every position requested through pos() */
+  readonly structure: Uint8Array;
+  /** the matrix before factorisation (restored when the pivot order must be recomputed) */
+  readonly matBackup: Float64Array;
+  /** LU with a reusable pivot order and fill pattern */
+  readonly lu: StaticLU;
   readonly unknownNames: string[];
   readonly userNodeNames: string[];
   readonly elements: Element[];
@@ -132,8 +141,10 @@ export class Circuit {
     this.x = new Float64Array(this.stride);
     this.xNew = new Float64Array(this.stride);
     this.piv = new Int32Array(this.stride);
+    this.structure = new Uint8Array(this.stride * this.stride);
+    this.matBackup = new Float64Array(this.stride * this.stride);
     this.diag = new Int32Array(this.numNodes);
-    for (let i = 0; i < this.numNodes; i++) this.diag[i] = i * this.stride + i;
+    for (let i = 0; i < this.numNodes; i++) this.diag[i] = this.pos(i, i);
     this.userNodeNames = b.nodeNames.slice();
     this.unknownNames = [
       ...b.nodeNames.map((s) => `node "${s}"`),
@@ -145,6 +156,7 @@ export class Circuit {
     // 2019 SI exact constants: k = 1.380649e-23 J/K, q = 1.602176634e-19 C.
     this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
     for (const el of elements) el.bind(this);
+    this.lu = new StaticLU(this.n, this.stride, this.structure);
     this.q0 = new Float64Array(this.nState);
     this.q1 = new Float64Array(this.nState);
     this.q2 = new Float64Array(this.nState);
@@ -163,7 +175,9 @@ export class Circuit {
   }
   /** Matrix position of (row, col). */
   pos(r: number, c: number): number {
-    return r * this.stride + c;
+    const p = r * this.stride + c;
+    this.structure[p] = 1;
+    return p;
   }
   /** Reserve `k` integration state slots; returns the first. */
   allocState(k: number): number {

@@ -5,7 +5,7 @@
  */
 import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
-import { luFactorComplex, luSolveComplex } from "../lu";
+import { LU_REORDER, StaticLU } from "../sparse";
 import type { AcResult, ComplexColumn } from "../results";
 import { runOp } from "./dc";
 import { checkBudget, loadAll } from "./newton";
@@ -25,35 +25,47 @@ export function runAc(c: Circuit, fStart: number, fStop: number, perDecade: numb
   const size = c.mat.length;
   const g = c.mat.slice(0, size);
   const cap = new Float64Array(size);
-  for (const el of c.elements) el.loadCap(c, cap);
+  for (const el of c.elements) { el.loadCap(c, cap); el.acPrepare(c); }
+  const els = c.elements;
+  const nEl = els.length;
+  const curRe: Float64Array[] = [], curIm: Float64Array[] = [];
+  const nodeRe: Float64Array[] = [], nodeIm: Float64Array[] = [];
   const freq = logFrequencies(fStart, fStop, perDecade);
   const count = freq.length;
   const nodes: Record<string, ComplexColumn> = {};
   const currents: Record<string, ComplexColumn> = {};
   for (const n of c.userNodeNames) nodes[n] = { re: new Float64Array(count), im: new Float64Array(count) };
   for (const el of c.elements) currents[el.name] = { re: new Float64Array(count), im: new Float64Array(count) };
+  for (const el of els) { curRe.push(currents[el.name].re); curIm.push(currents[el.name].im); }
+  for (const nm of c.userNodeNames) { nodeRe.push(nodes[nm].re); nodeIm.push(nodes[nm].im); }
+  const nUser = nodeRe.length;
+  // AC excitation does not depend on frequency
+  const exRe = new Float64Array(c.stride), exIm = new Float64Array(c.stride);
+  for (const el of els) el.loadAc(c, exRe, exIm);
   const re = new Float64Array(size), im = new Float64Array(size);
-  const br = new Float64Array(c.stride), bi = new Float64Array(c.stride);
   const out = new Float64Array(2);
+  const xr = new Float64Array(c.stride), xi = new Float64Array(c.stride);
   const n = c.n;
+  const lu = new StaticLU(n, c.stride, c.structure);
   for (let k = 0; k < count; k++) {
     const w = 2 * Math.PI * freq[k];
     re.set(g);
     for (let i = 0; i < size; i++) im[i] = w * cap[i];
-    br.fill(0); bi.fill(0);
-    for (const el of c.elements) el.loadAc(c, br, bi);
-    const bad = luFactorComplex(re, im, n, c.stride, c.piv);
-    if (bad >= 0) throw new SimError("singular", `Singular AC matrix at ${c.unknownNames[bad]} at ${freq[k].toPrecision(4)} Hz`);
-    luSolveComplex(re, im, n, c.stride, c.piv, br, bi);
-    br[n] = 0; bi[n] = 0;
-    for (let i = 0; i < c.userNodeNames.length; i++) {
-      const col = nodes[c.userNodeNames[i]];
-      col.re[k] = br[i]; col.im[k] = bi[i];
+    let r = lu.analysed ? lu.factorComplex(re, im) : LU_REORDER;
+    if (r === LU_REORDER) {
+      re.set(g);
+      for (let i = 0; i < size; i++) im[i] = w * cap[i];
+      const bad = lu.analyse(re, im);
+      if (bad >= 0) throw new SimError("singular", `Singular AC matrix at ${c.unknownNames[bad]} at ${freq[k].toPrecision(4)} Hz`);
+      r = lu.factorComplex(re, im);
+      if (r !== -1) throw new SimError("singular", `Singular AC matrix at ${freq[k].toPrecision(4)} Hz`);
     }
-    for (const el of c.elements) {
-      el.acCurrent(c, br, bi, w, out);
-      const col = currents[el.name];
-      col.re[k] = out[0]; col.im[k] = out[1];
+    lu.solveComplex(re, im, exRe, exIm, xr, xi);
+    xr[n] = 0; xi[n] = 0;
+    for (let i = 0; i < nUser; i++) { nodeRe[i][k] = xr[i]; nodeIm[i][k] = xi[i]; }
+    for (let e = 0; e < nEl; e++) {
+      els[e].acCurrent(c, xr, xi, w, out);
+      curRe[e][k] = out[0]; curIm[e][k] = out[1];
     }
     if ((k & 31) === 31) {
       checkBudget(c);

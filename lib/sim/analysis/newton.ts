@@ -5,7 +5,7 @@
  */
 import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
-import { luFactor, luSolve } from "../lu";
+import { LU_REORDER } from "../sparse";
 
 /** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
 let worstUnknown = -1;
@@ -30,20 +30,28 @@ export function loadAll(c: Circuit): void {
   }
 }
 
-/** Factor and solve c.mat·xNew = c.rhs; throws "singular" naming the unknown. */
+/** Factor and solve c.mat·out = c.rhs (c.mat is overwritten by its factors); throws "singular" naming the unknown. */
 export function solveInto(c: Circuit, out: Float64Array): void {
-  const n = c.n;
-  const bad = luFactor(c.mat, n, c.stride, c.piv);
-  if (bad >= 0) {
-    throw new SimError(
-      "singular",
-      `Singular circuit matrix at ${c.unknownNames[bad] ?? `unknown ${bad}`}: the circuit has no unique solution there ` +
-        `(check for a floating node, a loop of voltage sources, or a current source in series with nothing else)`,
-    );
+  const lu = c.lu;
+  c.matBackup.set(c.mat);
+  let r = lu.analysed ? lu.factor(c.mat) : LU_REORDER;
+  if (r === LU_REORDER) {
+    c.mat.set(c.matBackup);
+    const bad = lu.analyse(c.mat);
+    if (bad >= 0) throw singular(c, bad);
+    r = lu.factor(c.mat);
+    if (r !== -1) throw singular(c, r === LU_REORDER ? 0 : r);
   }
-  for (let i = 0; i < n; i++) out[i] = c.rhs[i];
-  luSolve(c.mat, n, c.stride, c.piv, out);
-  out[n] = 0;
+  lu.solve(c.mat, c.rhs, out);
+  out[c.n] = 0;
+}
+
+function singular(c: Circuit, k: number): SimError {
+  return new SimError(
+    "singular",
+    `Singular circuit matrix at ${c.unknownNames[k] ?? `unknown ${k}`}: the circuit has no unique solution there ` +
+      `(check for a floating node, a loop of voltage sources, or a current source in series with nothing else)`,
+  );
 }
 
 /**

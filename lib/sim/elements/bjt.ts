@@ -34,6 +34,8 @@ export function transportCurrents(vbe: number, vbc: number, m: Pick<BjtModel, "I
 }
 
 const dep = new Float64Array(2);
+const q4 = new Float64Array(4);
+const t3 = new Float64Array(3);
 
 export class Bjt extends Element {
   private readonly p: number;
@@ -165,7 +167,7 @@ export class Bjt extends Element {
   }
 
   override initState(c: Circuit): void {
-    const q = new Float64Array(4);
+    const q = q4;
     this.charges(c, q);
     c.q1[this.sBE] = q[0]; c.q1[this.sBC] = q[2];
     c.i1[this.sBE] = 0; c.i1[this.sBC] = 0;
@@ -174,14 +176,14 @@ export class Bjt extends Element {
   }
 
   override loadCap(c: Circuit, cap: Float64Array): void {
-    const q = new Float64Array(4);
+    const q = q4;
     this.charges(c, q);
     stampG(cap, this.pBB, this.pBE, this.pEB, this.pEE, q[1]);
     stampG(cap, this.pBB, this.pBC, this.pCB, this.pCC, q[3]);
   }
 
   /** terminal currents [ic into C, ib into B, ie out of E] at c.x (real polarity, capacitive currents included) */
-  private terminal(c: Circuit): [number, number, number] {
+  private terminal(c: Circuit): Float64Array {
     const vbe = this.p * (c.x[this.bi] - c.x[this.ei]);
     const vbc = this.p * (c.x[this.bi] - c.x[this.ci]);
     this.evaluate(vbe, vbc, c.vt, c.tol.gmin);
@@ -190,24 +192,29 @@ export class Bjt extends Element {
       const iBE = c.i0[this.sBE], iBC = c.i0[this.sBC];
       ic -= iBC; ib += iBE + iBC; ie += iBE;
     }
-    return [this.p * ic, this.p * ib, this.p * ie];
+    t3[0] = this.p * ic; t3[1] = this.p * ib; t3[2] = this.p * ie;
+    return t3;
   }
 
   /** The element's current: collector current (into the collector terminal). */
   override current(c: Circuit): number { return this.terminal(c)[0]; }
 
-  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
-    const q = new Float64Array(4);
-    this.charges(c, q); // also evaluates the small-signal conductances at the OP
+  private acGm = 0; private acGc = 0; private acCbc = 0;
+  override acPrepare(c: Circuit): void {
+    this.charges(c, q4); // also evaluates the small-signal conductances at the OP
+    this.acGm = this.gmBE; this.acGc = this.gcBC; this.acCbc = q4[3];
+  }
+  override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
     const vbeR = xr[this.bi] - xr[this.ei], vbeI = xi[this.bi] - xi[this.ei];
     const vbcR = xr[this.bi] - xr[this.ci], vbcI = xi[this.bi] - xi[this.ci];
     // ic = gm·vbe + gc·vbc − jωCbc·vbc
-    out[0] = this.gmBE * vbeR + this.gcBC * vbcR + w * q[3] * vbcI;
-    out[1] = this.gmBE * vbeI + this.gcBC * vbcI - w * q[3] * vbcR;
+    out[0] = this.acGm * vbeR + this.acGc * vbcR + w * this.acCbc * vbcI;
+    out[1] = this.acGm * vbeI + this.acGc * vbcI - w * this.acCbc * vbcR;
   }
 
   override info(c: Circuit): DeviceInfo {
-    const [ic, ib, ie] = this.terminal(c);
+    const t = this.terminal(c);
+    const ic = t[0], ib = t[1], ie = t[2];
     const vbe = c.x[this.b] - c.x[this.e];
     const vce = c.x[this.c] - c.x[this.e];
     const vbeN = this.p * (c.x[this.bi] - c.x[this.ei]);

@@ -99,12 +99,17 @@ export class Diode extends Element {
     const i = this.iv(c.x[this.ai] - c.x[this.k], c.tol.gmin);
     return c.mode === MODE_TRAN ? i + c.i0[this.s] : i;
   }
-  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
+  private acG = 0;
+  private acC = 0;
+  override acPrepare(c: Circuit): void {
     const vd = c.x[this.ai] - c.x[this.k];
     this.iv(vd, c.tol.gmin);
-    const g = scratch[1];
+    this.acG = scratch[1];
     depletion(vd, this.model.Cj0, this.model.Vj, this.model.m, scratch);
-    const C = scratch[1] + (this.model.tau * this.model.Is * expLimSlope(vd / this.nvt)) / this.nvt;
+    this.acC = scratch[1] + (this.model.tau * this.model.Is * expLimSlope(vd / this.nvt)) / this.nvt;
+  }
+  override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
+    const g = this.acG, C = this.acC;
     const vr = xr[this.ai] - xr[this.k];
     const vi = xi[this.ai] - xi[this.k];
     out[0] = g * vr - w * C * vi;

@@ -264,8 +264,10 @@ export class Switch extends TwoTerminal {
     stampG(c.mat, this.paa, this.pab, this.pba, this.pbb, this.conductance(c.time));
   }
   override current(c: Circuit): number { return this.v(c) * this.conductance(c.time); }
-  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
-    const g = this.conductance(c.time);
+  private acG = 0;
+  override acPrepare(c: Circuit): void { this.acG = this.conductance(c.time); }
+  override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
+    const g = this.acG;
     out[0] = (xr[this.a] - xr[this.b]) * g;
     out[1] = (xi[this.a] - xi[this.b]) * g;
   }

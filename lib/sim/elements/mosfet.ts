@@ -117,9 +117,11 @@ export class Mosfet extends Element {
     if (c.mode === MODE_TRAN) i -= c.i0[this.st + 1];
     return i;
   }
-  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
+  override acPrepare(c: Circuit): void {
     const p = this.p;
     this.evaluate(p * (c.x[this.g] - c.x[this.s]), p * (c.x[this.d] - c.x[this.s]));
+  }
+  override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
     const vgsR = xr[this.g] - xr[this.s], vgsI = xi[this.g] - xi[this.s];
     const vdsR = xr[this.d] - xr[this.s], vdsI = xi[this.d] - xi[this.s];
     const vgdR = xr[this.g] - xr[this.d], vgdI = xi[this.g] - xi[this.d];

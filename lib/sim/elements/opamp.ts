@@ -181,9 +181,13 @@ export class Opamp extends Element {
   override current(c: Circuit): number {
     return this.ideal ? -c.x[this.k] : this.ioutOf(c.x[this.src] - c.x[this.out]);
   }
-  override acCurrent(c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
+  private acG = 0;
+  override acPrepare(c: Circuit): void {
+    if (!this.ideal) this.acG = this.ioutSlope(c.x[this.src] - c.x[this.out]);
+  }
+  override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
     if (this.ideal) { out[0] = -xr[this.k]; out[1] = -xi[this.k]; return; }
-    const g = this.ioutSlope(c.x[this.src] - c.x[this.out]);
+    const g = this.acG;
     out[0] = g * (xr[this.src] - xr[this.out]);
     out[1] = g * (xi[this.src] - xi[this.out]);
   }

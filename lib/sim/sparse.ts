@@ -1,0 +1,202 @@
+/**
+ * LU with a pivot order and fill pattern computed once, then reused: the classic circuit-simulator split of
+ * "ordering + symbolic factorisation" from "numeric factorisation" (K. S. Kundert, "Sparse matrix techniques", in
+ * Circuit Analysis, Simulation and Design, A. E. Ruehli ed., North-Holland 1986; Vlach & Singhal 1994, ch. on sparse
+ * matrices). The order comes from Gaussian elimination with partial pivoting on an actual matrix (Golub & Van Loan
+ * §3.4); every later numeric factorisation walks only the structurally non-zero positions (stamps + fill-in) and
+ * allocates nothing. When a reused pivot turns out small (a multiplier above GROWTH, the threshold-pivoting test),
+ * the caller re-analyses with the current values.
+ *
+ * Storage is the circuit's row-major (n+1)×(n+1) array: rows are never moved; `rowOf[k]` says which stored row is
+ * the k-th pivot row.
+ */
+import { luFactor, luFactorComplex, SINGULAR_PIVOT } from "./lu";
+
+/** Largest multiplier accepted before asking for a new pivot order (threshold pivoting, u = 1e-4). */
+const GROWTH = 1e4;
+
+export const LU_OK = -1;
+/** factor() result: the reused order is numerically poor at this matrix; call analyse() and factor again. */
+export const LU_REORDER = -2;
+
+export class StaticLU {
+  readonly n: number;
+  readonly stride: number;
+  /** structural non-zeros (every position an element stamps), row-major */
+  readonly structure: Uint8Array;
+  analysed = false;
+  reorders = 0;
+  private rowOf: Int32Array;
+  private base: Int32Array;
+  private lStart = new Int32Array(0);
+  private lRows = new Int32Array(0);
+  private uStart = new Int32Array(0);
+  private uCols = new Int32Array(0);
+  private scratch: Float64Array;
+  private scratchIm: Float64Array;
+  private piv: Int32Array;
+  private y: Float64Array;
+  private yi: Float64Array;
+
+  constructor(n: number, stride: number, structure: Uint8Array) {
+    this.n = n;
+    this.stride = stride;
+    this.structure = structure;
+    this.rowOf = new Int32Array(n);
+    this.base = new Int32Array(n);
+    this.scratch = new Float64Array(stride * stride);
+    this.scratchIm = new Float64Array(stride * stride);
+    this.piv = new Int32Array(stride);
+    this.y = new Float64Array(stride);
+    this.yi = new Float64Array(stride);
+  }
+
+  /**
+   * Choose the pivot order from the values in `a` (and `im` for a complex matrix) by partial pivoting, then compute
+   * the fill pattern. Returns -1, or the column where `a` is singular.
+   */
+  analyse(a: Float64Array, im?: Float64Array): number {
+    const { n, stride } = this;
+    this.scratch.set(a);
+    let bad: number;
+    if (im) {
+      this.scratchIm.set(im);
+      bad = luFactorComplex(this.scratch, this.scratchIm, n, stride, this.piv);
+    } else {
+      bad = luFactor(this.scratch, n, stride, this.piv);
+    }
+    if (bad >= 0) return bad;
+    const rowOf = this.rowOf;
+    for (let k = 0; k < n; k++) rowOf[k] = k;
+    for (let k = 0; k < n; k++) {
+      const p = this.piv[k];
+      if (p !== k) { const t = rowOf[k]; rowOf[k] = rowOf[p]; rowOf[p] = t; }
+    }
+    for (let k = 0; k < n; k++) this.base[k] = rowOf[k] * stride;
+    // symbolic elimination on the permuted structure (dense boolean, n is small)
+    const s = new Uint8Array(n * n);
+    for (let k = 0; k < n; k++) for (let j = 0; j < n; j++) s[k * n + j] = this.structure[rowOf[k] * stride + j];
+    for (let k = 0; k < n; k++) s[k * n + k] = 1;
+    const lStart = new Int32Array(n + 1), uStart = new Int32Array(n + 1);
+    const lRows: number[] = [], uCols: number[] = [];
+    for (let k = 0; k < n; k++) {
+      lStart[k] = lRows.length;
+      uStart[k] = uCols.length;
+      for (let j = k + 1; j < n; j++) if (s[k * n + j]) uCols.push(j);
+      for (let i = k + 1; i < n; i++) {
+        if (!s[i * n + k]) continue;
+        lRows.push(i);
+        for (let q = uStart[k]; q < uCols.length; q++) s[i * n + uCols[q]] = 1;
+      }
+    }
+    lStart[n] = lRows.length;
+    uStart[n] = uCols.length;
+    this.lStart = lStart; this.uStart = uStart;
+    this.lRows = Int32Array.from(lRows); this.uCols = Int32Array.from(uCols);
+    this.analysed = true;
+    this.reorders++;
+    return -1;
+  }
+
+  /** Number of stored non-zeros of L + U (for the benchmark). */
+  get factorNonZeros(): number { return this.n + this.lRows.length + this.uCols.length; }
+
+  /** Numeric factorisation in place with the stored order. Returns LU_OK, LU_REORDER, or a singular column. */
+  factor(a: Float64Array): number {
+    const { n, base, lStart, lRows, uStart, uCols } = this;
+    for (let k = 0; k < n; k++) {
+      const bk = base[k];
+      const d = a[bk + k];
+      if (!(Math.abs(d) > SINGULAR_PIVOT)) return LU_REORDER;
+      const inv = 1 / d;
+      const u0 = uStart[k], u1 = uStart[k + 1];
+      for (let p = lStart[k], pe = lStart[k + 1]; p < pe; p++) {
+        const bi = base[lRows[p]];
+        const m = a[bi + k];
+        if (m === 0) continue;
+        const l = m * inv;
+        if (l > GROWTH || l < -GROWTH) return LU_REORDER;
+        a[bi + k] = l;
+        for (let q = u0; q < u1; q++) { const j = uCols[q]; a[bi + j] -= l * a[bk + j]; }
+      }
+    }
+    return LU_OK;
+  }
+
+  /** Solve after factor(): x (length ≥ n) receives the solution of A·x = b. b is not modified. */
+  solve(a: Float64Array, b: Float64Array, x: Float64Array): void {
+    const { n, base, rowOf, lStart, lRows, uStart, uCols } = this;
+    const y = this.y;
+    for (let k = 0; k < n; k++) y[k] = b[rowOf[k]];
+    for (let k = 0; k < n; k++) {
+      const yk = y[k];
+      if (yk === 0) continue;
+      for (let p = lStart[k], pe = lStart[k + 1]; p < pe; p++) { const i = lRows[p]; y[i] -= a[base[i] + k] * yk; }
+    }
+    for (let k = n - 1; k >= 0; k--) {
+      const bk = base[k];
+      let s = y[k];
+      for (let q = uStart[k], qe = uStart[k + 1]; q < qe; q++) { const j = uCols[q]; s -= a[bk + j] * x[j]; }
+      x[k] = s / a[bk + k];
+    }
+  }
+
+  /** Complex numeric factorisation (split storage) with the stored order. */
+  factorComplex(re: Float64Array, im: Float64Array): number {
+    const { n, base, lStart, lRows, uStart, uCols } = this;
+    for (let k = 0; k < n; k++) {
+      const bk = base[k];
+      const dr = re[bk + k], di = im[bk + k];
+      const den = dr * dr + di * di;
+      if (!(den > SINGULAR_PIVOT)) return LU_REORDER;
+      const ir = dr / den, ii = -di / den;
+      const u0 = uStart[k], u1 = uStart[k + 1];
+      for (let p = lStart[k], pe = lStart[k + 1]; p < pe; p++) {
+        const bi = base[lRows[p]];
+        const mr = re[bi + k], mi = im[bi + k];
+        if (mr === 0 && mi === 0) continue;
+        const lr = mr * ir - mi * ii, li = mr * ii + mi * ir;
+        if (Math.abs(lr) + Math.abs(li) > GROWTH) return LU_REORDER;
+        re[bi + k] = lr; im[bi + k] = li;
+        for (let q = u0; q < u1; q++) {
+          const j = uCols[q];
+          const ur = re[bk + j], ui = im[bk + j];
+          re[bi + j] -= lr * ur - li * ui;
+          im[bi + j] -= lr * ui + li * ur;
+        }
+      }
+    }
+    return LU_OK;
+  }
+
+  solveComplex(re: Float64Array, im: Float64Array, br: Float64Array, bi: Float64Array, xr: Float64Array, xi: Float64Array): void {
+    const { n, base, rowOf, lStart, lRows, uStart, uCols } = this;
+    const y = this.y, yi = this.yi;
+    for (let k = 0; k < n; k++) { y[k] = br[rowOf[k]]; yi[k] = bi[rowOf[k]]; }
+    for (let k = 0; k < n; k++) {
+      const yr = y[k], yim = yi[k];
+      if (yr === 0 && yim === 0) continue;
+      for (let p = lStart[k], pe = lStart[k + 1]; p < pe; p++) {
+        const i = lRows[p];
+        const pos = base[i] + k;
+        const lr = re[pos], li = im[pos];
+        y[i] -= lr * yr - li * yim;
+        yi[i] -= lr * yim + li * yr;
+      }
+    }
+    for (let k = n - 1; k >= 0; k--) {
+      const bk = base[k];
+      let sr = y[k], si = yi[k];
+      for (let q = uStart[k], qe = uStart[k + 1]; q < qe; q++) {
+        const j = uCols[q];
+        const ur = re[bk + j], ui = im[bk + j];
+        sr -= ur * xr[j] - ui * xi[j];
+        si -= ur * xi[j] + ui * xr[j];
+      }
+      const dr = re[bk + k], di = im[bk + k];
+      const den = dr * dr + di * di;
+      xr[k] = (sr * dr + si * di) / den;
+      xi[k] = (si * dr - sr * di) / den;
+    }
+  }
+}
