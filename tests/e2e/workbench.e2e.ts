@@ -1,0 +1,118 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { BASE_URL, launch, watchErrors } from "./browser";
+import { signIn } from "./auth";
+
+/**
+ * The workbench in Chromium against the production build: the valve-coil demo re-simulates on an edit, a sweep draws
+ * one curve per value, a long map can be cancelled, and a bad value is refused in place.
+ * What is checked is behaviour the page must show (readouts change, counts match the settings), not fixed numbers:
+ * the numbers themselves are the engine's and design layer's, tested against their references there.
+ */
+describe("workbench", () => {
+  let browser: Browser;
+  let page: Page;
+  let errors: string[];
+
+  beforeAll(async () => {
+    browser = await launch();
+    page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    errors = watchErrors(page);
+    await signIn(page, "designer");
+    await page.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
+    await page.getByRole("link", { name: "Valve coil driver" }).first().click();
+    await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+    await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  const text = async (testId: string) => (await page.getByTestId(testId).textContent())?.trim() ?? "";
+
+  it("re-simulates when the compensation capacitor is typed in: phase margin and overshoot change", async () => {
+    const field = page.locator("#field-parts-compCapacitor");
+    const before = await field.inputValue();
+    const pm0 = await text("metric-phase-margin-value");
+    const os0 = await text("metric-overshoot-value");
+    expect(pm0).toMatch(/°|no crossover/);
+    // A value far from the demo's: ×47 or more in capacitance moves the loop's crossover a long way.
+    const next = before === "4.7n" ? "100p" : "4.7n";
+    await field.fill(next);
+    await field.press("Enter");
+    await page.waitForFunction(
+      ([a, b]) =>
+        document.querySelector('[data-testid="metric-phase-margin-value"]')?.textContent?.trim() !== a &&
+        document.querySelector('[data-testid="metric-overshoot-value"]')?.textContent?.trim() !== b,
+      [pm0, os0],
+      { timeout: 30_000 },
+    );
+    expect(await text("metric-phase-margin-value")).not.toBe(pm0);
+    expect(await text("metric-overshoot-value")).not.toBe(os0);
+    expect(await text("dirty-indicator")).toContain("Unsaved changes");
+    // The schematic shows the new value too.
+    expect(await page.getByTestId("schematic-compCapacitor").textContent()).toContain(next === "4.7n" ? "4.70 nF" : "100 pF");
+
+    // Undo and redo move the value back and forth.
+    await page.getByTestId("undo").click();
+    await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(before);
+    await page.getByTestId("redo").click();
+    await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(next);
+  });
+
+  it("marks a value that is not a number in place, with the reason, and does not apply it", async () => {
+    const field = page.locator("#field-parts-baseResistor");
+    const before = await field.inputValue();
+    const schematicBefore = await page.getByTestId("schematic-baseResistor").textContent();
+    await field.fill("abc");
+    await field.press("Enter");
+    const row = page.getByTestId("field-parts-baseResistor");
+    const err = row.getByTestId("field-error");
+    await err.waitFor();
+    expect(await err.textContent()).toContain('"abc" is not a number');
+    expect(await field.getAttribute("aria-invalid")).toBe("true");
+    expect(await page.getByTestId("schematic-baseResistor").textContent()).toBe(schematicBefore);
+    // Escape restores the applied value.
+    await field.press("Escape");
+    await expect.poll(() => field.inputValue()).toBe(before);
+  });
+
+  it("runs a 1D sweep and draws one curve per value", async () => {
+    await page.getByTestId("studies-toggle").click();
+    await page.getByTestId("studies-tab-sweep").click();
+    const points = page.locator("#field-studies-sweep-points");
+    await points.fill("5");
+    await points.press("Enter");
+    await page.getByTestId("sweep-run").click();
+    await page.locator('[data-testid="study-status-sweep"][data-status="done"]').waitFor({ timeout: 120_000 });
+    expect(await page.getByTestId("sweep-curve").count()).toBe(5);
+    expect(await text("study-status-sweep")).toContain("Done: 5 of 5");
+  });
+
+  it("starts a long 2D map and cancels it: progress stops short of the end", async () => {
+    await page.getByTestId("studies-tab-map").click();
+    for (const axis of ["x", "y"]) {
+      const f = page.locator(`#field-studies-map-${axis}-points`);
+      await f.fill("40");
+      await f.press("Enter");
+    }
+    await page.locator("#map-metric").selectOption("overshootPct");
+    await page.getByTestId("map-run").click();
+    const status = page.getByTestId("study-status-map");
+    await page.locator('[data-testid="study-status-map"][data-status="running"]').waitFor({ timeout: 30_000 });
+    await expect.poll(async () => Number(await page.getByTestId("study-progress-map").getAttribute("value")), { timeout: 60_000 }).toBeGreaterThan(0);
+    await page.getByTestId("study-cancel-map").click();
+    await page.locator('[data-testid="study-status-map"][data-status="cancelled"]').waitFor({ timeout: 10_000 });
+    const done = Number(await page.getByTestId("study-progress-map").getAttribute("value"));
+    expect(done).toBeGreaterThan(0);
+    expect(done).toBeLessThan(1600);
+    await page.waitForTimeout(1_000);
+    expect(Number(await page.getByTestId("study-progress-map").getAttribute("value"))).toBe(done);
+    expect(await status.textContent()).toContain("Cancelled");
+  });
+
+  it("ran without page errors", () => {
+    expect(errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
+  });
+});
