@@ -195,7 +195,8 @@ export interface MapResult {
 
 /** Evaluate one metric for one scenario (PM from the loop gain; overshoot and settling from the step). */
 export function evaluateMetric(s: Scenario, metric: MapMetric, opts: StudyOptions = {}): number {
-  if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts)).phaseMarginDeg ?? NaN;
+  // 10 points per decade locate the crossover well enough for a map (the margin is interpolated).
+  if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg ?? NaN;
   const m = runStep(s, engineOptions(opts)).metrics;
   return metric === "overshootPct" ? m.overshootPct : m.settlingTime1pct ?? NaN;
 }
@@ -297,7 +298,7 @@ export function spread(s: Scenario, settings: { runs: number; seed: number }, op
     try {
       const { summary } = runOperatingPoint(scenario, engineOptions(opts));
       out.errorPctFs[i] = ((Math.abs(summary.iLoad) - Math.abs(nominalIdeal)) / fs) * 100;
-      out.phaseMarginDeg[i] = runLoopGain(scenario, engineOptions(opts)).phaseMarginDeg ?? NaN;
+      out.phaseMarginDeg[i] = runLoopGain(scenario, engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg ?? NaN;
     } catch (e) {
       failure(e, i, out.failures);
     }
