@@ -150,8 +150,12 @@ describe("accounts journey: save, share, open, comment", () => {
     await visitor.goto(url.replace(/^https?:\/\/[^/]+/, BASE_URL), { waitUntil: "load" });
     await visitor.getByRole("heading", { name: /Valve coil driver/ }).waitFor();
 
-    await page.getByRole("button", { name: "Revoke" }).first().click();
-    await page.getByText(/Revision \d+ · revoked/).first().waitFor();
+    // Newest link first: revoke it and wait for the server to confirm.
+    const [revoked] = await Promise.all([
+      page.waitForResponse((r) => r.request().method() === "DELETE" && r.url().includes("/share-links?id=")),
+      page.getByRole("button", { name: "Revoke" }).first().click(),
+    ]);
+    expect(revoked.status()).toBe(204);
     await visitor.reload({ waitUntil: "load" });
     await visitor.getByText("This link has been revoked").waitFor();
     await anon.close();
