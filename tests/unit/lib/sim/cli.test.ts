@@ -90,6 +90,24 @@ describe("headless CLI (lib/sim/cli.ts)", () => {
     expect(err).toContain("gmin stepping");
     expect(err).toContain("source stepping");
   });
+  it("--analysis replaces the file's analysis (the reference sink answers op, dcsweep, ac and tran)", async () => {
+    const sink = "lib/sim/examples/reference-sink.json";
+    for (const a of [
+      { kind: "op" },
+      { kind: "dcsweep", source: "Vcmd", from: 0, to: 5, points: 6 },
+      { kind: "ac", fStart: 10, fStop: 1e7, pointsPerDecade: 5 },
+    ]) {
+      out = "";
+      expect(await main([sink, "--analysis", JSON.stringify(a)])).toBe(0);
+      expect(JSON.parse(out).kind).toBe(a.kind);
+    }
+    out = "";
+    expect(await main([sink])).toBe(0);
+    const tran = JSON.parse(out);
+    expect(tran.kind).toBe("tran");
+    expect(tran.time[tran.time.length - 1]).toBe(2e-3);
+    expect(await main([sink, "--analysis", "{oops"])).toBe(2);
+  });
   it("usage error without a file", async () => {
     expect(await main([])).toBe(1);
     expect(err).toContain("usage");
