@@ -35,31 +35,34 @@ export function loopView(s: Scenario, budgetMs = LIVE_BUDGET_MS): LoopView {
   };
 }
 
-/**
- * The live run. The step response and loop gain are the core: if either fails the whole run fails with the
- * engine's message (the page keeps the last good result). Closed loop, output impedance and the operating point
- * may fail alone; their messages travel in `failures`.
- */
-export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
+/** The step half of a live run: its failure fails the run (the page keeps the last good result). */
+export function liveStep(json: unknown, budgetMs = LIVE_BUDGET_MS): StepView {
   const s = upgradeScenario(json);
-  const failures: LiveResult["failures"] = [];
-  let op: OperatingPointResult | null = null;
   try {
-    op = runOperatingPoint(s, { timeBudgetMs: budgetMs }).op;
-  } catch (e) {
-    failures.push({ analysis: "Operating point", message: message(e) });
-  }
-  let step: StepView;
-  try {
-    step = stepView(s, budgetMs);
+    return stepView(s, budgetMs);
   } catch (e) {
     throw new Error(`Step response: ${message(e)}`);
   }
+}
+
+/**
+ * The other half: loop gain (its failure fails the run), then closed loop, output impedance and the operating point,
+ * which may fail alone — their messages travel in `failures` — and the checks.
+ */
+export function liveRest(json: unknown, budgetMs = LIVE_BUDGET_MS): Omit<LiveResult, "step"> {
+  const s = upgradeScenario(json);
+  const failures: LiveResult["failures"] = [];
   let loop: LoopView;
   try {
     loop = loopView(s, budgetMs);
   } catch (e) {
     throw new Error(`Loop gain: ${message(e)}`);
+  }
+  let op: OperatingPointResult | null = null;
+  try {
+    op = runOperatingPoint(s, { timeBudgetMs: budgetMs }).op;
+  } catch (e) {
+    failures.push({ analysis: "Operating point", message: message(e) });
   }
   let closed: LiveResult["closed"] = null;
   try {
@@ -78,13 +81,19 @@ export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
   const acc = checks.checks.find((c) => c.id === "accuracy");
   const diss = checks.checks.find((c) => c.id === "dissipation");
   return {
-    step, loop, closed, zout, op,
+    loop, closed, zout, op,
     checks: checks.checks,
     cautions: checks.cautions,
     fullScaleErrorPct: acc ? acc.value : null,
     worstDissipationW: diss ? diss.value : null,
     failures,
   };
+}
+
+/** The whole live run in one thread (the page runs the two halves on two workers at once). */
+export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
+  const step = liveStep(json, budgetMs);
+  return { step, ...liveRest(json, budgetMs) };
 }
 
 /** Every distinct ArrayBuffer under `value` (typed arrays in objects and arrays), for comlink's transfer list. */

@@ -7,7 +7,7 @@ import { expose, transfer } from "comlink";
 import type { Scenario, SweepAxis } from "@/lib/design/schema";
 import type { CompensateScanRow, CompensateSettings, MapMetric } from "@/lib/design/studies";
 import { upgradeScenario } from "@/lib/design/upgrade";
-import { collectBuffers, compensatePick, compensateScan, liveRun, map2d, spread, sweep1d } from "./jobs";
+import { collectBuffers, compensatePick, compensateScan, liveRest, liveRun, liveStep, map2d, spread, sweep1d } from "./jobs";
 
 /** Engine budget of one study run, ms. */
 const STUDY_RUN_BUDGET_MS = 20_000;
@@ -20,6 +20,14 @@ const api = {
   /** Everything the workbench shows for one scenario: OP, step, loop gain, closed loop, Zout, checks. */
   live(scenario: unknown) {
     return moved(liveRun(scenario));
+  },
+  /** The step response alone (run beside `liveRest` on a second worker). */
+  liveStep(scenario: unknown) {
+    return moved(liveStep(scenario));
+  },
+  /** Loop gain, closed loop, output impedance, operating point and checks. */
+  liveRest(scenario: unknown) {
+    return moved(liveRest(scenario));
   },
   /** Points [start, end) of a 1D sweep. */
   sweep(scenario: Scenario, axis: SweepAxis, start: number, end: number) {

@@ -17,14 +17,23 @@ export function useEngine(): Engine | null {
   const store = useWbStore();
   const [engine, setEngine] = useState<Engine | null>(null);
   useEffect(() => {
+    // Two live workers: the step response and the rest (loop gain first) run at once on two cores.
     const bridge = new WorkerBridge<SimWorkerApi>(createSimWorker);
+    const stepBridge = new WorkerBridge<SimWorkerApi>(createSimWorker);
     const pool = new WorkerPool<SimWorkerApi>(createSimWorker, poolSize(navigator.hardwareConcurrency), 15_000);
-    const runner = new LiveRunner(store, (signal, scenario) => bridge.run(signal, (api) => api.live(scenario)));
+    const runner = new LiveRunner(store, async (signal, scenario) => {
+      const [step, rest] = await Promise.all([
+        stepBridge.run(signal, (api) => api.liveStep(scenario)),
+        bridge.run(signal, (api) => api.liveRest(scenario)),
+      ]);
+      return { step, ...rest };
+    });
     runner.start();
     setEngine({ bridge, pool });
     return () => {
       runner.dispose();
       bridge.terminate();
+      stepBridge.terminate();
       pool.terminate();
     };
   }, [store]);

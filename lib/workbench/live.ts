@@ -7,7 +7,7 @@ import type { StoreApi } from "zustand/vanilla";
 import { isAbortError } from "./bridge";
 import type { WorkbenchState } from "./store";
 
-/** Debounce between an edit and its run, ms. */
+/** Debounce between a dragged (coalesced) edit and its run, ms; discrete edits run on the next tick. */
 export const LIVE_DEBOUNCE_MS = 60;
 /** A superseded run older than this is killed rather than waited for, ms. */
 export const STALE_KILL_MS = 200;
@@ -51,17 +51,18 @@ export class LiveRunner<S, R, T extends Record<string, unknown>> {
   start(): void {
     if (this.unsubscribe) return;
     this.unsubscribe = this.store.subscribe((st, prev) => {
-      if (st.scenario !== prev.scenario) this.schedule();
+      // A drag (coalesced edits) waits out the debounce; a discrete edit (Enter, a choice, undo) runs at once.
+      if (st.scenario !== prev.scenario) this.schedule(st.lastEdit === null ? 0 : this.debounceMs);
     });
     void this.runNow();
   }
 
-  schedule(): void {
+  schedule(delayMs = this.debounceMs): void {
     if (this.timer) clearTimeout(this.timer);
     this.timer = setTimeout(() => {
       this.timer = null;
       void this.runNow();
-    }, this.debounceMs);
+    }, delayMs);
   }
 
   async runNow(): Promise<void> {
