@@ -48,19 +48,18 @@ describe("accounts journey: save, share, open, comment", () => {
     await designer.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/);
     const scenarioId = new URL(designer.url()).pathname.split("/")[2]!;
 
-    // Saved through the revision form on the history page (the workbench saves through the same server action).
-    await designer.goto(`${BASE_URL}/scenarios/${scenarioId}/history`, { waitUntil: "load" });
-    const body = designer.getByLabel("Scenario (JSON)");
-    const current = JSON.parse(await body.inputValue()) as Record<string, unknown>;
-    const tuned = { ...current, parts: { ...((current.parts as object) ?? {}), senseResistor: 0.47, compCapacitor: 2.2e-9 } };
-    await body.fill(JSON.stringify(tuned, null, 2));
-    await designer.getByLabel("Note").fill("Sense resistor 0.47 Ω, 2.2 nF compensation");
-    await designer.getByRole("button", { name: "Save revision" }).click();
-    await designer.getByRole("status").getByText("Saved as revision 2.").waitFor();
+    // The workbench: tune the sense resistor, then save with a note.
+    const sense = designer.getByLabel("Sense resistor", { exact: true });
+    await sense.fill("470m");
+    await sense.press("Enter");
+    await designer.getByTestId("save-open").click();
+    await designer.getByTestId("save-note").fill("Sense resistor to 0.47 Ω");
+    await designer.getByTestId("save-submit").click();
+    await designer.getByRole("status").getByText("Saved as revision 2").waitFor();
 
+    await designer.goto(`${BASE_URL}/scenarios/${scenarioId}/history`, { waitUntil: "load" });
     // The history lists it with its note, and the diff shows the part values that changed.
-    await designer.reload({ waitUntil: "load" });
-    await designer.getByRole("cell", { name: "Sense resistor 0.47 Ω, 2.2 nF compensation" }).waitFor();
+    await designer.getByRole("cell", { name: "Sense resistor to 0.47 Ω" }).waitFor();
     const diff = designer.getByTestId("diff");
     await diff.getByText("parts.senseResistor").waitFor();
     expect(await diff.textContent()).toContain("470 mΩ");
@@ -83,7 +82,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await signIn(viewer, "viewer");
     await viewer.goto(link, { waitUntil: "load" });
     await viewer.getByRole("heading", { name: new RegExp(`${title}.*revision 2`) }).waitFor();
-    await viewer.getByText("“Sense resistor 0.47 Ω, 2.2 nF compensation”").waitFor();
+    await viewer.getByText("“Sense resistor to 0.47 Ω”").waitFor();
     const parts = viewer.getByRole("region", { name: "Part values" });
     expect(await parts.textContent()).toContain("470 mΩ");
     // Read-only for a viewer: no fork, no save.
@@ -97,6 +96,46 @@ describe("accounts journey: save, share, open, comment", () => {
     expect(await comments.textContent()).toContain("on revision 2");
     expect(viewerErrors).toEqual([]);
     await viewerCtx.close();
+  });
+
+  it("the revision form refuses a save on a stale revision and shows both versions", async () => {
+    const designerCtx = await context(browser);
+    const leadCtx = await context(browser);
+    const designer = await designerCtx.newPage();
+    const lead = await leadCtx.newPage();
+    await signIn(designer, "designer");
+    await signIn(lead, "lead");
+    const title = `Cell-test spare ${Date.now()}`;
+    await designer.getByLabel("Title", { exact: true }).fill(title);
+    await designer.getByRole("button", { name: "Create" }).click();
+    await designer.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/);
+    const history = `${BASE_URL}/scenarios/${new URL(designer.url()).pathname.split("/")[2]}/history`;
+    await designer.goto(history, { waitUntil: "load" });
+    await lead.goto(history, { waitUntil: "load" });
+
+    async function edit(page: Page, senseResistor: number, note: string) {
+      const body = page.getByLabel("Scenario (JSON)");
+      const s = JSON.parse(await body.inputValue()) as { parts: Record<string, number> };
+      s.parts.senseResistor = senseResistor;
+      await body.fill(JSON.stringify(s, null, 2));
+      await page.getByLabel("Note").fill(note);
+      await page.getByRole("button", { name: "Save revision" }).click();
+    }
+    await edit(designer, 0.33, "designer's change");
+    await designer.getByText("Saved as revision 2.").waitFor();
+    await edit(lead, 0.22, "lead's change, on a stale base");
+    await lead.getByRole("alert").getByText(/Revision 2 was saved by Dev Okafor/).waitFor();
+    const diff = lead.getByTestId("diff");
+    await diff.getByText("parts.senseResistor").waitFor();
+    const row = await diff.getByRole("row", { name: /parts\.senseResistor/ }).textContent();
+    expect(row).toContain("330 mΩ"); // theirs (revision 2)
+    expect(row).toContain("220 mΩ"); // mine
+    // Nothing was overwritten: revision 2 is still the designer's.
+    await lead.reload({ waitUntil: "load" });
+    await lead.getByRole("cell", { name: "designer's change" }).waitFor();
+    expect(await lead.getByRole("cell", { name: "lead's change, on a stale base" }).count()).toBe(0);
+    await designerCtx.close();
+    await leadCtx.close();
   });
 
   it("lead invites by e-mail; the link from the development outbox creates an account in the team", async () => {
