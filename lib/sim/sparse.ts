@@ -32,6 +32,8 @@ export class StaticLU {
   private lRows = new Int32Array(0);
   private uStart = new Int32Array(0);
   private uCols = new Int32Array(0);
+  /** storage positions of every structural non-zero and fill-in of the current order (valid after analyse) */
+  positions = new Int32Array(0);
   private scratch: Float64Array;
   private scratchIm: Float64Array;
   private piv: Int32Array;
@@ -91,6 +93,9 @@ export class StaticLU {
     }
     lStart[n] = lRows.length;
     uStart[n] = uCols.length;
+    const pos: number[] = [];
+    for (let k = 0; k < n; k++) for (let j = 0; j < n; j++) if (s[k * n + j]) pos.push(rowOf[k] * stride + j);
+    this.positions = Int32Array.from(pos);
     this.lStart = lStart; this.uStart = uStart;
     this.lRows = Int32Array.from(lRows); this.uCols = Int32Array.from(uCols);
     this.analysed = true;

@@ -49,8 +49,11 @@ export function runAc(c: Circuit, fStart: number, fStop: number, perDecade: numb
   const lu = new StaticLU(n, c.stride, c.structure);
   for (let k = 0; k < count; k++) {
     const w = 2 * Math.PI * freq[k];
-    re.set(g);
-    for (let i = 0; i < size; i++) im[i] = w * cap[i];
+    if (lu.analysed) {
+      // only the structural non-zeros and fill-in take part in the factorisation
+      const P = lu.positions;
+      for (let q = 0; q < P.length; q++) { const p = P[q]; re[p] = g[p]; im[p] = w * cap[p]; }
+    }
     let r = lu.analysed ? lu.factorComplex(re, im) : LU_REORDER;
     if (r === LU_REORDER) {
       re.set(g);

@@ -33,10 +33,13 @@ export function loadAll(c: Circuit): void {
 /** Factor and solve c.mat·out = c.rhs (c.mat is overwritten by its factors); throws "singular" naming the unknown. */
 export function solveInto(c: Circuit, out: Float64Array): void {
   const lu = c.lu;
-  c.matBackup.set(c.mat);
-  let r = lu.analysed ? lu.factor(c.mat) : LU_REORDER;
+  const m = c.mat, bk = c.matBackup;
+  // factor() writes only structural/fill positions, so those are all a retry needs restored
+  const P = lu.positions;
+  for (let q = 0; q < P.length; q++) bk[P[q]] = m[P[q]];
+  let r = lu.analysed ? lu.factor(m) : LU_REORDER;
   if (r === LU_REORDER) {
-    c.mat.set(c.matBackup);
+    for (let q = 0; q < P.length; q++) m[P[q]] = bk[P[q]];
     const bad = lu.analyse(c.mat);
     if (bad >= 0) throw singular(c, bad);
     r = lu.factor(c.mat);
