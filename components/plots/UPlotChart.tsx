@@ -8,6 +8,7 @@
 import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
 import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
+import "./uplot-theme.css";
 
 export interface Overlay {
   x: ArrayLike<number>;

@@ -61,7 +61,7 @@ function Part(props: { id: string; label: string; box: Box; selected: string | n
 
 function Label({ x, y, children, anchor = "start" }: { x: number; y: number; children: ReactNode; anchor?: "start" | "middle" | "end" }) {
   return (
-    <text x={x} y={y} fontSize={10.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>
+    <text x={x} y={y} fontSize={12.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>
       {children}
     </text>
   );
@@ -70,7 +70,7 @@ function Label({ x, y, children, anchor = "start" }: { x: number; y: number; chi
 function Tag({ x, y, v, anchor = "start" }: { x: number; y: number; v: number | undefined; anchor?: "start" | "middle" | "end" }) {
   if (v === undefined || !Number.isFinite(v)) return null;
   return (
-    <text x={x} y={y} fontSize={10} fill="#0F766E" fontWeight={600} textAnchor={anchor} className="num" data-testid="op-tag">
+    <text x={x} y={y} fontSize={12} fill="#0F766E" fontWeight={600} textAnchor={anchor} className="num" data-testid="op-tag">
       {formatEng(v, "V")}
     </text>
   );
@@ -207,18 +207,18 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
       </Part>
       <Ground x={410} y={370} />
       {/* cable, load and load supply */}
-      <Part id="cable" label={`Cable ${formatEng(s.load.cable.length, "m")}`} box={[396, 122, 70, 50]} selected={sel} onSelect={on}>
+      <Part id="cable" label={`Cable ${formatEng(s.load.cable.length, "m")}`} box={[310, 122, 130, 54]} selected={sel} onSelect={on}>
         <Cable x={410} y1={120} y2={dar ? 180 : 190} />
-        <Label x={430} y={150}>{s.load.cable.length > 0 ? `cable ${formatEng(s.load.cable.length, "m")}` : "no cable"}</Label>
+        <Label x={392} y={158} anchor="end">{s.load.cable.length > 0 ? `cable ${formatEng(s.load.cable.length, "m")}` : "no cable"}</Label>
       </Part>
-      <Part id="load" label={`Load: ${loadText(s)}`} box={[380, 42, 120, 76]} selected={sel} onSelect={on}>
+      <Part id="load" label={`Load: ${loadText(s)}`} box={[290, 42, 160, 76]} selected={sel} onSelect={on}>
         <LoadSymbol s={s} x={410} y1={40} y2={120} />
-        <Label x={448} y={84}>{loadText(s)}</Label>
+        <Label x={392} y={84} anchor="end">{loadText(s)}</Label>
       </Part>
       <Wire d={[[410, 40], [410, 30], [520, 30], [520, 50]]} />
-      <Part id="loadSupply" label={`Load supply ${formatEng(s.supplies.load, "V")}`} box={[500, 44, 56, 74]} selected={sel} onSelect={on}>
+      <Part id="loadSupply" label={`Load supply ${formatEng(s.supplies.load, "V")}`} box={[500, 44, 78, 74]} selected={sel} onSelect={on}>
         <VoltageSource x={520} y1={50} y2={110} />
-        <Label x={540} y={116} anchor="middle">{formatEng(s.supplies.load, "V")}</Label>
+        <Label x={540} y={84}>{formatEng(s.supplies.load, "V")}</Label>
       </Part>
       <Ground x={520} y={110} />
       {V && (
@@ -393,7 +393,7 @@ export function Schematic({ scenario, selected, onSelect, op, showOp }: Schemati
   const loadCurrent = view?.currents.VMEAS;
   return (
     <svg
-      viewBox="0 0 570 400"
+      viewBox="0 0 590 400"
       className="h-auto w-full select-none"
       role="group"
       aria-label="Circuit schematic"
@@ -407,7 +407,7 @@ export function Schematic({ scenario, selected, onSelect, op, showOp }: Schemati
         <Sink s={scenario} sel={selected} on={onSelect} op={view} />
       )}
       {view && loadCurrent !== undefined && (
-        <text x={566} y={394} fontSize={11} textAnchor="end" fill="#0F766E" fontWeight={600} className="num">
+        <text x={586} y={394} fontSize={12.5} textAnchor="end" fill="#0F766E" fontWeight={600} className="num">
           I(load) = {formatEng(loadCurrent, "A")}
         </text>
       )}
