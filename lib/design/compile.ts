@@ -12,8 +12,6 @@ import type { Scenario } from "./schema";
 export type CompilePurpose = "op" | "step" | "loopgain-v" | "loopgain-i" | "closedloop" | "zout" | "dcsweep";
 
 export interface CompileOptions {
-  /** zout: DC voltage across the load terminals (hi − lo) to hold while measuring, V (default: an estimate) */
-  zoutBias?: number;
   /** AC sweep: start and stop frequency, Hz, and points per decade */
   fStart?: number;
   fStop?: number;
@@ -30,7 +28,8 @@ export const NAMES = {
   probeV: "VPROBE",
   probeI: "IPROBE",
   opamp: "U1",
-  zoutSource: "VTEST",
+  /** the source-side terminal of the load path (after the cable) */
+  nodeTerminal: "lw",
   loadSupply: "VLOAD",
   sense: "RSENSE",
   nodeOpampOut: "oa",
@@ -220,15 +219,13 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
     }
     near = "lw";
   }
-  // Ammeter: positive in the regulated direction.
-  add(b, { kind: "vsource", name: NAMES.ammeter, nodes: sink ? ["lt", near] : [near, "lt"], dc: 0 });
+  // Ammeter: positive in the regulated direction. For the output impedance it also carries the 1 V AC test
+  // signal in series with the load, so the operating point is the normal one (see runOutputImpedance).
+  const ammeter: NetlistElementJson = { kind: "vsource", name: NAMES.ammeter, nodes: sink ? ["lt", near] : [near, "lt"], dc: 0 };
+  if (purpose === "zout") ammeter.ac = 1;
+  add(b, ammeter);
   const hi = sink ? farNode : "lt";
   const lo = sink ? "lt" : farNode;
-  if (purpose === "zout") {
-    const bias = b.opts.zoutBias ?? loadDrop(s, idealTransconductance(s) * operatingCommand(s));
-    add(b, { kind: "vsource", name: NAMES.zoutSource, nodes: [hi, lo], dc: bias, ac: 1 });
-    return;
-  }
   const rLoad = Math.max(L.resistance, 1e-6);
   switch (L.kind) {
     case "resistor":
@@ -362,5 +359,11 @@ export function compileNetlistJson(s: Scenario, purpose: CompilePurpose, opts: C
   if (s.template === "howland") buildHowland(b);
   else if (s.template === "source-highside") buildHighSide(b);
   else buildSink(b);
-  return { temperature: s.thermal.ambient, elements: b.els, analysis: analysisFor(s, purpose, opts) };
+  const netlist: NetlistJson = { temperature: s.thermal.ambient, elements: b.els, analysis: analysisFor(s, purpose, opts) };
+  // DC solves (operating point, and the one under every AC analysis): the op-amp macro model's internal gain node
+  // sits at volts while a 1 S drive sets it from vd, so the default relative update test (1e-3·|v|) can stop Newton
+  // with millivolts of error in vd — a state where a limited op-amp "regulates" the wrong current. A tighter
+  // relative tolerance makes Newton finish; the transient keeps the default (its step control uses it too).
+  if (purpose !== "step") netlist.options = { reltol: 1e-6 };
+  return netlist;
 }

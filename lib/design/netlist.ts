@@ -30,4 +30,6 @@ export interface NetlistJson {
   temperature?: number;
   elements: NetlistElementJson[];
   analysis: AnalysisJson;
+  /** solver tolerances (the engine's addition to the contract) */
+  options?: { reltol?: number; vntol?: number; abstol?: number };
 }

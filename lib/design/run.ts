@@ -189,32 +189,28 @@ export function runClosedLoop(s: Scenario, options: SimOptions = {}, compileOpts
   return { freq: ac.freq, magDb: mag, phaseDeg, bandwidthHz: bandwidth3dB(ac.freq, mag) };
 }
 
-/** Voltage across the load network (hi − lo) at the operating point, V. */
-function loadBias(s: Scenario, op: OpResult): number {
-  const n = op.nodes;
-  const vs = n.vs ?? 0;
-  const lt = n.lt ?? 0;
-  if (s.template === "source-highside") return lt;
-  if (s.template === "howland") return lt - vs;
-  return vs - lt;
-}
-
-/** Output impedance seen by the load, |Z|(f) in Ω: the load replaced by a source holding its operating voltage. */
+/**
+ * Output impedance seen by the load, |Z|(f) in Ω. A 1 V AC source in series with the load (the ammeter) splits
+ * between the load and the source; the source side's terminal voltage over the current through it is Zout:
+ * sink Z = v(terminal)/I, source Z = −v(terminal)/I (the far side of the load is AC ground). The operating point is
+ * the normal one, so no bias has to be guessed.
+ */
 export function runOutputImpedance(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): {
   freq: Float64Array; magOhm: Float64Array; phaseDeg: Float64Array;
 } {
-  const { op } = runOperatingPoint(s, { ...options, onProgress: undefined });
-  const r = simulate(compileNetlist(s, "zout", { ...compileOpts, zoutBias: loadBias(s, op) }), options);
+  const r = simulate(compileNetlist(s, "zout", compileOpts), options);
   expect(r, "ac");
   const ac = r as AcResult;
-  const i = ac.currents[NAMES.zoutSource];
+  const i = ac.currents[NAMES.ammeter];
+  const v = ac.nodes[s.load.cable.length > 0 ? NAMES.nodeTerminal : NAMES.nodePass];
+  const sign = s.template === "sink-npn" || s.template === "sink-darlington" || s.template === "sink-nmos" ? 1 : -1;
   const n = i.re.length;
-  // Z = −1/I (see compile.ts: VTEST across the load terminals, 1 V AC).
   const zr = new Float64Array(n), zi = new Float64Array(n);
   for (let k = 0; k < n; k++) {
     const d = i.re[k] * i.re[k] + i.im[k] * i.im[k];
-    zr[k] = -i.re[k] / d;
-    zi[k] = i.im[k] / d;
+    // v / i
+    zr[k] = (sign * (v.re[k] * i.re[k] + v.im[k] * i.im[k])) / d;
+    zi[k] = (sign * (v.im[k] * i.re[k] - v.re[k] * i.im[k])) / d;
   }
   const { mag, phaseDeg } = magPhase(zr, zi, false);
   return { freq: ac.freq, magOhm: mag, phaseDeg };

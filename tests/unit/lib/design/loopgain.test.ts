@@ -68,3 +68,19 @@ describe("two-injection loop gain (Tian et al. 2001, REFERENCES §4.2)", () => {
     expect(t0 / expected).toBeCloseTo(1, 2);
   });
 });
+
+describe("output impedance seen by the load", () => {
+  it("improved Howland pump with R4/R3 = R2/R1: Zout → R1 + R2 at low frequency (closed form, ideal op-amp limit)", async () => {
+    const { runOutputImpedance } = await import("@/lib/design");
+    const s = defaultScenario("howland");
+    // I_L = Vin·R2/(R1·Rs) + (Vin − V_L)/(R1 + R2): the only output conductance is 1/(R1 + R2) (derivation in templates).
+    const z = runOutputImpedance(s, {}, { fStart: 1, fStop: 100, pointsPerDecade: 2 });
+    expect(z.magOhm[0] / (s.parts.howlandR1 + s.parts.howlandR2)).toBeCloseTo(1, 2);
+  });
+  it("a regulated NPN sink looks far stiffer than its load at low frequency", async () => {
+    const { runOutputImpedance } = await import("@/lib/design");
+    const s = defaultScenario("sink-npn");
+    const z = runOutputImpedance(s, {}, { fStart: 1, fStop: 100, pointsPerDecade: 2 });
+    expect(z.magOhm[0]).toBeGreaterThan(20 * s.load.resistance);
+  });
+});
