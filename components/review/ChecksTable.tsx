@@ -28,8 +28,8 @@ export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions
             <tr key={c.id} className="border-b border-hairline/60 align-top">
               <td className="py-1 pr-2">{c.label}{c.detail && <span className="block text-xs text-ink-muted">{c.detail}</span>}</td>
               <td className="py-1 pr-2"><VerdictBadge verdict={c.verdict} /></td>
-              <td className="num py-1 pr-2 text-right">{num(c.value, c.unit)}</td>
-              <td className="num py-1 pr-2 text-right">{num(c.limit, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{num(c.value, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{num(c.limit, c.unit)}</td>
               <td className="num py-1 text-xs">{c.formula}</td>
             </tr>
           ))}

@@ -108,6 +108,21 @@ export function ReviewDocument(p: ReviewProps) {
         ) : <p className="text-sm text-ink-muted">{sim.status === "running" ? "Computing…" : "Not available."}</p>}
       </Section>
 
+      <Section id="loop" title="Loop gain">
+        {sim.status === "done" && sim.sim.loop ? (
+          <div className="space-y-2">
+            <WavePlot testId="review-loop-plot" title="Loop gain magnitude" yUnit="dB" xUnit="Hz" logX height={180}
+              markers={sim.sim.loop.crossoverHz ? [{ t: sim.sim.loop.crossoverHz, label: "crossover" }] : []}
+              series={[{ label: "|T|, dB", time: sim.sim.loop.freq, values: sim.sim.loop.magDb, color: "#0072B2" }]} />
+            <WavePlot title="Loop gain phase" yUnit="°" xUnit="Hz" logX height={160}
+              series={[{ label: "∠T, degrees", time: sim.sim.loop.freq, values: sim.sim.loop.phaseDeg, color: "#D55E00" }]} />
+            <p className="num text-sm" data-testid="review-loop-figures">
+              Phase margin {sim.sim.loop.phaseMarginDeg === null ? "—" : `${sim.sim.loop.phaseMarginDeg.toFixed(1)}°`} · crossover {sim.sim.loop.crossoverHz === null ? "—" : formatEng(sim.sim.loop.crossoverHz, "Hz")} · gain margin {sim.sim.loop.gainMarginDb === null ? "—" : `${sim.sim.loop.gainMarginDb.toFixed(1)} dB`}
+            </p>
+          </div>
+        ) : <p className="text-sm text-ink-muted">{sim.status === "running" ? "Computing…" : sim.status === "done" ? `Not available: ${sim.sim.loopError}` : "Not available."}</p>}
+      </Section>
+
       <Section id="bench" title="Bench comparison">
         {entry && entry.evidence.comparisons.length > 0 && (
           <div className="mb-4 space-y-3">

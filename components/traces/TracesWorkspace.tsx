@@ -61,6 +61,8 @@ export function TracesWorkspace(p: WorkspaceProps) {
       settlingTime: f.settlingTime,
       riseTime: f.riseTime,
       worstDissipation: diss ? diss.value : null,
+      phaseMarginDeg: sim.sim.loop?.phaseMarginDeg ?? null,
+      crossoverHz: sim.sim.loop?.crossoverHz ?? null,
     };
   }, [sim, p.tolerances.settleBandPct]);
 

@@ -21,11 +21,15 @@ export interface WavePlotProps {
   height?: number;
   title?: string;
   testId?: string;
-  /** Vertical marker lines, s. */
+  /** Vertical marker lines, in x units. */
   markers?: { t: number; label: string }[];
+  /** Logarithmic x axis (frequency plots); x values must be positive. */
+  logX?: boolean;
+  /** Unit of the x axis (default "s"). */
+  xUnit?: string;
 }
 
-const PAD = { left: 58, right: 12, top: 10, bottom: 30 };
+const PAD = { left: 58, right: 28, top: 10, bottom: 30 };
 
 /** Min/max per pixel column: the polyline keeps every peak a full-resolution drawing would show. */
 function decimate(time: Float64Array, values: Float64Array, x0: number, x1: number, columns: number): [number, number][] {
@@ -63,10 +67,13 @@ function niceTicks(lo: number, hi: number, count: number): number[] {
   return ticks;
 }
 
-export function WavePlot({ series, yUnit, xRange, width = 640, height = 220, title, testId, markers = [] }: WavePlotProps) {
-  const live = series.filter((s) => s.time.length > 1);
+export function WavePlot({ series, yUnit, xRange, width = 640, height = 220, title, testId, markers = [], logX = false, xUnit = "s" }: WavePlotProps) {
+  // A log axis is a linear axis in log10(x): transform once, label in x.
+  const live = series
+    .filter((s) => s.time.length > 1)
+    .map((s) => (logX ? { ...s, time: Float64Array.from(s.time, (x) => Math.log10(x)) } : s));
   let x0 = Infinity, x1 = -Infinity;
-  if (xRange) [x0, x1] = xRange;
+  if (xRange) [x0, x1] = logX ? [Math.log10(xRange[0]), Math.log10(xRange[1])] : xRange;
   else for (const s of live) { x0 = Math.min(x0, s.time[0]); x1 = Math.max(x1, s.time[s.time.length - 1]); }
   const innerW = width - PAD.left - PAD.right;
   const innerH = height - PAD.top - PAD.bottom;
@@ -79,7 +86,7 @@ export function WavePlot({ series, yUnit, xRange, width = 640, height = 220, tit
   y0 -= margin; y1 += margin;
   const X = (t: number) => PAD.left + ((t - x0) / (x1 - x0)) * innerW;
   const Y = (v: number) => PAD.top + (1 - (v - y0) / (y1 - y0)) * innerH;
-  const xt = Number.isFinite(x0) && x1 > x0 ? niceTicks(x0, x1, 6) : [];
+  const xt = !(Number.isFinite(x0) && x1 > x0) ? [] : logX ? niceTicks(Math.ceil(x0), Math.floor(x1), Math.min(8, Math.floor(x1) - Math.ceil(x0))).filter((d) => Number.isInteger(d)) : niceTicks(x0, x1, 6);
   const yt = niceTicks(y0, y1, 5);
   return (
     <figure className="wave-plot" data-testid={testId}>
@@ -89,7 +96,7 @@ export function WavePlot({ series, yUnit, xRange, width = 640, height = 220, tit
         {xt.map((t) => (
           <g key={`x${t}`}>
             <line x1={X(t)} x2={X(t)} y1={PAD.top} y2={PAD.top + innerH} stroke="#EEEBE4" />
-            <text x={X(t)} y={height - 12} fontSize={10} textAnchor="middle" fill="#5B6472" className="num">{formatEng(t, "s", 3)}</text>
+            <text x={X(t)} y={height - 12} fontSize={10} textAnchor="middle" fill="#5B6472" className="num">{formatEng(logX ? 10 ** t : t, xUnit, 3)}</text>
           </g>
         ))}
         {yt.map((v) => (
@@ -100,8 +107,8 @@ export function WavePlot({ series, yUnit, xRange, width = 640, height = 220, tit
         ))}
         {markers.map((m) => (
           <g key={`m${m.label}`}>
-            <line x1={X(m.t)} x2={X(m.t)} y1={PAD.top} y2={PAD.top + innerH} stroke="#5B6472" strokeDasharray="2 3" />
-            <text x={X(m.t) + 3} y={PAD.top + 10} fontSize={9} fill="#5B6472">{m.label}</text>
+            <line x1={X(logX ? Math.log10(m.t) : m.t)} x2={X(logX ? Math.log10(m.t) : m.t)} y1={PAD.top} y2={PAD.top + innerH} stroke="#5B6472" strokeDasharray="2 3" />
+            <text x={X(logX ? Math.log10(m.t) : m.t) + 3} y={PAD.top + 10} fontSize={9} fill="#5B6472">{m.label}</text>
           </g>
         ))}
         {lines.map(({ s, pts }) => (

@@ -1,14 +1,12 @@
 /**
- * The simulation a bench capture is compared with, and what the review shows: operating point, step response and
- * checks of one scenario. Runs in the browser (client components call it; the server stays stateless).
- *
- * Uses lib/design's compiler and checks and lib/sim's engine directly. When lib/design grows its own runners
- * (runStep, runOperatingPoint), this module should call them instead.
+ * The simulation a bench capture is compared with, and what the review shows: operating point, step response,
+ * loop gain and checks of one scenario, through lib/design's runners. Runs in the browser (client components call
+ * it; the server stays stateless).
  */
-import { compileNetlistJson, NAMES } from "@/lib/design/compile";
+import { runLoopGain, runOperatingPoint, runStep, type LoopGainResult } from "@/lib/design/run";
 import { runChecks, type CheckRow, type Caution, type AccuracyBudget } from "@/lib/design/checks";
 import type { Scenario } from "@/lib/design/schema";
-import { simulate, type OpResult, type TranResult } from "@/lib/sim";
+import type { OpResult } from "@/lib/sim";
 
 export interface SimulatedStep {
   /** s */
@@ -28,35 +26,38 @@ export interface SimulatedStep {
 export interface ReviewSimulation {
   op: OpResult;
   step: SimulatedStep;
+  /** null when the loop-gain run failed (`loopError` says why) */
+  loop: LoopGainResult | null;
+  loopError: string | null;
   checks: CheckRow[];
   cautions: Caution[];
   budget: AccuracyBudget;
 }
 
-/** Operating point of the scenario at its operating command. Throws the engine's SimError on failure. */
-export function simulateOperatingPoint(s: Scenario): OpResult {
-  return simulate(compileNetlistJson(s, "op") as never) as OpResult;
-}
-
 /** The step response the scenario's stimulus asks for. Throws the engine's SimError on failure. */
 export function simulateStep(s: Scenario): SimulatedStep {
-  const r = simulate(compileNetlistJson(s, "step") as never) as TranResult;
-  const iLoad = r.currents[NAMES.ammeter];
-  if (!iLoad) throw new Error(`the step netlist has no load ammeter ${NAMES.ammeter}`);
+  const r = runStep(s);
   return {
     time: r.time,
-    iLoad,
-    vCommand: r.nodes[NAMES.nodeCommand] ?? null,
-    vOpampOut: r.nodes[NAMES.nodeOpampOut] ?? null,
-    vPass: r.nodes[NAMES.nodePass] ?? null,
+    iLoad: r.series.iLoad,
+    vCommand: r.series.vCommand ?? null,
+    vOpampOut: r.series.vOpampOut ?? null,
+    vPass: r.series.vPass ?? null,
     stepTime: s.stimulus.stepTime,
   };
 }
 
 /** Everything the review and the lead's comparison need, in one call. */
 export function simulateForReview(s: Scenario): ReviewSimulation {
-  const op = simulateOperatingPoint(s);
+  const { op } = runOperatingPoint(s);
   const step = simulateStep(s);
-  const { checks, cautions, budget } = runChecks(s, op as unknown as Parameters<typeof runChecks>[1]);
-  return { op, step, checks, cautions, budget };
+  let loop: LoopGainResult | null = null;
+  let loopError: string | null = null;
+  try {
+    loop = runLoopGain(s);
+  } catch (e) {
+    loopError = e instanceof Error ? e.message : String(e);
+  }
+  const { checks, cautions, budget } = runChecks(s, op);
+  return { op, step, loop, loopError, checks, cautions, budget };
 }

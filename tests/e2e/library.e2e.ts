@@ -124,13 +124,14 @@ describe("library: upload, submit, validate, review", () => {
     const errors = watchErrors(page);
     await page.goto(`${BASE_URL}/scenarios/${scenarioId}/review`, { waitUntil: "load" });
     await page.locator('[data-testid="review-document"][data-sim-status="done"]').waitFor({ timeout: 60_000 });
-    for (const id of ["review-schematic", "review-parts", "review-op", "review-checks", "review-cautions", "review-step-plot", "review-bench", "review-status", "review-sign-off"]) {
+    for (const id of ["review-schematic", "review-parts", "review-op", "review-checks", "review-cautions", "review-step-plot", "review-loop-plot", "review-bench", "review-status", "review-sign-off"]) {
       await expect(page.getByTestId(id).first().isVisible()).resolves.toBe(true);
     }
     // Schematic drawn, parts with tolerances and E-series, operating point numbers, a comparison verdict.
     expect(await page.getByTestId("review-schematic").locator("svg").count()).toBeGreaterThan(0);
     expect(await page.getByTestId("review-parts").textContent()).toMatch(/± \d.*(on|nearest) E(6|12|24|48|96|192)/s);
     expect(await page.getByTestId("review-op").textContent()).toMatch(/IC .*A/);
+    expect(await page.getByTestId("review-loop-figures").textContent()).toMatch(/Phase margin -?\d+\.\d°/);
     await page.getByTestId("review-bench").getByTestId("bench-comparison").getByTestId("comparison-verdict").waitFor({ timeout: 60_000 });
     expect(await page.getByTestId("review-library-status").textContent()).toContain("validated");
     expect(await page.getByTestId("review-signed-off").textContent()).toContain(`Validated by ${demoUser("lead").name}`);

@@ -17,6 +17,7 @@ export const metadata = { title: "Library entry" };
 const FIGURES: [string, string, (v: number) => string][] = [
   ["fullScaleCurrent", "Full-scale current", (v) => formatEng(v, "A")],
   ["phaseMarginDeg", "Phase margin", (v) => `${v.toFixed(1)}°`],
+  ["crossoverHz", "Crossover", (v) => formatEng(v, "Hz")],
   ["overshootPct", "Overshoot", (v) => `${v.toFixed(1)} %`],
   ["riseTime", "Rise time", (v) => formatEng(v, "s")],
   ["settlingTime", "Settling time", (v) => formatEng(v, "s")],
