@@ -5,7 +5,7 @@ import { createTeam } from "@/lib/db/teams";
 import { audit } from "@/lib/db/audit";
 import { DomainError } from "@/lib/db/errors";
 import { recordAttempt, recentFailures, pruneAttempts, MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
-import { createPasswordReset, consumePasswordReset, RESET_TTL_MS } from "@/lib/db/passwordResets";
+import { createPasswordReset, consumePasswordReset, recentResetCount, MAX_RESETS_PER_HOUR, RESET_TTL_MS } from "@/lib/db/passwordResets";
 import { hashPassword, verifyPassword, verifyAgainstNothing } from "./password";
 import { publicBaseUrl } from "./tokens";
 import { sendMail } from "@/lib/mail/transport";
@@ -77,6 +77,7 @@ export async function requestPasswordReset(email: string): Promise<boolean> {
     await verifyAgainstNothing("timing");
     return false;
   }
+  if ((await recentResetCount(user.id)) >= MAX_RESETS_PER_HOUR) return false;
   const token = await createPasswordReset(user.id);
   const link = `${publicBaseUrl()}/reset-password?token=${encodeURIComponent(token)}`;
   await sendMail(passwordResetMail({ to: user.email, link, expiresAt: new Date(Date.now() + RESET_TTL_MS) }));

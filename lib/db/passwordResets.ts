@@ -8,6 +8,18 @@ import { DomainError } from "./errors";
 /** How long a password-reset link stays valid, ms (1 hour). */
 export const RESET_TTL_MS = 60 * 60 * 1000;
 
+/** Reset e-mails one account may receive per hour (a flood guard; beyond it the request is quietly dropped). */
+export const MAX_RESETS_PER_HOUR = 3;
+
+/** How many reset links were issued for the user in the last hour. */
+export async function recentResetCount(userId: string): Promise<number> {
+  const [{ n }] = await db()("password_resets")
+    .where({ user_id: userId })
+    .where("created_at", ">", new Date(Date.now() - 3600_000))
+    .count<{ n: string }[]>({ n: "*" });
+  return Number(n);
+}
+
 /** Issues a single-use reset token for a user; only its hash is stored. Earlier unused tokens stop working. */
 export async function createPasswordReset(userId: string): Promise<string> {
   const token = randomToken();

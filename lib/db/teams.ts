@@ -11,6 +11,8 @@ export { DomainError };
 
 /** How long an invitation link stays valid, ms (7 days). */
 export const INVITATION_TTL_MS = 7 * 24 * 3600 * 1000;
+/** Invitations a team may send per hour (each one is an e-mail: a flood guard, counted in PostgreSQL). */
+export const MAX_INVITATIONS_PER_HOUR = 30;
 
 export async function createTeam(name: string, leadUserId: string, trx: Knex | Knex.Transaction = db()) {
   const [team] = await trx("teams").insert({ name: name.trim() }).returning("*");
@@ -119,6 +121,15 @@ export async function createInvitation(actor: CurrentUser, email: string, role: 
   if (actor.role !== "lead") throw new DomainError(403, "Only a lead can invite.");
   const address = normaliseEmail(email);
   return db().transaction(async (trx) => {
+    // Serialise a team's invitations so the hourly count below cannot be raced past.
+    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`invitations:${actor.teamId}`]);
+    const [{ n }] = await trx("invitations")
+      .where({ team_id: actor.teamId })
+      .where("created_at", ">", new Date(Date.now() - 3600_000))
+      .count<{ n: string }[]>({ n: "*" });
+    if (Number(n) >= MAX_INVITATIONS_PER_HOUR) {
+      throw new DomainError(429, `This team has sent ${MAX_INVITATIONS_PER_HOUR} invitations in the last hour: try again later.`);
+    }
     const member = await trx("memberships as m")
       .join("users as u", "u.id", "m.user_id")
       .where("m.team_id", actor.teamId)

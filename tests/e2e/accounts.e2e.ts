@@ -39,6 +39,8 @@ describe("accounts journey: save, share, open, comment", () => {
     const designer = await designerCtx.newPage();
     const errors = watchErrors(designer);
     await signIn(designer, "designer");
+    const cookie = (await designerCtx.cookies()).find((c) => c.name === "quell_session");
+    expect(cookie).toMatchObject({ httpOnly: true, sameSite: "Lax" });
     await designer.getByRole("heading", { name: "Scenarios" }).waitFor();
     await designer.getByRole("table").getByRole("link", { name: "Valve coil driver", exact: true }).waitFor();
 

@@ -6,7 +6,7 @@ import { signInWithPassword, signUp, requestPasswordReset, resetPassword, SIGN_I
 import { inviteMember } from "@/lib/auth/invitations";
 import { acceptInvitation, changeRole, findInvitationByToken, listInvitations, listMembers, removeMember, revokeInvitation } from "@/lib/db/teams";
 import { resolveCurrentUser, teamsOfUser } from "@/lib/db/users";
-import { resetTokenState } from "@/lib/db/passwordResets";
+import { resetTokenState, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordResets";
 import { MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
 import { createInvitedAccount } from "@/lib/auth/accounts";
 import { DomainError } from "@/lib/db/errors";
@@ -106,6 +106,13 @@ describe("password reset by e-mail", () => {
     await db()("password_resets").where({ user_id: u.id }).update({ expires_at: new Date(Date.now() - 1000) });
     expect(await resetTokenState(token)).toBe("expired");
     await refused(resetPassword(token, "whatever-password"), 410);
+  });
+
+  it("stops mailing one account after a few requests an hour", async () => {
+    const [u] = await db()("users").insert({ email: `flood.${f.tag}@fixture.test`, name: "Flood", password_hash: "x" }).returning("*");
+    const sent: boolean[] = [];
+    for (let i = 0; i < MAX_RESETS_PER_HOUR + 1; i++) sent.push(await requestPasswordReset(u.email));
+    expect(sent).toEqual([...Array(MAX_RESETS_PER_HOUR).fill(true), false]);
   });
 
   it("sends nothing for an address without an account (and says the same to the caller)", async () => {

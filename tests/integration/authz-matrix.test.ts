@@ -225,6 +225,18 @@ describe("route handlers: authentication first, then validation with proper stat
     expect((await db()("revisions").where({ scenario_id: id })).length).toBe(2);
   });
 
+  it("answers 429 once a team has sent its hourly share of invitations", async () => {
+    const { MAX_INVITATIONS_PER_HOUR } = await import("@/lib/db/teams");
+    const already = await db()("invitations").where({ team_id: f.outsider.teamId }).where("created_at", ">", new Date(Date.now() - 3600_000));
+    const rows = Array.from({ length: MAX_INVITATIONS_PER_HOUR - already.length }, (_, i) => ({
+      team_id: f.outsider.teamId, email: `flood${i}@fixture.test`, role: "viewer", token_hash: `flood-${f.outsider.teamId}-${i}`, invited_by: f.outsider.id, expires_at: new Date(Date.now() + 3600_000),
+    }));
+    if (rows.length) await db()("invitations").insert(rows);
+    const r = await invitations.POST(await request("POST", "/api/team/invitations", f.outsider, { email: "one.more@fixture.test", role: "viewer" }), ctx({}));
+    expect(r.status).toBe(429);
+    expect(((await r.json()) as { error: string }).error).toMatch(/last hour/);
+  });
+
   it("refuses a designer deleting someone else's scenario (owner or lead only)", async () => {
     const id = (await createScenario(f.lead, { title: "Lead's", template: "sink-npn" })).id;
     expect((await scenario.DELETE(await request("DELETE", `/api/scenarios/${id}`, f.designer), ctx({ id }))).status).toBe(403);

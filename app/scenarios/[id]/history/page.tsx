@@ -28,7 +28,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
       </p>
       <div className="mt-1 flex flex-wrap items-center gap-3">
         <h1 className="mr-auto text-2xl font-semibold">History of {s.title}</h1>
-        {s.revisionId && s.revisionNumber !== null && (
+        {s.can.share && s.revisionId && s.revisionNumber !== null && (
           <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} />
         )}
         {s.can.share && s.revisionId && <ForkButton revisionId={s.revisionId} fork={forkScenario} label="Fork" />}
