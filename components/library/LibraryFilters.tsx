@@ -27,12 +27,12 @@ export function LibraryFilters({ values, facets }: { values: FilterValues; facet
       {select("loadType", "Load", facets.loadTypes)}
       {select("passElement", "Pass element", facets.passElements)}
       <label className="flex flex-col">
-        <span className="text-xs text-ink-muted">Current from, A</span>
-        <input name="currentMin" defaultValue={values.currentMin ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Current from (A)" />
+        <span className="text-xs text-ink-muted">Full scale from, A</span>
+        <input name="currentMin" defaultValue={values.currentMin ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Full-scale current from (A)" />
       </label>
       <label className="flex flex-col">
         <span className="text-xs text-ink-muted">to, A</span>
-        <input name="currentMax" defaultValue={values.currentMax ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Current to (A)" />
+        <input name="currentMax" defaultValue={values.currentMax ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Full-scale current to (A)" />
       </label>
       <button type="submit" className="rounded bg-signal px-3 py-1.5 text-sm font-medium text-white">Filter</button>
       <a href="/library" className="text-sm text-ink-muted underline">Clear</a>

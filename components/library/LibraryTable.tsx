@@ -23,7 +23,7 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
             <th className="px-3 py-2 font-medium">Entry</th>
             <th className="px-3 py-2 font-medium">Status</th>
             <th className="px-3 py-2 font-medium">Template · pass · load</th>
-            <th className="px-3 py-2 text-right font-medium">Current range</th>
+            <th className="px-3 py-2 text-right font-medium">Load current</th>
             <th className="px-3 py-2 text-right font-medium">Overshoot</th>
             <th className="px-3 py-2 text-right font-medium">Settling</th>
             <th className="px-3 py-2 font-medium">Evidence</th>
@@ -39,9 +39,9 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
               </td>
               <td className="px-3 py-2"><StatusBadge status={e.status} /></td>
               <td className="px-3 py-2 text-xs">{e.template} · {e.passElement || "—"} · {e.loadType || "—"}</td>
-              <td className="num px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatEng(e.currentMin ?? 0, "A")} – ${formatEng(e.currentMax, "A")}`}</td>
+              <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatEng(e.currentMin ?? 0, "A")} – ${formatEng(e.currentMax, "A")}`}</td>
               <td className="num px-3 py-2 text-right">{typeof e.keyFigures.overshootPct === "number" ? `${e.keyFigures.overshootPct.toFixed(1)} %` : "—"}</td>
-              <td className="num px-3 py-2 text-right">{typeof e.keyFigures.settlingTime === "number" ? formatEng(e.keyFigures.settlingTime, "s") : "—"}</td>
+              <td className="num whitespace-nowrap px-3 py-2 text-right">{typeof e.keyFigures.settlingTime === "number" ? formatEng(e.keyFigures.settlingTime, "s") : "—"}</td>
               <td className="px-3 py-2 text-xs">{e.evidence.traceIds.length} trace{e.evidence.traceIds.length === 1 ? "" : "s"} <VerdictBadge verdict={worst(e)} /></td>
               <td className="px-3 py-2 text-xs">{e.validatedByName ? `${e.validatedByName}, ${e.validatedAt?.slice(0, 10)}` : "—"}</td>
             </tr>

@@ -10,7 +10,7 @@ import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
 import { sendMail, type OutgoingMail } from "@/lib/mail/transport";
 import { publicBaseUrl } from "@/lib/auth/tokens";
 import { DEFAULT_TOLERANCES, tolerancesSchema, type Tolerances } from "@/lib/traces/compare";
-import { scenarioSchema } from "@/lib/design/schema";
+import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { TEMPLATES } from "@/lib/design/templates";
 import { idealTransconductance } from "@/lib/design/compile";
 
@@ -24,10 +24,10 @@ export const libraryFiltersSchema = z.object({
   status: z.enum(LIBRARY_STATUSES, { error: `status must be one of ${LIBRARY_STATUSES.join(", ")}` }).optional(),
   loadType: z.string().trim().max(40).optional(),
   passElement: z.string().trim().max(40).optional(),
-  /** Entries whose full-scale current range reaches at least this, A. */
-  currentMin: z.coerce.number().finite().nonnegative().optional(),
-  /** Entries whose full-scale current range starts at or below this, A. */
-  currentMax: z.coerce.number().finite().nonnegative().optional(),
+  /** Entries whose full-scale current is at least this, A. */
+  currentMin: z.coerce.number({ error: "currentMin must be a number (A)" }).finite().nonnegative("currentMin must not be negative").optional(),
+  /** Entries whose full-scale current is at most this, A. */
+  currentMax: z.coerce.number({ error: "currentMax must be a number (A)" }).finite().nonnegative("currentMax must not be negative").optional(),
 });
 export type LibraryFilters = z.infer<typeof libraryFiltersSchema>;
 
@@ -123,26 +123,25 @@ export interface LibraryEntryDetail extends LibraryEntrySummary {
 export function scenarioFacets(body: unknown, fallbackTemplate: string): {
   template: string; passElement: string; loadType: string; currentMin: number | null; currentMax: number | null;
 } {
-  const parsed = scenarioSchema.safeParse(body);
-  if (!parsed.success) {
+  const parsed = tryUpgradeScenario(body);
+  if (!parsed.ok) {
     const b = (body ?? {}) as Record<string, any>;
     const template = typeof b.template === "string" ? b.template : fallbackTemplate;
     const info = TEMPLATES.find((t) => t.id === template);
     return { template, passElement: info?.passElement ?? "", loadType: typeof b.load?.kind === "string" ? b.load.kind : "", currentMin: null, currentMax: null };
   }
-  const s = parsed.data;
+  const s = parsed.scenario;
   const info = TEMPLATES.find((t) => t.id === s.template);
   let passElement: string = info?.passElement ?? s.pass.kind;
   if (s.template === "source-highside") passElement = s.pass.kind;
-  const g = idealTransconductance(s);
-  const a = Math.abs(g * s.stimulus.commandLow);
-  const b = Math.abs(g * s.stimulus.commandFullScale);
+  // The range the design serves: 0 to full scale (the Howland pump drives both ways: −full scale to full scale).
+  const fullScale = Math.abs(idealTransconductance(s) * s.stimulus.commandFullScale);
   return {
     template: s.template,
     passElement,
     loadType: s.load.cable.length > 0 ? `${s.load.kind}+cable` : s.load.kind,
-    currentMin: Math.min(a, b),
-    currentMax: Math.max(a, b),
+    currentMin: s.template === "howland" ? -fullScale : 0,
+    currentMax: fullScale,
   };
 }
 
@@ -194,7 +193,7 @@ export async function listEntries(actor: CurrentUser, filters: LibraryFilters = 
   if (filters.loadType) q.where((w) => w.where("e.load_type", filters.loadType!).orWhere("e.load_type", `${filters.loadType}+cable`));
   if (filters.passElement) q.where("e.pass_element", filters.passElement);
   if (filters.currentMin !== undefined) q.where("e.current_max", ">=", filters.currentMin);
-  if (filters.currentMax !== undefined) q.where("e.current_min", "<=", filters.currentMax);
+  if (filters.currentMax !== undefined) q.where("e.current_max", "<=", filters.currentMax);
   if (filters.q) {
     const like = `%${filters.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     q.where((w) => w.whereILike("e.title", like).orWhereILike("e.note", like).orWhereILike("e.template", like));

@@ -77,7 +77,9 @@ describe("library workflow", () => {
     expect(f.passElement).toBe("npn");
     // Full-scale current = k/Rsense × full-scale command (ideal transfer, design layer's idealTransconductance)
     expect(f.currentMax).toBeCloseTo(idealTransconductance(a.body) * a.body.stimulus.commandFullScale, 12);
-    expect(scenarioFacets({ schemaVersion: 0, template: "sink-nmos" }, "x")).toMatchObject({ template: "sink-nmos", passElement: "nmos", currentMax: null });
+    expect(f.currentMin).toBe(0); // a sink serves 0 to full scale
+    // A body the design schema cannot read keeps its template and pass element, without a current range.
+    expect(scenarioFacets({ schemaVersion: 99, template: "sink-nmos" }, "x")).toMatchObject({ template: "sink-nmos", passElement: "nmos", currentMax: null });
   });
 
   it("refuses a submission from a viewer, without traces, or with another revision's trace", async () => {
@@ -158,6 +160,8 @@ describe("library workflow", () => {
     const fullScale = all[0].currentMax!;
     expect((await listEntries(a.users.viewer, { currentMin: fullScale * 2 })).length).toBe(0);
     expect((await listEntries(a.users.viewer, { currentMin: fullScale / 2 })).length).toBe(1);
+    expect((await listEntries(a.users.viewer, { currentMax: fullScale / 2 })).length).toBe(0);
+    expect((await listEntries(a.users.viewer, { currentMin: fullScale / 2, currentMax: fullScale * 2 })).length).toBe(1);
     expect((await listEntries(a.users.viewer, { loadType: a.body.load.kind })).length).toBe(1);
     expect(await listEntries(other.users.lead)).toEqual([]);
   });
