@@ -1,1 +1,0 @@
-self.__RSC_SERVER_MANIFEST="{\n  \"node\": {},\n  \"edge\": {},\n  \"encryptionKey\": \"KQlkYt08IA+VbYxgP37GrW6pfpNFWwBzNhr59TYArMY=\"\n}"
