@@ -27,6 +27,7 @@ export async function TopBar() {
           Quell
         </Link>
         <Link href="/scenarios" className="text-ink-muted hover:text-ink">Scenarios</Link>
+        {me && <Link href="/library" className="text-ink-muted hover:text-ink">Library</Link>}
         {me && <Link href="/team" className="text-ink-muted hover:text-ink">Team</Link>}
         {me ? (
           <UserMenu
