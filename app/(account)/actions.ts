@@ -4,6 +4,7 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { validatedAction, validatedPublicAction, type ActionState } from "@/lib/auth/action";
 import { setSession, destroySession, getSession } from "@/lib/auth/session";
+import { sessionAccount } from "@/lib/auth/current";
 import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createInvitedAccount } from "@/lib/auth/accounts";
 import { resolveCurrentUser, findUserById, teamsOfUser, setCurrentTeam } from "@/lib/db/users";
 import { acceptInvitation, createTeam, findInvitationByToken } from "@/lib/db/teams";
@@ -83,10 +84,10 @@ export const resetPasswordAction = validatedPublicAction(
 
 /** Accept an invitation as the signed-in user (whose address must match it). */
 export const acceptInvitationAction = validatedPublicAction(z.object({ token: z.string().min(10).max(200) }), async (data) => {
-  const s = await getSession();
-  if (!s.userId) return { message: "Sign in first." };
-  const { teamId } = await acceptInvitation(data.token, s.userId);
-  await startSession(s.userId, teamId);
+  const account = await sessionAccount();
+  if (!account) return { message: "Sign in first." };
+  const { teamId } = await acceptInvitation(data.token, account.id);
+  await startSession(account.id, teamId);
   redirect("/scenarios");
 });
 
@@ -116,11 +117,9 @@ export const switchTeamAction = validatedAction(z.object({ teamId: z.string().uu
 
 /** A signed-in user creates another team (and leads it). Works for users who belong to no team any more. */
 export const createTeamAction = validatedPublicAction(z.object({ teamName: z.string().trim().min(2, "Name your team (at least 2 characters).").max(100) }), async (data) => {
-  const s = await getSession();
-  if (!s.userId) return { message: "Sign in first." };
-  const userId = s.userId;
-  const team = await db().transaction((trx) => createTeam(data.teamName, userId, trx));
-  s.teamId = team.id;
-  await s.save();
+  const account = await sessionAccount();
+  if (!account) return { message: "Sign in first." };
+  const team = await db().transaction((trx) => createTeam(data.teamName, account.id, trx));
+  await setSession({ userId: account.id, teamId: team.id, sv: account.sessionVersion });
   redirect("/scenarios");
 });

@@ -3,7 +3,7 @@ import { redirect, forbidden } from "next/navigation";
 import { headers } from "next/headers";
 import { getSession } from "./session";
 import { roleAtLeast, type CurrentUser, type Role } from "./roles";
-import { resolveCurrentUser } from "@/lib/db/users";
+import { findUserById, resolveCurrentUser, type UserRow } from "@/lib/db/users";
 
 export { roleAtLeast };
 export type { CurrentUser, Role };
@@ -15,10 +15,16 @@ export async function currentUser(): Promise<CurrentUser | null> {
   return resolveCurrentUser(s.userId, s.teamId, s.sv);
 }
 
-/** Whether a session exists at all (signed in but possibly in no team). */
-export async function sessionUserId(): Promise<string | null> {
+/**
+ * The account behind a valid session, whether or not it still belongs to a team (for creating a team or accepting
+ * an invitation). Null when anonymous or when the session predates a password reset.
+ */
+export async function sessionAccount(): Promise<UserRow | null> {
   const s = await getSession();
-  return s.userId ?? null;
+  if (!s.userId) return null;
+  const u = await findUserById(s.userId);
+  if (!u || (s.sv !== undefined && s.sv !== u.sessionVersion)) return null;
+  return u;
 }
 
 /** Where the current page is, for the `next` parameter of the sign-in redirect (set by proxy.ts). */
@@ -35,8 +41,7 @@ async function currentPath(): Promise<string> {
 export async function requirePageUser(min: Role = "viewer"): Promise<CurrentUser> {
   const user = await currentUser();
   if (!user) {
-    const s = await getSession();
-    if (s.userId) redirect("/team/new");
+    if (await sessionAccount()) redirect("/team/new"); // signed in, but in no team any more
     redirect(`/sign-in?next=${encodeURIComponent(await currentPath())}`);
   }
   if (!roleAtLeast(user.role, min)) forbidden();

@@ -1,14 +1,13 @@
 import { redirect } from "next/navigation";
 import { AccountCard, CreateTeamForm } from "@/components/account/AccountForms";
-import { getSession } from "@/lib/auth/session";
+import { sessionAccount } from "@/lib/auth/current";
 import { createTeamAction } from "@/app/(account)/actions";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "New team" };
 
 export default async function NewTeamPage() {
-  const s = await getSession();
-  if (!s.userId) redirect("/sign-in?next=/team/new");
+  if (!(await sessionAccount())) redirect("/sign-in?next=/team/new");
   return (
     <AccountCard title="Start a new team">
       <p className="mb-4 text-sm text-ink-muted">You will lead it; invite the others from the team page.</p>

@@ -1,8 +1,8 @@
 import Link from "next/link";
 import { AccountCard, AcceptInvitationForm, NewAccountFromInvitationForm } from "@/components/account/AccountForms";
 import { findInvitationByToken } from "@/lib/db/teams";
-import { findUserByEmail, findUserById } from "@/lib/db/users";
-import { getSession } from "@/lib/auth/session";
+import { findUserByEmail } from "@/lib/db/users";
+import { sessionAccount } from "@/lib/auth/current";
 import { acceptInvitationAction, acceptWithNewAccountAction } from "../../actions";
 
 export const dynamic = "force-dynamic";
@@ -19,8 +19,7 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
       </AccountCard>
     );
   }
-  const session = await getSession();
-  const me = session.userId ? await findUserById(session.userId) : null;
+  const me = await sessionAccount();
   const existing = await findUserByEmail(inv.email);
   const next = `/invitations/${encodeURIComponent(token)}`;
   return (
