@@ -306,17 +306,18 @@ export function runChecks(s: Scenario, op?: OpLike): { checks: CheckRow[]; cauti
         detail: "Otherwise a zero command still leaves some current flowing.",
       });
     }
-    const iDrive = iControl;
+    // Worst case: the smallest β of the production spread (Darlington: the product of both stages).
+    const iDrive = usesBjt(s) ? iFs / effectiveBeta(s) : iControl;
     if (s.opamp.Iout !== null) {
       rows.push({
         id: "drive-current",
-        label: "Op-amp output current at full scale",
+        label: "Op-amp output current at full scale, lowest β",
         verdict: verdictAtMost(iDrive, 0.7 * s.opamp.Iout, s.opamp.Iout),
         value: iDrive,
         limit: s.opamp.Iout,
         unit: "A",
-        formula: "Ib = I/β (gate: 0 at DC) ≤ Iout limit; warn above 70 %",
-        detail: usesBjt(s) ? `β = ${fmt(s.pass.betaF)}` : "Gate current flows only while the gate charges.",
+        formula: "Ib = I/βmin (gate: 0 at DC) ≤ Iout limit; warn above 70 %",
+        detail: usesBjt(s) ? `βmin = ${fmt(s.pass.betaMin)}; at the typical β ${fmt(s.pass.betaF)} it is ${fmt(iControl)} A` : "Gate current flows only while the gate charges.",
       });
     }
   }

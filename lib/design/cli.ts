@@ -11,7 +11,7 @@ import { isSimError } from "../sim";
 import { runChecks } from "./checks";
 import { runClosedLoop, runDcTransfer, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "./run";
 import { ScenarioError } from "./schema";
-import { compensate, spread, sweep1d } from "./studies";
+import { compensate, spread, sweep1d, worstCaseCorners } from "./studies";
 import { upgradeScenario } from "./upgrade";
 
 export const STUDIES = ["op", "loopgain", "step", "checks", "closedloop", "zout", "dc", "sweep", "spread", "compensate"] as const;
@@ -93,7 +93,7 @@ export async function main(argv: string[]): Promise<number> {
         const seedText = flag(argv, "--seed");
         const seed = seedText === undefined ? s.studies.spread.seed : Number(seedText);
         if (!Number.isInteger(seed)) throw new ScenarioError(`--seed: expected a whole number, got "${seedText}"`);
-        result = spread(s, { runs, seed }, { shouldStop, timeBudgetMs: budget });
+        result = { ...spread(s, { runs, seed }, { shouldStop, timeBudgetMs: budget }), corners: worstCaseCorners(s, { shouldStop, timeBudgetMs: budget }) };
         break;
       }
       case "compensate": result = compensate(s, s.studies.compensate, { shouldStop, timeBudgetMs: budget }); break;

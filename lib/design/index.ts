@@ -40,7 +40,7 @@ export {
 export type { OperatingPointSummary, StepResult, LoopGainResult, SimOptions } from "./run";
 export {
   SWEEPABLE_PARAMETERS, getParameter, withParameter, axisValues, sweep1d, map2d, evaluateMetric, spread, spreadScenario, mergeSpread,
-  summarizeSpread, compensate, compensateScan, compensatePick, compensateCandidates, loadCorners,
+  summarizeSpread, worstCaseCorners, compensate, compensateScan, compensatePick, compensateCandidates, loadCorners,
 } from "./studies";
 export type {
   StudyOptions, IndexRange, SweepableParameter, SweepResult, SweepPoint, MapResult, MapMetric, SpreadResult, SpreadDraw,

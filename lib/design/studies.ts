@@ -308,6 +308,62 @@ export function spread(s: Scenario, settings: { runs: number; seed: number }, op
   return out;
 }
 
+/** One toleranced quantity for the corner search: its two extremes applied to a copy of the scenario. */
+interface CornerParameter {
+  name: string;
+  apply: (c: Scenario, end: 1 | -1) => void;
+}
+
+function cornerParameters(s: Scenario): CornerParameter[] {
+  const t = s.tolerances;
+  const rel = (key: keyof Scenario["parts"], tol: number): CornerParameter => ({
+    name: `parts.${key}`,
+    apply: (c, e) => { (c.parts[key] as number) *= 1 + e * tol; },
+  });
+  const list: CornerParameter[] =
+    s.template === "howland"
+      ? [rel("howlandR1", t.resistor), rel("howlandR2", t.resistor), rel("howlandR3", t.resistor), rel("howlandR4", t.resistor)]
+      : [rel("dividerTop", t.resistor), rel("dividerBottom", t.resistor), rel("feedbackResistor", t.resistor)];
+  list.push(rel("senseResistor", t.sense));
+  list.push({ name: "opamp.Vos", apply: (c, e) => { c.opamp.Vos = e * c.opamp.vosMax; } });
+  list.push({ name: "opamp.Ib", apply: (c, e) => { c.opamp.Ib = e > 0 ? c.opamp.ibMax : 0; } });
+  list.push({ name: "pass.betaF", apply: (c, e) => { c.pass.betaF = e > 0 ? c.pass.betaF : c.pass.betaMin; } });
+  return list;
+}
+
+/**
+ * Worst-case corners by sensitivity: each toleranced quantity is moved to one end alone to learn which way it
+ * pushes the load current; then every quantity is set to the end that raises the current (high corner) or lowers
+ * it (low corner) and the operating point is solved. Errors are against the nominal Vcmd·k/Rsense, % of full scale.
+ */
+export function worstCaseCorners(s: Scenario, opts: StudyOptions = {}): {
+  high: number;
+  low: number;
+  /** per quantity: the end (+1 or −1) that raises the current */
+  raises: Record<string, 1 | -1>;
+} {
+  const fs = fullScaleCurrent(s);
+  const nominalIdeal = fs * (s.stimulus.commandHigh / s.stimulus.commandFullScale);
+  const current = (c: Scenario) => {
+    checkStop(opts);
+    return Math.abs(runOperatingPoint(c, engineOptions(opts)).summary.iLoad);
+  };
+  const params = cornerParameters(s);
+  const base = current(s);
+  const raises: Record<string, 1 | -1> = {};
+  for (const p of params) {
+    const c = structuredClone(s);
+    p.apply(c, 1);
+    raises[p.name] = current(c) >= base ? 1 : -1;
+  }
+  const corner = (dir: 1 | -1) => {
+    const c = structuredClone(s);
+    for (const p of params) p.apply(c, (dir * raises[p.name]) as 1 | -1);
+    return ((current(c) - Math.abs(nominalIdeal)) / fs) * 100;
+  };
+  return { high: corner(1), low: corner(-1), raises };
+}
+
 /** Combine chunks of a Spread (their NaN-padded columns) into one result. */
 export function mergeSpread(parts: SpreadResult[]): SpreadResult {
   if (parts.length === 0) throw new RangeError("Nothing to merge");

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { isSimError } from "@/lib/sim";
 import {
-  SWEEPABLE_PARAMETERS, axisValues, compensate, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
+  SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, worstCaseCorners, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
   withParameter,
 } from "@/lib/design";
 
@@ -84,4 +84,20 @@ describe("studies on the reference sink", () => {
     expect(c.worstOvershootPct).toBeLessThanOrEqual(5);
     expect(c.phaseMarginToSpareDeg).toBeCloseTo(c.minPhaseMarginDeg - 60, 12);
   });
+
+  it("Spread stays between the worst-case corners, and the corners inside the analytic worst-case budget", () => {
+    // Reference: the checks' hand budget (offset/Vsense, Ib·R/Vsense, 2·tol·(1−k), sense tol, …) bounds the
+    // simulated corners; random draws within the tolerances cannot leave the corners of a monotone circuit.
+    const m = defaultScenario("sink-nmos");
+    const corners = worstCaseCorners(m);
+    const budget = accuracyBudget(m).worstCase * 100;
+    expect(corners.high).toBeGreaterThan(0);
+    expect(corners.low).toBeLessThan(0);
+    expect(corners.high).toBeLessThanOrEqual(budget);
+    expect(-corners.low).toBeLessThanOrEqual(budget);
+    const sp = spread(m, { runs: 40, seed: 11 });
+    expect(sp.summary!.errorPctFs.max).toBeLessThanOrEqual(corners.high + 1e-9);
+    expect(sp.summary!.errorPctFs.min).toBeGreaterThanOrEqual(corners.low - 1e-9);
+  });
 });
+
