@@ -55,8 +55,13 @@ export abstract class Element {
   abstract setup(b: Builder): void;
   /** Turn placeholders into indices, compute matrix positions and state slots. */
   abstract bind(c: Circuit): void;
-  /** Stamp the linearised element at c.x into c.mat / c.rhs (Newton companion, plus integration when MODE_TRAN). */
+  /** Stamp the linearised element at c.x into c.mat / c.rhs (Newton companion, plus integration when MODE_TRAN).
+   *  Only what changes between iterations: constant entries go in loadStatic. */
   abstract load(c: Circuit): void;
+  /** false when load() does nothing (everything is in loadStatic), so the Newton loop skips the element */
+  readonly dynamic: boolean = true;
+  /** Stamp the matrix entries that never change (linear, time-invariant parts); called once per topology. */
+  loadStatic(_m: Float64Array): void {}
   /** Stamp dq/dv at the operating point into `cap` (same positions as c.mat) for AC. */
   loadCap(_c: Circuit, _cap: Float64Array): void {}
   /** Cache small-signal values at the operating point in c.x before an AC sweep (used by acCurrent). */
@@ -97,6 +102,12 @@ export class Circuit {
   readonly unknownNames: string[];
   readonly userNodeNames: string[];
   readonly elements: Element[];
+  /** elements whose load() stamps something each iteration */
+  readonly dynamicElements: Element[];
+  /** constant matrix entries (linear, time-invariant stamps), copied in before each load */
+  readonly staticMat: Float64Array;
+  /** positions of the spare ground row and column (reset before each load) */
+  readonly trash: Int32Array;
   readonly tol: SimTolerances;
   /** thermal voltage kT/q, V */
   readonly vt: number;
@@ -157,6 +168,12 @@ export class Circuit {
     this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
     for (const el of elements) el.bind(this);
     this.lu = new StaticLU(this.n, this.stride, this.structure);
+    this.staticMat = new Float64Array(this.stride * this.stride);
+    for (const el of elements) el.loadStatic(this.staticMat);
+    this.dynamicElements = elements.filter((e) => e.dynamic);
+    const trash: number[] = [];
+    for (let i = 0; i <= this.n; i++) { trash.push(this.n * this.stride + i); if (i < this.n) trash.push(i * this.stride + this.n); }
+    this.trash = Int32Array.from(trash);
     this.q0 = new Float64Array(this.nState);
     this.q1 = new Float64Array(this.nState);
     this.q2 = new Float64Array(this.nState);

@@ -59,10 +59,12 @@ export class StaticLU {
    */
   analyse(a: Float64Array, im?: Float64Array): number {
     const { n, stride } = this;
-    this.scratch.set(a);
+    // only structural entries count (other positions may hold stale factors from an earlier order)
+    const st = this.structure, sc = this.scratch, si = this.scratchIm;
+    for (let i = 0; i < sc.length; i++) sc[i] = st[i] ? a[i] : 0;
     let bad: number;
     if (im) {
-      this.scratchIm.set(im);
+      for (let i = 0; i < si.length; i++) si[i] = st[i] ? im[i] : 0;
       bad = luFactorComplex(this.scratch, this.scratchIm, n, stride, this.piv);
     } else {
       bad = luFactor(this.scratch, n, stride, this.piv);

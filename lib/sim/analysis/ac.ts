@@ -23,7 +23,8 @@ export function runAc(c: Circuit, fStart: number, fStop: number, perDecade: numb
   c.mode = MODE_DC;
   loadAll(c); // Jacobian at the OP
   const size = c.mat.length;
-  const g = c.mat.slice(0, size);
+  const g = new Float64Array(size);
+  for (let i = 0; i < size; i++) if (c.structure[i]) g[i] = c.mat[i];
   const cap = new Float64Array(size);
   for (const el of c.elements) { el.loadCap(c, cap); el.acPrepare(c); }
   const els = c.elements;

@@ -16,12 +16,22 @@ export function checkBudget(c: Circuit): void {
   }
 }
 
-/** One matrix load at c.x into c.mat / c.rhs. */
+/** One matrix load at c.x into c.mat / c.rhs: the constant stamps are copied in, then the dynamic ones added. */
 export function loadAll(c: Circuit): void {
-  c.mat.fill(0);
+  const m = c.mat, st = c.staticMat;
+  const P = c.lu.positions;
+  if (c.lu.analysed) {
+    // every other position is either never read by the LU (the spare ground row/column, reset here so it cannot
+    // grow) or holds static values already
+    for (let q = 0; q < P.length; q++) { const p = P[q]; m[p] = st[p]; }
+    const T = c.trash;
+    for (let q = 0; q < T.length; q++) m[T[q]] = 0;
+  } else {
+    m.set(st);
+  }
   c.rhs.fill(0);
   c.noncon = 0;
-  const els = c.elements;
+  const els = c.dynamicElements;
   for (let i = 0; i < els.length; i++) els[i].load(c);
   const gs = c.gshunt;
   if (gs !== 0) {

@@ -101,14 +101,17 @@ export class Bjt extends Element {
     this.gmu = this.gR / m.betaR + gmin;
   }
 
+  override loadStatic(m: Float64Array): void {
+    const mod = this.model;
+    if (mod.rc > 0) stampG(m, this.rpos[0], this.rpos[1], this.rpos[2], this.rpos[3], 1 / mod.rc);
+    if (mod.rb > 0) stampG(m, this.rpos[4], this.rpos[5], this.rpos[6], this.rpos[7], 1 / mod.rb);
+    if (mod.re > 0) stampG(m, this.rpos[8], this.rpos[9], this.rpos[10], this.rpos[11], 1 / mod.re);
+  }
   load(c: Circuit): void {
     const m = c.mat;
     const mod = this.model;
     const x = c.x;
     const p = this.p;
-    if (mod.rc > 0) stampG(m, this.rpos[0], this.rpos[1], this.rpos[2], this.rpos[3], 1 / mod.rc);
-    if (mod.rb > 0) stampG(m, this.rpos[4], this.rpos[5], this.rpos[6], this.rpos[7], 1 / mod.rb);
-    if (mod.re > 0) stampG(m, this.rpos[8], this.rpos[9], this.rpos[10], this.rpos[11], 1 / mod.re);
     const vt = c.vt;
     const vbeRaw = p * (x[this.bi] - x[this.ei]);
     const vbcRaw = p * (x[this.bi] - x[this.ci]);

@@ -48,10 +48,12 @@ export class Diode extends Element {
     scratch[1] = g;
     return i;
   }
+  override loadStatic(m: Float64Array): void {
+    if (this.model.Rs > 0) stampG(m, this.paa, this.pai, this.pia, this.pii, 1 / this.model.Rs);
+  }
   load(c: Circuit): void {
     const m = c.mat;
     const mod = this.model;
-    if (mod.Rs > 0) stampG(m, this.paa, this.pai, this.pia, this.pii, 1 / mod.Rs);
     let vd = c.x[this.ai] - c.x[this.k];
     const raw = vd;
     if (mod.BV !== null && vd < Math.min(0, -mod.BV + 10 * this.nvt)) {

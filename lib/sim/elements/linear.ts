@@ -38,7 +38,9 @@ export class Resistor extends TwoTerminal {
     super(name, "resistor", nodes);
     this.g = 1 / value;
   }
-  load(c: Circuit): void { stampG(c.mat, this.paa, this.pab, this.pba, this.pbb, this.g); }
+  override readonly dynamic = false;
+  load(): void {}
+  override loadStatic(m: Float64Array): void { stampG(m, this.paa, this.pab, this.pba, this.pbb, this.g); }
   override current(c: Circuit): number { return this.v(c) * this.g; }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
     out[0] = (xr[this.a] - xr[this.b]) * this.g;
@@ -95,7 +97,7 @@ abstract class BranchElement extends TwoTerminal {
     this.pak = c.pos(this.a, this.k); this.pbk = c.pos(this.b, this.k);
     this.pka = c.pos(this.k, this.a); this.pkb = c.pos(this.k, this.b); this.pkk = c.pos(this.k, this.k);
   }
-  protected stampBranch(m: Float64Array): void {
+  override loadStatic(m: Float64Array): void {
     m[this.pak] += 1; m[this.pbk] -= 1; m[this.pka] += 1; m[this.pkb] -= 1;
   }
   override current(c: Circuit): number { return c.x[this.k]; }
@@ -111,7 +113,6 @@ export class Inductor extends BranchElement {
   }
   override bind(c: Circuit): void { super.bind(c); this.s = c.allocState(1); }
   load(c: Circuit): void {
-    this.stampBranch(c.mat);
     if (c.mode !== MODE_TRAN) return;
     const i = c.x[this.k];
     const v = c.integrate(this.s, this.ind * i); // flux φ = L·i, v = dφ/dt
@@ -142,7 +143,6 @@ export class VSource extends BranchElement {
     return c.useWaves && this.wave !== null ? waveValue(this.wave, c.time) : this.dc;
   }
   load(c: Circuit): void {
-    this.stampBranch(c.mat);
     c.rhs[this.k] += this.value(c) * c.srcScale;
   }
   override loadAc(_c: Circuit, br: Float64Array, bi: Float64Array): void { br[this.k] += this.acRe; bi[this.k] += this.acIm; }
@@ -193,10 +193,12 @@ export class Vcvs extends BranchElement {
     this.cp = c.idx(this.cp); this.cn = c.idx(this.cn);
     this.pkc = c.pos(this.k, this.cp); this.pkd = c.pos(this.k, this.cn);
   }
-  load(c: Circuit): void {
-    this.stampBranch(c.mat);
-    c.mat[this.pkc] -= this.gain;
-    c.mat[this.pkd] += this.gain;
+  override readonly dynamic = false;
+  load(): void {}
+  override loadStatic(m: Float64Array): void {
+    super.loadStatic(m);
+    m[this.pkc] -= this.gain;
+    m[this.pkd] += this.gain;
   }
 }
 
@@ -216,8 +218,9 @@ export class Vccs extends TwoTerminal {
     this.pac = c.pos(this.a, this.cp); this.pad = c.pos(this.a, this.cn);
     this.pbc = c.pos(this.b, this.cp); this.pbd = c.pos(this.b, this.cn);
   }
-  load(c: Circuit): void {
-    const m = c.mat;
+  override readonly dynamic = false;
+  load(): void {}
+  override loadStatic(m: Float64Array): void {
     m[this.pac] += this.gm; m[this.pad] -= this.gm; m[this.pbc] -= this.gm; m[this.pbd] += this.gm;
   }
   override current(c: Circuit): number { return this.gm * (c.x[this.cp] - c.x[this.cn]); }

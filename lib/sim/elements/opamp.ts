@@ -97,6 +97,11 @@ export class Opamp extends Element {
     return (1 - t * t) / this.rout;
   }
 
+  override loadStatic(m: Float64Array): void {
+    m[this.pxx] += this.g1;
+    if (this.ny !== this.nx) { m[this.pyy] += 1; m[this.pyx] -= 1; }
+    if (this.ideal) { m[this.pOutK] += 1; m[this.pKOut] += 1; m[this.pKs] -= 1; }
+  }
   load(c: Circuit): void {
     const m = c.mat, x = c.x, rhs = c.rhs, mod = this.model;
     const nx = this.nx;
@@ -112,7 +117,6 @@ export class Opamp extends Element {
     }
     m[this.pxInp] -= gd; m[this.pxInn] += gd;
     rhs[nx] += idrv - gd * (x[this.inp] - x[this.inn]);
-    m[this.pxx] += this.g1;
     // swing clamps on vx, relative to the supply pins
     const vx = x[nx];
     if (mod.swingHigh !== null) {
@@ -129,7 +133,6 @@ export class Opamp extends Element {
       m[this.pxx] += g; m[this.pxVee] -= g;
       rhs[nx] -= i - g * (vx - x[this.vee]);
     }
-    if (this.ny !== nx) { m[this.pyy] += 1; m[this.pyx] -= 1; }
     if (c.mode === MODE_TRAN) {
       const ix = c.integrate(this.sx, this.c1 * vx);
       const gx = c.ag0 * this.c1;
@@ -146,7 +149,6 @@ export class Opamp extends Element {
     // output stage and supply-pin currents
     if (this.ideal) {
       const k = this.k;
-      m[this.pOutK] += 1; m[this.pKOut] += 1; m[this.pKs] -= 1;
       const iout = -x[k];
       const sq = Math.sqrt(iout * iout + EPS_SPLIT * EPS_SPLIT);
       const ipos = 0.5 * (iout + sq), ineg = 0.5 * (iout - sq);
