@@ -30,6 +30,8 @@ export interface ParamSpec {
   nullable?: boolean;
   integer?: boolean;
   slider?: boolean;
+  /** shown = stored × scale (e.g. 100 to show a fraction in %); min and max are in shown units */
+  scale?: number;
 }
 
 /** One scenario number bound to the store. `partKey` links it to the schematic's selection. */
@@ -37,7 +39,8 @@ export function ParamField({ spec, partKey, snap }: { spec: ParamSpec; partKey?:
   const store = useWbStore();
   const raw = useWb((s) => getPath(s.scenario, spec.path));
   const selected = useWb((s) => partKey !== undefined && s.selectedPart === partKey);
-  const value = typeof raw === "number" ? raw : null;
+  const k = spec.scale ?? 1;
+  const value = typeof raw === "number" ? raw * k : null;
   const id = `field-${spec.path.replace(/\./g, "-")}`;
   return (
     <ValueField
@@ -55,10 +58,10 @@ export function ParamField({ spec, partKey, snap }: { spec: ParamSpec; partKey?:
       compact={!spec.slider}
       selected={selected}
       onFocus={() => partKey && store.getState().selectPart(partKey)}
-      validate={(v) => schemaReason(store.getState().scenario, spec.path, v)}
+      validate={(v) => schemaReason(store.getState().scenario, spec.path, v / k)}
       onCommit={(v, coalesce) => {
         const st = store.getState();
-        st.edit((s) => setPath(s, spec.path, v), coalesce ? { coalesceKey: spec.path } : undefined);
+        st.edit((s) => setPath(s, spec.path, v === null ? null : v / k), coalesce ? { coalesceKey: spec.path } : undefined);
       }}
     />
   );

@@ -44,7 +44,7 @@ function Progress({ kind, state, onCancel }: { kind: StudyKind; state: StudyStat
   };
   return (
     <div className="flex flex-wrap items-center gap-2">
-      <progress className="h-2 w-48 accent-signal" max={Math.max(1, state.total)} value={state.done} aria-label={`${kind} progress`} data-testid={`study-progress-${kind}`} />
+      <progress className="h-2 w-48 overflow-hidden rounded [&::-moz-progress-bar]:bg-signal [&::-webkit-progress-bar]:bg-hairline [&::-webkit-progress-value]:bg-signal" max={Math.max(1, state.total)} value={state.done} aria-label={`${kind} progress`} data-testid={`study-progress-${kind}`} />
       <span className={`num text-[12px] ${state.status === "failed" ? "text-verdict-fail" : "text-ink-muted"}`} data-testid={`study-status-${kind}`} data-status={state.status} aria-live="polite">
         {state.status === "running" ? `${pct} % · ` : ""}{words[state.status]}
       </span>
@@ -313,9 +313,9 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
       <div className="space-y-2">
         <ParamField spec={{ path: "studies.spread.runs", label: "Runs", unit: "", integer: true, min: 1, max: 100000 }} />
         <ParamField spec={{ path: "studies.spread.seed", label: "Seed", unit: "", integer: true }} />
-        <ParamField spec={{ path: "tolerances.resistor", label: "Resistor tolerance (0.01 = 1 %)", unit: "", min: 0, max: 0.5 }} />
-        <ParamField spec={{ path: "tolerances.sense", label: "Sense tolerance", unit: "", min: 0, max: 0.5 }} />
-        <ParamField spec={{ path: "tolerances.capacitor", label: "Capacitor tolerance", unit: "", min: 0, max: 0.5 }} />
+        <ParamField spec={{ path: "tolerances.resistor", label: "Resistor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
+        <ParamField spec={{ path: "tolerances.sense", label: "Sense-resistor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
+        <ParamField spec={{ path: "tolerances.capacitor", label: "Capacitor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
         <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.spread()} data-testid="spread-run">Run spread</button>
         <Progress kind="spread" state={state} onCancel={() => runner?.cancel("spread")} />
       </div>

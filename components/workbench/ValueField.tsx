@@ -51,14 +51,18 @@ export function ValueField(props: ValueFieldProps) {
   const [error, setError] = useState<string | null>(null);
   const [note, setNote] = useState<string | null>(null);
   const focused = useRef(false);
+  const draftRef = useRef(draft);
+  draftRef.current = draft;
   const errId = useId();
 
-  // An outside change (undo, preset, apply) replaces the text unless the person is typing in the field.
+  // An outside change (undo, preset, apply) replaces the text unless the person is typing something else in it.
+  const lastShown = useRef(shown);
   useEffect(() => {
-    if (!focused.current) {
-      setDraft(shown);
-      setError(null);
-    }
+    const prev = lastShown.current;
+    lastShown.current = shown;
+    if (focused.current && draftRef.current !== prev) return;
+    setDraft(shown);
+    setError(null);
   }, [shown]);
 
   const check = (text: string): { ok: true; value: number | null } | { ok: false; error: string } => {
@@ -110,6 +114,7 @@ export function ValueField(props: ValueFieldProps) {
             autoComplete="off"
             className={`num w-24 rounded border bg-white px-1.5 py-0.5 text-right text-[13px] ${error ? "border-verdict-fail text-verdict-fail" : "border-hairline"} focus-visible:outline-2 focus-visible:outline-signal`}
             value={draft}
+            data-editing={draft !== shown ? "true" : undefined}
             aria-invalid={error ? true : undefined}
             aria-describedby={error ? errId : undefined}
             onFocus={() => {

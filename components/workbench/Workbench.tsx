@@ -197,8 +197,9 @@ function useShortcuts() {
       const k = e.key.toLowerCase();
       if (k !== "z" && k !== "y") return;
       const t = e.target as HTMLElement | null;
-      // Inside a text field the browser's own undo edits the text being typed.
-      if (t && (t.tagName === "TEXTAREA" || (t.tagName === "INPUT" && (t as HTMLInputElement).type === "text"))) return;
+      // While a text is being typed the browser's own undo edits it; a field showing its applied value lets the
+      // workbench undo the last edit.
+      if (t && (t.tagName === "TEXTAREA" || (t.tagName === "INPUT" && (t as HTMLInputElement).type === "text" && t.dataset.editing === "true"))) return;
       e.preventDefault();
       if (k === "y" || e.shiftKey) store.getState().redo();
       else store.getState().undo();

@@ -59,6 +59,12 @@ describe("workbench", () => {
     await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(before);
     await page.getByTestId("redo").click();
     await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(next);
+    // From the keyboard too, with the focus still in the field that was edited.
+    await field.focus();
+    await page.keyboard.press("Control+z");
+    await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(before);
+    await page.keyboard.press("Control+Shift+z");
+    await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(next);
   });
 
   it("marks a value that is not a number in place, with the reason, and does not apply it", async () => {
