@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { BASE_URL, launch, watchErrors } from "./browser";
 import { demoUser, signIn } from "./auth";
+import { db } from "@/lib/db/knex";
 
 /** A fresh browser context (its own cookies) with clipboard access for "Copy link". */
 async function context(browser: Browser): Promise<BrowserContext> {
@@ -17,6 +18,7 @@ describe("accounts journey: save, share, open, comment", () => {
   });
   afterAll(async () => {
     await browser?.close();
+    await db().destroy();
   });
 
   it("sends an anonymous visitor to sign-in and back", async () => {
@@ -138,6 +140,55 @@ describe("accounts journey: save, share, open, comment", () => {
     expect(await lead.getByRole("cell", { name: "lead's change, on a stale base" }).count()).toBe(0);
     await designerCtx.close();
     await leadCtx.close();
+  });
+
+  it("signs up a new team's lead, signs out, and resets the password through the e-mailed link", async () => {
+    const ctx = await context(browser);
+    const page = await ctx.newPage();
+    const errors = watchErrors(page);
+    const email = `ines.hart.${Date.now()}@marsh-works.test`;
+    await page.goto(`${BASE_URL}/sign-up`, { waitUntil: "load" });
+    await page.getByLabel("Your name").fill("Ines Hart");
+    await page.getByLabel("E-mail").fill(email);
+    await page.getByLabel("Password").fill("short");
+    await page.getByLabel("Team name").fill("Marsh Works test bench");
+    await page.getByRole("button", { name: "Create account and team" }).click();
+    await page.getByText("Use at least 10 characters.").waitFor(); // the error in place, the rest kept
+    expect(await page.getByLabel("E-mail").inputValue()).toBe(email);
+    await page.getByLabel("Password").fill("ines-first-password");
+    await page.getByRole("button", { name: "Create account and team" }).click();
+    await page.waitForURL((u) => u.pathname === "/scenarios");
+    expect(await page.getByTestId("who").textContent()).toContain("lead");
+
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL((u) => u.pathname === "/sign-in");
+
+    const since = new Date(Date.now() - 2000);
+    await page.getByRole("link", { name: "Forgot your password?" }).click();
+    await page.getByLabel("E-mail").fill(email);
+    await page.getByRole("button", { name: "Send a reset link" }).click();
+    await page.getByRole("status").getByText("If that address has an account").waitFor();
+
+    // The mail fake stored the message; follow its link.
+    let mail: { text_body: string } | undefined;
+    for (let i = 0; i < 50 && !mail; i++) {
+      mail = await db()("dev_mailbox").where({ to_address: email }).where("received_at", ">=", since).first();
+      if (!mail) await new Promise((r) => setTimeout(r, 200));
+    }
+    const link = mail?.text_body.match(/https?:\/\/\S+\/reset-password\?token=\S+/)?.[0];
+    expect(link).toBeTruthy();
+    const local = link!.replace(/^https?:\/\/[^/]+/, BASE_URL);
+    await page.goto(local, { waitUntil: "load" });
+    await page.getByLabel("New password", { exact: true }).fill("ines-second-password");
+    await page.getByLabel("New password again").fill("ines-second-password");
+    await page.getByRole("button", { name: "Set the new password" }).click();
+    await page.waitForURL((u) => u.pathname === "/scenarios");
+
+    // Single use.
+    await page.goto(local, { waitUntil: "load" });
+    await page.getByText("This reset link has been used already.").waitFor();
+    expect(errors).toEqual([]);
+    await ctx.close();
   });
 
   it("lead invites by e-mail; the link from the development outbox creates an account in the team", async () => {
