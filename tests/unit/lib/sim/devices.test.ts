@@ -60,6 +60,23 @@ describe("diode (Shockley) against the Lambert-W closed form", () => {
     }
   });
 
+  it("DC sweep of a current source: V = n·Vt·ln(1 + I/Is) (Shockley inverted) from 1 nA to 10 mA", () => {
+    const r = runSweep({
+      temperature: T300C,
+      elements: [
+        { kind: "isource", name: "I1", nodes: ["0", "d"], dc: 0 },
+        { kind: "diode", name: "D1", nodes: ["d", "0"], model: { Is: 2e-15, n: 1.2 } },
+      ],
+      analysis: { kind: "dcsweep", source: "I1", from: 1e-9, to: 10e-3, points: 11 },
+      options: exact,
+    });
+    for (let k = 0; k < r.sweep.length; k++) {
+      expect(r.nodes.d[k]).toBeCloseTo(1.2 * VT300 * Math.log1p(r.sweep[k] / 2e-15), 9);
+      // the source's current runs from nodes[0] (ground) through it to nodes[1]: its value
+      expect(r.currents.I1[k]).toBe(r.sweep[k]);
+    }
+  });
+
   it("reverse breakdown: a 5.1 V (BV) diode in reverse clamps near −BV", () => {
     const r = runOp({
       elements: [
