@@ -6,6 +6,7 @@ import type { Browser, BrowserContext, Page } from "playwright-core";
 import { BASE_URL, launch, watchErrors } from "./browser";
 import { demoUser, signIn } from "./auth";
 import { upgradeScenario } from "@/lib/design/upgrade";
+import { db } from "@/lib/db/knex";
 import { simulateStep } from "@/lib/traces/simulate";
 
 /**
@@ -15,6 +16,17 @@ import { simulateStep } from "@/lib/traces/simulate";
  * The "bench capture" is the engine's own step response, delayed by 37 µs as a scope's pre-trigger would place it,
  * written as millivolts across the 1 Ω sense resistor with ±0.2 % seeded noise — so the comparison must pass.
  */
+/** The newest mail to an address whose subject starts with `subject`, waiting for the local fake to store it. */
+async function mailTo(email: string, subject: string, since: Date): Promise<{ subject: string; text_body: string } | undefined> {
+  const end = Date.now() + 15_000;
+  while (Date.now() < end) {
+    const m = await db()("dev_mailbox").where("to_address", email).where("received_at", ">=", since).where("subject", "like", `${subject}%`).orderBy("id", "desc").first();
+    if (m) return m;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return undefined;
+}
+
 function captureCsv(time: Float64Array, iLoad: Float64Array, senseOhms: number): string {
   let seed = 12345;
   const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
@@ -51,6 +63,7 @@ describe("library: upload, submit, validate, review", () => {
   });
   afterAll(async () => {
     await browser?.close();
+    await db().destroy();
   });
 
   it("the designer uploads a trace and submits the revision", async () => {
@@ -83,6 +96,7 @@ describe("library: upload, submit, validate, review", () => {
     expect(await page.getByTestId("comparison-verdict").textContent()).toBe("pass");
     await page.getByTestId("comparison-plot").waitFor();
 
+    const submittedAt = new Date(Date.now() - 2000);
     await page.getByLabel("Note for the reviewer").fill("Built on the bench board; 3.0→3.3 V command step, 1 Ω sense.");
     await page.getByRole("button", { name: "Submit for validation" }).click();
     await page.getByTestId("submit-message").getByText("Submitted for validation").waitFor({ timeout: 30_000 });
@@ -90,6 +104,9 @@ describe("library: upload, submit, validate, review", () => {
     expect(await page.getByTestId("entry-status").textContent()).toContain("submitted");
     entryUrl = (await page.getByTestId("entry-status").getByRole("link").getAttribute("href")) ?? "";
     expect(entryUrl).toMatch(/^\/library\/[0-9a-f-]{36}$/);
+    // The lead is told through the local mail fake, with a link to the entry.
+    const mail = await mailTo(demoUser("lead").email, "Validation requested: Valve coil driver", submittedAt);
+    expect(mail?.text_body).toContain(entryUrl);
     expect(errors).toEqual([]);
     await page.close();
   });
@@ -104,12 +121,15 @@ describe("library: upload, submit, validate, review", () => {
     await page.getByTestId("submitted-comparison").waitFor();
     await page.getByTestId("review-checks").waitFor({ timeout: 60_000 });
     await page.getByTestId("comparison-verdict").first().waitFor({ timeout: 60_000 });
+    const decidedAt = new Date(Date.now() - 2000);
     await page.getByLabel("Comment").fill("Bench agrees with the simulation within the team's tolerances.");
     await page.getByRole("button", { name: "Validate" }).click();
     await page.getByTestId("entry-message").getByText("Validated.").waitFor({ timeout: 30_000 });
     await page.getByTestId("entry-validated-by").waitFor();
     expect(await page.getByTestId("entry-validated-by").textContent()).toContain(demoUser("lead").name);
     expect(await page.getByTestId("entry-history").textContent()).toContain("validated it");
+    const mail = await mailTo(demoUser("designer").email, "Validated: Valve coil driver", decidedAt);
+    expect(mail?.text_body).toContain("Bench agrees with the simulation");
 
     await page.goto(`${BASE_URL}/library?status=validated&q=Valve`, { waitUntil: "load" });
     const row = page.getByTestId("library-row").filter({ hasText: "Valve coil driver" }).first();
