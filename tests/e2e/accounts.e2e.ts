@@ -165,6 +165,8 @@ describe("accounts journey: save, share, open, comment", () => {
 
     const since = new Date(Date.now() - 2000);
     await page.getByRole("link", { name: "Forgot your password?" }).click();
+    await page.waitForURL((u) => u.pathname === "/forgot-password");
+    await page.getByRole("heading", { name: "Reset your password" }).waitFor();
     await page.getByLabel("E-mail").fill(email);
     await page.getByRole("button", { name: "Send a reset link" }).click();
     await page.getByRole("status").getByText("If that address has an account").waitFor();
