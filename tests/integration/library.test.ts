@@ -176,6 +176,21 @@ describe("library workflow", () => {
     expect(rev.body).toEqual(a.body);
   });
 
+  it("the submitter withdraws a submission of a newer revision; a viewer cannot", async () => {
+    const [rev2] = await db()("revisions").insert({ scenario_id: a.scenarioId, number: 2, parent_id: a.revisionId, author_id: a.users.designer.id, body: JSON.stringify(a.body) }).returning("*");
+    await db()("scenarios").where({ id: a.scenarioId }).update({ current_revision_id: rev2.id });
+    // Evidence must belong to the submitted revision: the revision-1 trace is refused.
+    await expect(submitForValidation(a.users.designer, a.scenarioId, submission())).rejects.toMatchObject({ status: 400 });
+    const t2 = await storeTrace(a.users.designer, { scenarioId: a.scenarioId, label: "rev 2 step", fileName: "s2.csv", parsed: parseTraceCsv(capture()), settings: {} });
+    expect(t2.revisionNumber).toBe(2);
+    const r = await submitForValidation(a.users.designer, a.scenarioId, { ...submission(), traceIds: [t2.id], comparisons: [] });
+    expect(r.entryId).not.toBe(entryId);
+    await expect(changeEntryStatus(a.users.viewer, r.entryId, "withdraw")).rejects.toMatchObject({ status: 403 });
+    expect((await changeEntryStatus(a.users.designer, r.entryId, "withdraw")).status).toBe("draft");
+    await expect(changeEntryStatus(a.users.designer, r.entryId, "withdraw")).rejects.toMatchObject({ status: 409 });
+    expect((await getEntry(a.users.lead, r.entryId)).events.map((e) => e.action)).toEqual(["created", "submitted", "withdrawn"]);
+  });
+
   it("only leads set tolerances; the lead retires the entry; retired entries are no starting point", async () => {
     await expect(setTeamTolerances(a.users.designer, DEFAULT_TOLERANCES)).rejects.toMatchObject({ status: 403 });
     await setTeamTolerances(a.users.lead, { ...DEFAULT_TOLERANCES, overshootPts: 3 });
