@@ -5,6 +5,7 @@
  * cannot solve becomes NaN with its message in `failures`; cancellation throws SimError "cancelled".
  */
 import { SimError, isSimError } from "../sim";
+import { formatEng } from "../units/eng";
 import { fullScaleCurrent } from "./checks";
 import { nearestE, eValuesBetween, type ESeriesName } from "./eseries";
 import { runLoopGain, runOperatingPoint, runStep } from "./run";
@@ -552,7 +553,7 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
   }
   stepped.sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   const message = best
-    ? `Compensation capacitor ${best.compCapacitor} F${settings.tuneBaseResistor ? ` with base/gate resistor ${best.baseResistor} Ω` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range.`
+    ? `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${formatEng(best.worstSettlingTime1pct, "s")}.`
     : passing.length === 0
       ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
       : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
