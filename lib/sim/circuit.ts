@@ -204,6 +204,17 @@ export class Circuit {
   }
 
   /**
+   * Device current convergence test (Nagel 1975, ERL-M520; the SPICE2 per-device test): the current predicted by
+   * the previous iteration's linearisation must match the current at the new voltages within
+   * reltol·max(|i|, |î|) + abstol. A large node conductance can make the voltage update tiny while the current is
+   * still far off (a stiff clamp, an exponential), so the voltage test alone is not enough.
+   */
+  checkCurrent(actual: number, predicted: number): void {
+    const d = actual - predicted;
+    if ((d < 0 ? -d : d) > this.tol.reltol * Math.max(Math.abs(actual), Math.abs(predicted)) + this.tol.abstol) this.noncon++;
+  }
+
+  /**
    * Integrate a charge (or flux) in slot s: returns the current dq/dt by the active formula and stores q and i.
    * Trapezoidal: i = (2/h)(q − q_n) − i_n; backward Euler: i = (q − q_n)/h. (Companion forms: REFERENCES §2.2.)
    */

@@ -117,10 +117,17 @@ export class Bjt extends Element {
     const vbcRaw = p * (x[this.bi] - x[this.ci]);
     const vbe = pnjlim(vbeRaw, this.vbe, vt, this.vcrit);
     const vbc = pnjlim(vbcRaw, this.vbc, vt, this.vcrit);
-    if (vbe !== vbeRaw || vbc !== vbcRaw) c.noncon++;
+    // previous linearisation, for the current convergence test
+    const ic0 = this.IC, ib0 = this.IB, gm0 = this.gmBE, gc0 = this.gcBC, gpi0 = this.gpi, gmu0 = this.gmu;
+    const dbe = vbe - this.vbe, dbc = vbc - this.vbc;
     this.vbe = vbe;
     this.vbc = vbc;
     this.evaluate(vbe, vbc, vt, c.tol.gmin);
+    if (vbe !== vbeRaw || vbc !== vbcRaw) c.noncon++;
+    else {
+      c.checkCurrent(this.IC, ic0 + gm0 * dbe + gc0 * dbc);
+      c.checkCurrent(this.IB, ib0 + gpi0 * dbe + gmu0 * dbc);
+    }
     const gm = this.gmBE, gc = this.gcBC;
     let gpi = this.gpi, gmu = this.gmu;
     let ceqC = p * (this.IC - gm * vbe - gc * vbc);

@@ -16,6 +16,8 @@ export class Diode extends Element {
   private jaa = 0; private jak = 0; private jka = 0; private jkk = 0;
   private s = 0;
   private vd = 0;
+  private iPrev = 0;
+  private gPrev = 0;
   private nvt = 0.025;
   private vcrit = 0.6;
   constructor(name: string, private readonly nodeNames: readonly [string, string], private readonly model: DiodeModel) {
@@ -62,10 +64,13 @@ export class Diode extends Element {
     } else {
       vd = pnjlim(vd, this.vd, this.nvt, this.vcrit);
     }
-    if (vd !== raw) c.noncon++;
-    this.vd = vd;
     const i = this.iv(vd, c.tol.gmin);
     let g = scratch[1];
+    if (vd !== raw) c.noncon++;
+    else c.checkCurrent(i, this.iPrev + this.gPrev * (vd - this.vd));
+    this.vd = vd;
+    this.iPrev = i;
+    this.gPrev = g;
     let ceq = i - g * vd;
     if (c.mode === MODE_TRAN && (mod.Cj0 > 0 || mod.tau > 0)) {
       depletion(vd, mod.Cj0, mod.Vj, mod.m, scratch);

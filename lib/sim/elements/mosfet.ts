@@ -70,8 +70,11 @@ export class Mosfet extends Element {
     const dg = vgs - this.vgs, dd = vds - this.vds;
     if (Math.abs(dg) > 1 && this.vgs !== 0) { vgs = this.vgs + Math.sign(dg); c.noncon++; }
     if (Math.abs(dd) > 5 && this.vds !== 0) { vds = this.vds + 5 * Math.sign(dd); c.noncon++; }
+    const id0 = this.id, gg0 = this.Gg, gd0 = this.Gd;
+    const dgs = vgs - this.vgs, dds = vds - this.vds;
     this.vgs = vgs; this.vds = vds;
     this.evaluate(vgs, vds);
+    c.checkCurrent(this.id, id0 + gg0 * dgs + gd0 * dds);
     const gmin = c.tol.gmin;
     const Gg = this.Gg, Gd = this.Gd + gmin;
     const id = this.id + gmin * vds;

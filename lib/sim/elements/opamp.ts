@@ -44,6 +44,11 @@ export class Opamp extends Element {
   private pOutOut = 0; private pOutS = 0;
   private pCccK = 0; private pCcOut = 0; private pCcS = 0; private pEeK = 0; private pEeOut = 0; private pEeS = 0;
   private src = 0; // index of the node the output follows (x or y)
+  // previous linearisation of each nonlinear branch (value, slope, controlling voltage) for the convergence test
+  private dI = 0; private dG = 1; private dV = 0;
+  private hI = 0; private hG = 0; private hV = 0;
+  private lI = 0; private lG = 0; private lV = 0;
+  private oI = 0; private oG = 0; private oV = 0;
 
   constructor(name: string, private readonly nodeNames: readonly [string, string, string, string, string], private readonly model: OpampModel) {
     super(name, "opamp");
@@ -115,6 +120,8 @@ export class Opamp extends Element {
       idrv = this.imax * t;
       gd = 1 - t * t;
     }
+    c.checkCurrent(idrv, this.dI + this.dG * (vd - this.dV));
+    this.dI = idrv; this.dG = gd; this.dV = vd;
     m[this.pxInp] -= gd; m[this.pxInn] += gd;
     rhs[nx] += idrv - gd * (x[this.inp] - x[this.inn]);
     // swing clamps on vx, relative to the supply pins
@@ -123,6 +130,9 @@ export class Opamp extends Element {
       const z = (vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP;
       const i = G_CLAMP * W_CLAMP * softplus(z);
       const g = G_CLAMP * sigmoid(z);
+      const v = vx - x[this.vcc];
+      c.checkCurrent(i, this.hI + this.hG * (v - this.hV));
+      this.hI = i; this.hG = g; this.hV = v;
       m[this.pxx] += g; m[this.pxVcc] -= g;
       rhs[nx] -= i - g * (vx - x[this.vcc]);
     }
@@ -130,6 +140,9 @@ export class Opamp extends Element {
       const z = (x[this.vee] + mod.swingLow - vx) / W_CLAMP;
       const i = -G_CLAMP * W_CLAMP * softplus(z);
       const g = G_CLAMP * sigmoid(z);
+      const v = vx - x[this.vee];
+      c.checkCurrent(i, this.lI + this.lG * (v - this.lV));
+      this.lI = i; this.lG = g; this.lV = v;
       m[this.pxx] += g; m[this.pxVee] -= g;
       rhs[nx] -= i - g * (vx - x[this.vee]);
     }
@@ -160,6 +173,8 @@ export class Opamp extends Element {
       const s = this.src, out = this.out;
       const u = x[s] - x[out];
       const iout = this.ioutOf(u), g = this.ioutSlope(u);
+      c.checkCurrent(iout, this.oI + this.oG * (u - this.oV));
+      this.oI = iout; this.oG = g; this.oV = u;
       // KCL at out: current leaving = −iout
       m[this.pOutOut] += g; m[this.pOutS] -= g;
       rhs[out] -= -iout + g * u;
