@@ -27,19 +27,12 @@ function dcError(s: Scenario): number {
 // lie within the worst-case DC budget the checks predict (offset, bias, tolerances at nominal are zero here, so
 // what remains is the base-current error, finite gain and drift-free terms: well inside the budget).
 describe("each template's DC current matches Vcommand·k/Rsense within the predicted budget", () => {
-  it.each(["sink-npn", "sink-darlington", "sink-nmos", "source-highside"] as TemplateId[])("%s", (id) => {
+  it.each(["sink-npn", "sink-darlington", "sink-nmos", "source-highside", "howland"] as TemplateId[])("%s", (id) => {
     const s = defaultScenario(id);
     const err = dcError(s);
     expect(Math.abs(err)).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
   });
-  it("howland (op-amp output limits off: the engine's operating point with the limits is under review)", () => {
-    const s = defaultScenario("howland");
-    s.opamp = { ...s.opamp, swingHigh: null, swingLow: null, Iout: null };
-    const err = dcError(s);
-    expect(Math.abs(err)).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
-  });
-  it("the valve-coil demo", () => {
-    const s = demoScenarios()[0].body;
+  it.each(demoScenarios().map((d) => [d.key, d.body] as const))("the %s demo", (_key, s) => {
     expect(Math.abs(dcError(s))).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
   });
 });
