@@ -54,6 +54,8 @@ export function BenchComparison(props: {
   const defaultChannel = meta ? Math.max(0, meta.channels.findIndex((c) => c.unit === "A")) : 0;
   const [channel, setChannel] = useState(defaultChannel);
   const [manualUs, setManualUs] = useState(0);
+  /** RMS window, µs after the simulated step; blank = the whole overlap of the two records. */
+  const [windowUs, setWindowUs] = useState<{ from: string; to: string }>({ from: "", to: "" });
   useEffect(() => setChannel(defaultChannel), [traceId, defaultChannel]);
 
   const { data, error, isLoading } = useSWR<TraceSamples>(meta ? `/api/traces/${meta.id}` : null, fetchJson);
@@ -66,12 +68,20 @@ export function BenchComparison(props: {
   const result = useMemo((): { ok: true; c: Comparison } | { ok: false; error: string } | null => {
     if (!measured) return null;
     try {
-      const c = compareStep(measured, { time: step.time, values: step.iLoad }, { manualOffset: manualUs * 1e-6, simulatedEdge: step.stepTime, tolerances });
+      const from = windowUs.from.trim() === "" ? null : Number(windowUs.from);
+      const to = windowUs.to.trim() === "" ? null : Number(windowUs.to);
+      if ((from !== null && !Number.isFinite(from)) || (to !== null && !Number.isFinite(to))) return { ok: false, error: "RMS window: enter numbers of µs after the step" };
+      if (from !== null && to !== null && !(to > from)) return { ok: false, error: "RMS window: the end must come after the start" };
+      const window: [number, number] | undefined =
+        from === null && to === null
+          ? undefined
+          : [from === null ? -Infinity : step.stepTime + from * 1e-6, to === null ? Infinity : step.stepTime + to * 1e-6];
+      const c = compareStep(measured, { time: step.time, values: step.iLoad }, { manualOffset: manualUs * 1e-6, simulatedEdge: step.stepTime, tolerances, window });
       return { ok: true, c };
     } catch (e) {
       return { ok: false, error: e instanceof Error ? e.message : String(e) };
     }
-  }, [measured, step, manualUs, tolerances]);
+  }, [measured, step, manualUs, tolerances, windowUs]);
 
   useEffect(() => {
     if (!onResult) return;
@@ -104,6 +114,11 @@ export function BenchComparison(props: {
               <input type="number" className="num w-24 rounded border border-hairline px-2 py-1" value={Number(manualUs.toFixed(3))} step="any" onChange={(e) => setManualUs(Number(e.target.value) || 0)} aria-label="Hand offset in microseconds" />
             </span>
           </label>
+          <fieldset className="flex items-end gap-2">
+            <legend className="text-xs text-ink-muted">RMS window, µs after the step (blank: whole overlap)</legend>
+            <input className="num w-20 rounded border border-hairline px-2 py-1" value={windowUs.from} placeholder="from" inputMode="decimal" onChange={(e) => setWindowUs({ ...windowUs, from: e.target.value })} aria-label="RMS window start in microseconds" />
+            <input className="num w-20 rounded border border-hairline px-2 py-1" value={windowUs.to} placeholder="to" inputMode="decimal" onChange={(e) => setWindowUs({ ...windowUs, to: e.target.value })} aria-label="RMS window end in microseconds" />
+          </fieldset>
         </div>
       )}
       {isLoading && <p role="status" className="text-sm text-ink-muted">Loading the trace…</p>}

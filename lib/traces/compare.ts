@@ -160,7 +160,10 @@ export function compareStep(measured: Waveform, simulated: Waveform, options: Co
     Math.max(shifted.time[0], simulated.time[0]),
     Math.min(shifted.time[shifted.time.length - 1], simulated.time[simulated.time.length - 1]),
   ];
-  const window = options.window ?? overlap;
+  // A window is clipped to the overlap (either end may be open: ±Infinity).
+  const window: [number, number] = options.window
+    ? [Math.max(options.window[0], overlap[0]), Math.min(options.window[1], overlap[1])]
+    : overlap;
   const rms = rmsDifference(shifted, simulated, window[0], window[1]);
   const rmsPct = (rms / Math.abs(sim.amplitude)) * 100;
 
