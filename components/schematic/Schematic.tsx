@@ -175,7 +175,7 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
       <Dot x={310} y={230} />
       <Part id="baseResistor" label={`${mos ? "Gate" : "Base"} resistor ${r(p.baseResistor)}`} box={[312, 216, dar ? 34 : 66, 28]} selected={sel} onSelect={on}>
         <Resistor x1={310} y1={230} x2={dar ? 340 : 380} y2={230} />
-        <Label x={dar ? 325 : 345} y={212} anchor="middle">{r(p.baseResistor)}</Label>
+        {dar ? <Label x={318} y={254} anchor="end">{r(p.baseResistor)}</Label> : <Label x={345} y={212} anchor="middle">{r(p.baseResistor)}</Label>}
       </Part>
       {/* pass device */}
       <Part id="pass" label={`Pass device: ${s.pass.preset}`} box={dar ? [338, 186, 90, 130] : [378, 186, 54, 88]} selected={sel} onSelect={on}>
@@ -225,7 +225,7 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
         <g>
           <Tag x={160} y={204} v={V.ref ?? V.cmd} anchor="middle" />
           <Tag x={306} y={222} v={V.oa} anchor="end" />
-          <Tag x={372} y={252} v={V.b} anchor="end" />
+          {!dar && <Tag x={372} y={252} v={V.b} anchor="end" />}
           <Tag x={416} y={300} v={V.e} />
           <Tag x={416} y={dar ? 176 : 200} v={V.c} />
         </g>
@@ -244,7 +244,7 @@ function HighSide({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k:
       <Wire d={[[60, 40], [520, 40], [520, 60]]} />
       <Part id="loadSupply" label={`Supply ${formatEng(s.supplies.load, "V")}`} box={[500, 54, 56, 64]} selected={sel} onSelect={on}>
         <VoltageSource x={520} y1={60} y2={110} />
-        <Label x={540} y={124} anchor="middle">{formatEng(s.supplies.load, "V")}</Label>
+        <Label x={540} y={90}>{formatEng(s.supplies.load, "V")}</Label>
       </Part>
       <Ground x={520} y={110} />
       <Part id="command" label="Command source (stimulus), referred to the rail" box={[34, 120, 52, 80]} selected={sel} onSelect={on}>

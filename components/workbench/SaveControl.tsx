@@ -6,6 +6,7 @@
 import { useState } from "react";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import type { Scenario } from "@/lib/design/schema";
+import { scenarioDiff } from "@/lib/workbench/diff";
 import { useWb, useWbStore } from "./context";
 
 export type SaveResult =
@@ -14,20 +15,11 @@ export type SaveResult =
 
 export type SaveFn = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<SaveResult>;
 
-/** Leaf values that differ between two scenarios, by dotted path. */
-export function scenarioDiff(a: unknown, b: unknown, prefix = ""): { path: string; mine: unknown; theirs: unknown }[] {
-  if (a !== null && b !== null && typeof a === "object" && typeof b === "object" && !Array.isArray(a) && !Array.isArray(b)) {
-    const keys = new Set([...Object.keys(a as object), ...Object.keys(b as object)]);
-    return [...keys].flatMap((k) =>
-      scenarioDiff((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], prefix ? `${prefix}.${k}` : k),
-    );
-  }
-  return JSON.stringify(a) === JSON.stringify(b) ? [] : [{ path: prefix, mine: a, theirs: b }];
-}
-
 const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] hover:bg-paper focus-visible:outline-2 focus-visible:outline-signal disabled:opacity-40";
 
-export function SaveControl({ scenarioId, revisionId, save }: { scenarioId: string | null; revisionId: string | null; save: SaveFn | null }) {
+export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
+  scenarioId: string | null; revisionId: string | null; save: SaveFn | null; onSaved?: (revisionNumber: number) => void;
+}) {
   const store = useWbStore();
   const dirty = useWb((s) => s.dirty);
   const [open, setOpen] = useState(false);
@@ -54,6 +46,7 @@ export function SaveControl({ scenarioId, revisionId, save }: { scenarioId: stri
         setOpen(false);
         setNote("");
         setMsg(`Saved as revision ${r.number}`);
+        onSaved?.(r.number);
       } else if (r.conflict) {
         const c = r.conflict.current;
         let theirs: Scenario | null = null;
@@ -105,7 +98,7 @@ export function SaveControl({ scenarioId, revisionId, save }: { scenarioId: stri
               {conflict.diff.length > 12 && <p className="text-ink-muted">…and {conflict.diff.length - 12} more</p>}
               <div className="mt-2 flex gap-2">
                 {conflict.theirs && (
-                  <button type="button" className={BTN} onClick={() => { store.getState().load(conflict.theirs!); setBase(conflict.revisionId); setConflict(null); setMsg(`Opened revision ${conflict.number}`); }}>
+                  <button type="button" className={BTN} onClick={() => { store.getState().load(conflict.theirs!); setBase(conflict.revisionId); setConflict(null); setMsg(`Opened revision ${conflict.number}`); onSaved?.(conflict.number); }}>
                     Open theirs (drop mine)
                   </button>
                 )}

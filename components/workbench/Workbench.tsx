@@ -64,11 +64,12 @@ function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }
   const elapsed = useWb((s) => s.run.elapsedMs);
   const showOp = useWb((s) => s.showOperatingPoint);
   const template = useWb((s) => s.scenario.template);
+  const [shownRevision, setShownRevision] = useState(revisionNumber);
   void engine;
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
-      <span className="text-[12px] text-ink-muted">{template}{revisionNumber !== null ? ` · revision ${revisionNumber}` : " · local draft"}</span>
+      <span className="text-[12px] text-ink-muted" data-testid="revision-label">{template}{shownRevision !== null ? ` · revision ${shownRevision}` : " · local draft"}</span>
       <span
         className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
         data-testid="dirty-indicator"
@@ -102,7 +103,7 @@ function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }
         >
           Netlist JSON
         </button>
-        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} />
+        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={setShownRevision} />
       </div>
     </div>
   );
