@@ -88,9 +88,11 @@ export async function run(): Promise<void> {
   const lu = c.lu;
   lu.analyse(base);
   const x = new Float64Array(c.stride);
+  a.set(base);
+  const P = lu.positions;
   const luOnce = () => {
     for (let k = 0; k < BATCH; k++) {
-      a.set(base);
+      for (let q = 0; q < P.length; q++) a[P[q]] = base[P[q]]; // restore only what the factorisation overwrote
       lu.factor(a);
       lu.solve(a, rhs0, x);
     }

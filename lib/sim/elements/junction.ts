@@ -39,6 +39,11 @@ export function expLimSlope(x: number): number {
 /** Forward-bias coefficient where the depletion formula is continued linearly (Fc, REFERENCES §1.4). */
 export const FC = 0.5;
 
+// (1−Fc)^{1−m} and (1−Fc)^{1+m} for the last grading coefficient seen (junctions usually share m)
+let cacheM = NaN;
+let cacheA = 0;
+let cacheF2 = 0;
+
 /**
  * Depletion charge and capacitance of a junction, Cj0/(1−V/Vj)^m below Fc·Vj and its linear continuation above
  * (Gray & Meyer; Nagel 1975; REFERENCES §1.4). Writes [q, C] into out.
@@ -52,8 +57,9 @@ export function depletion(v: number, cj0: number, vj: number, m: number, out: Fl
     out[0] = ((cj0 * vj) / (1 - m)) * (1 - arg * s);
     out[1] = cj0 * s;
   } else {
-    const f1 = (vj / (1 - m)) * (1 - Math.pow(1 - FC, 1 - m));
-    const f2 = Math.pow(1 - FC, 1 + m);
+    if (m !== cacheM) { cacheM = m; cacheA = Math.pow(1 - FC, 1 - m); cacheF2 = Math.pow(1 - FC, 1 + m); }
+    const f1 = (vj / (1 - m)) * (1 - cacheA);
+    const f2 = cacheF2;
     const f3 = 1 - FC * (1 + m);
     out[0] = cj0 * (f1 + (1 / f2) * (f3 * (v - fcv) + (m / (2 * vj)) * (v * v - fcv * fcv)));
     out[1] = (cj0 / f2) * (f3 + (m * v) / vj);

@@ -24,8 +24,13 @@ const W_CLAMP = 5e-3;
 /** smoothing current (A) of the supply-pin split */
 const EPS_SPLIT = 1e-6;
 
-function softplus(z: number): number { return z > 30 ? z : z < -30 ? Math.exp(z) : Math.log1p(Math.exp(z)); }
-function sigmoid(z: number): number { return z >= 0 ? 1 / (1 + Math.exp(-z)) : Math.exp(z) / (1 + Math.exp(z)); }
+/** softplus ln(1 + e^z) and its slope σ(z) from one exponential; slope left in `slope`. */
+let slope = 0;
+function softplus(z: number): number {
+  const e = Math.exp(-Math.abs(z));
+  slope = z >= 0 ? 1 / (1 + e) : e / (1 + e);
+  return (z > 0 ? z : 0) + Math.log1p(e);
+}
 
 export class Opamp extends Element {
   private inp = 0; private inn = 0; private out = 0; private vcc = 0; private vee = 0;
@@ -129,7 +134,7 @@ export class Opamp extends Element {
     if (mod.swingHigh !== null) {
       const z = (vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP;
       const i = G_CLAMP * W_CLAMP * softplus(z);
-      const g = G_CLAMP * sigmoid(z);
+      const g = G_CLAMP * slope;
       const v = vx - x[this.vcc];
       c.checkCurrent(i, this.hI + this.hG * (v - this.hV));
       this.hI = i; this.hG = g; this.hV = v;
@@ -139,7 +144,7 @@ export class Opamp extends Element {
     if (mod.swingLow !== null) {
       const z = (x[this.vee] + mod.swingLow - vx) / W_CLAMP;
       const i = -G_CLAMP * W_CLAMP * softplus(z);
-      const g = G_CLAMP * sigmoid(z);
+      const g = G_CLAMP * slope;
       const v = vx - x[this.vee];
       c.checkCurrent(i, this.lI + this.lG * (v - this.lV));
       this.lI = i; this.lG = g; this.lV = v;
