@@ -1,13 +1,17 @@
 "use client";
 /** A histogram drawn on a canvas from bin edges and counts (the design layer's `histogram`). */
-import { useEffect, useRef } from "react";
+import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
 import { formatEng } from "@/lib/units/eng";
 import { OKABE_ITO } from "./palette";
 
-export function Histogram({ edges, counts, label, unit, color = OKABE_ITO[0], height = 160, testId }: {
+export interface HistogramProps {
   edges: ArrayLike<number>; counts: ArrayLike<number>; label: string; unit: string; color?: string; height?: number; testId?: string;
-}) {
+}
+
+export const Histogram = forwardRef<{ toPng(): string | null }, HistogramProps>(function Histogram(props, handle) {
+  const { edges, counts, label, unit, color = OKABE_ITO[0], height = 160, testId } = props;
   const ref = useRef<HTMLCanvasElement>(null);
+  useImperativeHandle(handle, () => ({ toPng: () => ref.current?.toDataURL("image/png") ?? null }));
   useEffect(() => {
     const c = ref.current;
     if (!c) return;
@@ -48,4 +52,4 @@ export function Histogram({ edges, counts, label, unit, color = OKABE_ITO[0], he
     ctx.fillText("0", L - 4, T + h);
   }, [edges, counts, label, unit, color, height]);
   return <canvas ref={ref} style={{ width: "100%", height }} role="img" aria-label={`Histogram of ${label}`} data-testid={testId} />;
-}
+});

@@ -298,6 +298,24 @@ function MapTab({ runner }: { runner: StudyRunner | null }) {
   );
 }
 
+function HistFigure({ title, h, label, unit, color, testId }: { title: string; h: { edges: Float64Array; counts: Float64Array }; label: string; unit: string; color: string; testId: string }) {
+  const ref = useRef<{ toPng(): string | null }>(null);
+  return (
+    <figure className="rounded border border-hairline bg-white p-2">
+      <div className="flex items-center justify-between">
+        <h4 className="text-[12px] font-semibold">{title}</h4>
+        <ExportButtons name={title} png={() => ref.current?.toPng() ?? null} testId={`${testId}-export`}
+          columns={() => [
+            { name: `${label} bin low`, unit, data: h.edges.subarray(0, h.counts.length) },
+            { name: `${label} bin high`, unit, data: h.edges.subarray(1) },
+            { name: "runs", data: h.counts },
+          ]} />
+      </div>
+      <Histogram ref={ref} edges={h.edges} counts={h.counts} label={label} unit={unit} color={color} testId={testId} />
+    </figure>
+  );
+}
+
 function SpreadTab({ runner }: { runner: StudyRunner | null }) {
   const state = useWb((s) => s.studies.spread);
   const scenario = useWb((s) => s.scenario);
@@ -323,14 +341,8 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
         {summary ? (
           <div className="space-y-2">
             <div className="grid gap-2 xl:grid-cols-2">
-              <figure className="rounded border border-hairline bg-white p-2">
-                <h4 className="text-[12px] font-semibold">Output-current error, % of full scale</h4>
-                <Histogram edges={summary.sum.errorHistogram.edges} counts={summary.sum.errorHistogram.counts} label="error" unit="% FS" testId="spread-error-hist" />
-              </figure>
-              <figure className="rounded border border-hairline bg-white p-2">
-                <h4 className="text-[12px] font-semibold">Phase margin</h4>
-                <Histogram edges={summary.sum.pmHistogram.edges} counts={summary.sum.pmHistogram.counts} label="phase margin" unit="°" color={OKABE_ITO[1]} testId="spread-pm-hist" />
-              </figure>
+              <HistFigure title="Output-current error, % of full scale" h={summary.sum.errorHistogram} label="error" unit="% FS" color={OKABE_ITO[0]} testId="spread-error-hist" />
+              <HistFigure title="Phase margin" h={summary.sum.pmHistogram} label="phase margin" unit="°" color={OKABE_ITO[1]} testId="spread-pm-hist" />
             </div>
             <table className="num text-[12px]" data-testid="spread-summary">
               <tbody>

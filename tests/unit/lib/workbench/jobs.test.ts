@@ -37,3 +37,17 @@ describe("worker jobs", () => {
     expect(collectBuffers({ a, list: [b, { other }], n: 1, s: "x" })).toEqual([shared.buffer, other.buffer]);
   });
 });
+
+import { expectTypeOf } from "vitest";
+import type { Remote } from "comlink";
+import type { SimWorkerApi } from "@/workers/sim.worker";
+import type { LiveResult, StepView } from "@/lib/workbench/types";
+
+describe("worker API types (derived from the worker module)", () => {
+  it("the client sees the live results as the plots expect them", () => {
+    type Api = Remote<SimWorkerApi>;
+    expectTypeOf<Awaited<ReturnType<Api["live"]>>>().toEqualTypeOf<LiveResult>();
+    expectTypeOf<Awaited<ReturnType<Api["liveStep"]>>>().toEqualTypeOf<StepView>();
+    expectTypeOf<Awaited<ReturnType<Api["liveRest"]>>>().toEqualTypeOf<Omit<LiveResult, "step">>();
+  });
+});
