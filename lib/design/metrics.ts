@@ -5,6 +5,7 @@
 import { estimateRinging, type RingingEstimate } from "./ringing";
 
 export interface StepMetrics {
+  /* For a disturbance (load or supply step) the percentages and bands refer to the final value: see disturbanceMetrics. */
   /** value before the step and the final value (mean of the last 2 % of the record) */
   initial: number;
   final: number;
@@ -56,8 +57,9 @@ export function stepMetrics(
   t: ArrayLike<number>,
   y: ArrayLike<number>,
   tStep: number,
-  opts: { initial?: number; final?: number; target?: number } = {},
+  opts: { initial?: number; final?: number; target?: number; disturbance?: boolean } = {},
 ): StepMetrics {
+  if (opts.disturbance) return disturbanceMetrics(t, y, tStep, opts);
   const n = t.length;
   if (n < 3 || y.length !== n) throw new RangeError("stepMetrics needs matching time and value arrays of 3 or more samples");
   let i0 = 0;
@@ -110,6 +112,51 @@ export function stepMetrics(
   const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * band, tStep);
   const ringing = overshootPct > 0.05 ? estimateRinging(t, y, final, peakT) : emptyRinging;
   return { initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, steadyStateError, ringing };
+}
+
+/**
+ * Metrics of the recovery from a disturbance (load or supply step) that should leave the output unchanged: the
+ * percentages and settling bands refer to the final value itself, not to the (tiny) change. `overshootPct` is the
+ * largest deviation from the final value, `peakTime` when it happens, `riseTime` is null.
+ */
+export function disturbanceMetrics(
+  t: ArrayLike<number>,
+  y: ArrayLike<number>,
+  tStep: number,
+  opts: { initial?: number; final?: number; target?: number } = {},
+): StepMetrics {
+  const n = t.length;
+  if (n < 3 || y.length !== n) throw new RangeError("stepMetrics needs matching time and value arrays of 3 or more samples");
+  let i0 = 0;
+  while (i0 < n - 1 && t[i0] < tStep) i0++;
+  const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
+  let final = opts.final ?? NaN;
+  if (!Number.isFinite(final)) {
+    const tTail = t[n - 1] - 0.02 * (t[n - 1] - tStep);
+    let sum = 0, cnt = 0;
+    for (let i = n - 1; i >= 0 && t[i] >= tTail; i--) { sum += y[i]; cnt++; }
+    final = cnt ? sum / cnt : y[n - 1];
+  }
+  const scale = Math.abs(final) > 0 ? Math.abs(final) : Math.max(Math.abs(initial), 1e-30);
+  let ip = i0;
+  for (let i = i0; i < n; i++) if (Math.abs(y[i] - final) > Math.abs(y[ip] - final)) ip = i;
+  const deviation = Math.abs(y[ip] - final);
+  const settlingTime1pct = settleTime(t, y, i0, final, 0.01 * scale, tStep);
+  const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * scale, tStep);
+  const ringing = deviation > 0.0005 * scale ? estimateRinging(t, y, final, t[ip]) : {
+    frequencyHz: null, dampingRatio: null, peakSpacingHz: null, logDecrementDamping: null, fftHz: null, pencilHz: null, pencilDamping: null,
+  };
+  return {
+    initial,
+    final,
+    riseTime: null,
+    overshootPct: (deviation / scale) * 100,
+    peakTime: deviation > 0 ? t[ip] - tStep : null,
+    settlingTime1pct,
+    settlingTime01pct,
+    steadyStateError: opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null,
+    ringing,
+  };
 }
 
 /** Phase unwrapped to a continuous curve, degrees. */

@@ -103,7 +103,8 @@ export function runStep(s: Scenario, options: SimOptions = {}): StepResult {
   const st = s.stimulus;
   // Every stimulus ends at the high command: the ideal final current is the same for all of them.
   const target = idealTransconductance(s) * st.commandHigh;
-  const metrics = stepMetrics(tr.time, iLoad, st.stepTime, { target });
+  const disturbance = st.kind === "load-step" || st.kind === "supply-step";
+  const metrics = stepMetrics(tr.time, iLoad, st.stepTime, { target, disturbance });
   return {
     time: tr.time,
     series: { iLoad, vCommand: commandSeries(s, tr), vOpampOut: tr.nodes[NAMES.nodeOpampOut], vPass: tr.nodes[NAMES.nodePass] },

@@ -141,7 +141,7 @@ function referenceSink(): Scenario {
       commandHigh: 5,
       commandFullScale: 5,
       stepTime: 0.2e-3,
-      rampTime: 1e-3,
+      rampTime: 0.5e-3,
       edgeTime: 1e-6,
       supplyStep: -5,
       stopTime: 2e-3,
@@ -215,7 +215,7 @@ export function defaultScenario(templateId: TemplateId): Scenario {
         cable: { ...s.load.cable, length: 0 },
         stepResistance: 100,
       };
-      s.stimulus = { ...s.stimulus, commandLow: 0, commandHigh: 1, commandFullScale: 1, stepTime: 20e-6, stopTime: 200e-6, edgeTime: 0.1e-6 };
+      s.stimulus = { ...s.stimulus, commandLow: 0, commandHigh: 1, commandFullScale: 1, stepTime: 20e-6, rampTime: 50e-6, stopTime: 200e-6, edgeTime: 0.1e-6 };
       s.studies.sweep = { path: "parts.compCapacitor", from: 1e-12, to: 1e-9, points: 7, scale: "log", values: [] };
       s.studies.map.x = { ...s.studies.map.x, from: 1e-12, to: 1e-9 };
       s.studies.map.y = { path: "load.resistance", from: 10, to: 500, points: 16, scale: "log", values: [] };

@@ -147,3 +147,24 @@ describe("matrix pencil", () => {
     expect(r.pencilHz).toBeNull();
   });
 });
+
+describe("disturbance metrics (load or supply step)", () => {
+  it("deviation and recovery refer to the final value; checked against the closed form on a dense grid", () => {
+    // y = 1 − 0.2·e^{−t/τ}·cos(ωt) after the disturbance at t0: largest deviation 20 % of the final value at t0.
+    const tau = 50e-6, w = 2 * Math.PI * 40e3, t0 = 100e-6;
+    const f = (t: number) => (t < t0 ? 1 : 1 - 0.2 * Math.exp(-(t - t0) / tau) * Math.cos(w * (t - t0)));
+    const t = Float64Array.from({ length: 20001 }, (_, i) => i * 0.05e-6);
+    const y = Float64Array.from(t, f);
+    const m = stepMetrics(t, y, t0, { final: 1, disturbance: true });
+    // Sampled every 50 ns, the first sample after t0 already sits 0.05 µs into the decay: 20·e^{−0.001} ≈ 19.98 %.
+    expect(m.overshootPct).toBeCloseTo(20, 1);
+    expect(m.peakTime!).toBeLessThan(0.1e-6);
+    expect(m.riseTime).toBeNull();
+    let last = 0;
+    for (let x = t0; x < 1e-3; x += 1e-9) if (Math.abs(f(x) - 1) > 0.01) last = x;
+    expect(m.settlingTime1pct! * 1e6).toBeCloseTo((last - t0) * 1e6, 1);
+    // Ringing of the recovery: ωd = ω, ζ = (1/τ)/√((1/τ)² + ω²).
+    expect(m.ringing.pencilHz! / 40e3).toBeCloseTo(1, 3);
+    expect(m.ringing.pencilDamping!).toBeCloseTo(1 / tau / Math.hypot(1 / tau, w), 3);
+  });
+});
