@@ -3,6 +3,7 @@
  * The workbench: Circuit (schematic, part values, panels) · Response (plots) · Verdict (figures, checks, cautions),
  * with the studies drawer at the bottom. Owns the live runner and the study pool for the page's lifetime.
  */
+import Link from "next/link";
 import { useEffect, useRef, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
 import { compileNetlistJson } from "@/lib/design/compile";
@@ -77,6 +78,13 @@ function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }
       >
         {dirty ? "● Unsaved changes" : "Saved"}
       </span>
+      {scenarioId && (
+        <nav aria-label="Scenario" className="flex gap-3 text-[12px]">
+          <Link href={`/scenarios/${scenarioId}/history`} className="text-signal hover:underline">History</Link>
+          <Link href={`/scenarios/${scenarioId}/review`} className="text-signal hover:underline">Review</Link>
+          <Link href={`/scenarios/${scenarioId}/traces`} className="text-signal hover:underline">Bench traces</Link>
+        </nav>
+      )}
       <div className="ml-auto flex flex-wrap items-center gap-2">
         <span className="num w-28 text-right text-[11px] text-ink-muted" data-testid="run-status" aria-live="off">
           {pending ? "simulating…" : elapsed !== null ? `ran in ${Math.round(elapsed)} ms` : ""}

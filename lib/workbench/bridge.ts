@@ -27,6 +27,8 @@ export class WorkerBridge<Api> {
   private queue: Promise<unknown> = Promise.resolve();
   private idleTimer: ReturnType<typeof setTimeout> | null = null;
   private running = 0;
+  /** Rejects the job in flight when the worker dies (a load error or an uncaught error inside it). */
+  private failCurrent: ((e: Error) => void) | null = null;
   /** Times a worker was started (for tests and diagnostics). */
   starts = 0;
 
@@ -42,8 +44,15 @@ export class WorkerBridge<Api> {
 
   private start(): Remote<Api> {
     if (!this.api) {
-      this.worker = this.createWorker();
-      this.api = wrap<Api>(this.worker);
+      const worker = this.createWorker();
+      // comlink would wait for ever on a worker that failed to load or crashed: fail the job instead.
+      worker.addEventListener("error", (ev: Event) => {
+        const msg = (ev as ErrorEvent).message || "the worker could not start";
+        if (this.worker === worker) this.terminate();
+        this.failCurrent?.(new Error(`The simulation worker stopped: ${msg}`));
+      });
+      this.worker = worker;
+      this.api = wrap<Api>(worker);
       this.starts += 1;
     }
     return this.api;
@@ -85,19 +94,35 @@ export class WorkerBridge<Api> {
     if (signal.aborted) return Promise.reject(abortError());
     const api = this.start();
     return new Promise<T>((resolve, reject) => {
+      let settled = false;
+      const done = () => {
+        settled = true;
+        signal.removeEventListener("abort", onAbort);
+        if (this.failCurrent === fail) this.failCurrent = null;
+      };
       const onAbort = () => {
+        if (settled) return;
+        done();
         this.terminate();
         reject(abortError());
       };
+      const fail = (e: Error) => {
+        if (settled) return;
+        done();
+        reject(e);
+      };
+      this.failCurrent = fail;
       signal.addEventListener("abort", onAbort, { once: true });
       job(api).then(
         (v) => {
-          signal.removeEventListener("abort", onAbort);
+          if (settled) return;
+          done();
           if (signal.aborted) reject(abortError());
           else resolve(v);
         },
         (e: unknown) => {
-          signal.removeEventListener("abort", onAbort);
+          if (settled) return;
+          done();
           reject(signal.aborted ? abortError() : e);
         },
       );

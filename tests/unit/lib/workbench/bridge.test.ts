@@ -102,3 +102,24 @@ describe("WorkerPool", () => {
     expect(chunkRanges(10, 4)).toEqual([[0, 4], [4, 8], [8, 10]]);
   });
 });
+
+describe("WorkerBridge when the worker dies", () => {
+  it("fails the job in flight with a message instead of waiting for ever, and starts afresh", async () => {
+    let first: (Worker & EventTarget) | null = null;
+    const bridge = new WorkerBridge<Api>(() => {
+      const w = fakeWorker();
+      if (!first) first = w as Worker & EventTarget;
+      return w;
+    }, 0);
+    const p = bridge.run(new AbortController().signal, (w) => w.slow(5_000));
+    setTimeout(() => {
+      const ev = new Event("error") as Event & { message?: string };
+      Object.defineProperty(ev, "message", { value: "SyntaxError in sim.worker" });
+      first!.dispatchEvent(ev);
+    }, 20);
+    await expect(p).rejects.toThrow("The simulation worker stopped: SyntaxError in sim.worker");
+    expect(await bridge.run(new AbortController().signal, (w) => w.double(4))).toBe(8);
+    expect(bridge.starts).toBe(2);
+    bridge.terminate();
+  });
+});
