@@ -182,6 +182,12 @@ export interface LoopMetrics {
   crossoverHz: number | null;
   /** frequency where the phase reaches −180°, Hz */
   phaseCrossoverHz: number | null;
+  /**
+   * modulus (stability) margin: the smallest distance of T(jω) from −1, min |1 + T| (1 = far, 0 = oscillating),
+   * and where it occurs. It catches what a single crossover misses, e.g. a notch that almost touches 0 dB.
+   */
+  modulusMargin: number;
+  modulusMarginHz: number;
 }
 
 function logInterp(f: Float64Array, i: number, frac: number): number {
@@ -227,7 +233,12 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
       break;
     }
   }
-  return { magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, phaseCrossoverHz };
+  let modulusMargin = Infinity, modulusMarginHz = NaN;
+  for (let i = 0; i < n; i++) {
+    const d = Math.hypot(1 + re[i], im[i]);
+    if (d < modulusMargin) { modulusMargin = d; modulusMarginHz = freq[i]; }
+  }
+  return { magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, phaseCrossoverHz, modulusMargin, modulusMarginHz };
 }
 
 /** −3 dB bandwidth relative to the first (lowest-frequency) point, Hz; null if it never drops that far. */

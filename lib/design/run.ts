@@ -124,6 +124,9 @@ export interface LoopGainResult {
   gainMarginDb: number | null;
   crossoverHz: number | null;
   phaseCrossoverHz: number | null;
+  /** min |1 + T| and its frequency (see LoopMetrics) */
+  modulusMargin: number;
+  modulusMarginHz: number;
 }
 
 /**
@@ -164,6 +167,7 @@ export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: 
   return {
     freq: a.freq, re, im, magDb: m.magDb, phaseDeg: m.phaseDeg,
     phaseMarginDeg: m.phaseMarginDeg, gainMarginDb: m.gainMarginDb, crossoverHz: m.crossoverHz, phaseCrossoverHz: m.phaseCrossoverHz,
+    modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz,
   };
 }
 

@@ -62,6 +62,14 @@ describe("phase margin ↔ damping ↔ overshoot (second-order loop)", () => {
     const m = loopMetrics(f, re, im);
     expect(m.phaseCrossoverHz! / 1000).toBeCloseTo(Math.sqrt(3), 2);
     expect(m.gainMarginDb!).toBeCloseTo(-20 * Math.log10(4 / 8), 1);
+    // Modulus margin: the closed form |1 + 4/(1+jx)³| minimised on a dense grid (independent of the 150/decade grid).
+    let best = Infinity;
+    for (let x = 0.01; x < 100; x *= 1.0001) {
+      const dr = 1 - 3 * x * x, di = 3 * x - x ** 3, d2 = dr * dr + di * di;
+      best = Math.min(best, Math.hypot(1 + (4 * dr) / d2, (-4 * di) / d2));
+    }
+    expect(m.modulusMargin).toBeCloseTo(best, 3);
+    expect(m.modulusMargin).toBeLessThanOrEqual(0.5); // |1 + T| at the −180° point is 1 − K/8 = 0.5
   });
 });
 
