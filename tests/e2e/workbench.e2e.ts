@@ -1,7 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
+import type { Browser, Download, Page } from "playwright-core";
 import { BASE_URL, launch, watchErrors } from "./browser";
 import { signIn } from "./auth";
+
+async function readDownload(d: Download): Promise<string> {
+  const stream = await d.createReadStream();
+  const chunks: Buffer[] = [];
+  for await (const c of stream) chunks.push(c as Buffer);
+  return Buffer.concat(chunks).toString("utf8");
+}
 
 /**
  * The workbench in Chromium against the production build: the valve-coil demo re-simulates on an edit, a sweep draws
@@ -16,7 +23,7 @@ describe("workbench", () => {
 
   beforeAll(async () => {
     browser = await launch();
-    page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    page = await browser.newPage({ viewport: { width: 1280, height: 800 }, acceptDownloads: true });
     errors = watchErrors(page);
     await signIn(page, "designer");
     await page.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
@@ -65,6 +72,25 @@ describe("workbench", () => {
     await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(before);
     await page.keyboard.press("Control+Shift+z");
     await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(next);
+  });
+
+  it("exports the step response as CSV and the netlist as JSON", async () => {
+    const [csv] = await Promise.all([page.waitForEvent("download"), page.getByTestId("export-step-csv").click()]);
+    expect(csv.suggestedFilename()).toBe("Step-response.csv");
+    const text = await readDownload(csv);
+    const lines = text.trimEnd().split("\r\n");
+    expect(lines[0]).toBe("time (s),Load current (A),Command (V),Op-amp output (V),Collector/drain (V)");
+    expect(lines.length).toBeGreaterThan(20);
+    // Every row has five numbers and time increases down the file.
+    const times = lines.slice(1).map((l) => l.split(",").map(Number));
+    expect(times.every((r) => r.length === 5 && r.every(Number.isFinite))).toBe(true);
+    for (let i = 1; i < times.length; i++) expect(times[i]![0]!).toBeGreaterThan(times[i - 1]![0]!);
+
+    const [json] = await Promise.all([page.waitForEvent("download"), page.getByTestId("export-netlist").click()]);
+    const netlist = JSON.parse(await readDownload(json)) as { elements: { kind: string; name: string }[]; analysis: { kind: string } };
+    expect(netlist.analysis.kind).toBe("tran");
+    expect(netlist.elements.some((e) => e.kind === "opamp")).toBe(true);
+    expect(netlist.elements.some((e) => e.name === "CCOMP")).toBe(true);
   });
 
   it("marks a value that is not a number in place, with the reason, and does not apply it", async () => {
