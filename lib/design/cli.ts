@@ -1,5 +1,5 @@
 /**
- * `npm run --silent sim -- --scenario FILE.json --study op|loopgain|step|checks|closedloop|zout|dc|sweep|spread|compensate`
+ * `npm run --silent sim -- --scenario FILE.json --study op|loopgain|step|checks|closedloop|zout|dc|sweep|map|spread|compensate`
  * runs a scenario study and prints its result as JSON on stdout (Float64Arrays as plain arrays).
  *
  * Exit codes: 0 done; 2 bad arguments or an invalid scenario (the message names the field); 3 the engine could not
@@ -11,10 +11,10 @@ import { isSimError } from "../sim";
 import { runChecks } from "./checks";
 import { runClosedLoop, runDcTransfer, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "./run";
 import { ScenarioError } from "./schema";
-import { compensate, spread, sweep1d, worstCaseCorners } from "./studies";
+import { compensate, map2d, spread, sweep1d, worstCaseCorners } from "./studies";
 import { upgradeScenario } from "./upgrade";
 
-export const STUDIES = ["op", "loopgain", "step", "checks", "closedloop", "zout", "dc", "sweep", "spread", "compensate"] as const;
+export const STUDIES = ["op", "loopgain", "step", "checks", "closedloop", "zout", "dc", "sweep", "map", "spread", "compensate"] as const;
 
 const USAGE = `usage: npm run --silent sim -- --scenario FILE.json --study ${STUDIES.join("|")} [--budget-ms N] [--runs N] [--seed N] [--pretty]`;
 
@@ -88,6 +88,7 @@ export async function main(argv: string[]): Promise<number> {
       case "zout": result = runOutputImpedance(s, options); break;
       case "dc": result = runDcTransfer(s, options); break;
       case "sweep": result = sweep1d(s, s.studies.sweep, { shouldStop, timeBudgetMs: budget }); break;
+      case "map": result = map2d(s, s.studies.map, { shouldStop, timeBudgetMs: budget }); break;
       case "spread": {
         const runs = intFlag(argv, "--runs") ?? s.studies.spread.runs;
         const seedText = flag(argv, "--seed");
