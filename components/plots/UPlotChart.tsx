@@ -115,7 +115,7 @@ function drawMarkers(u: uPlot, list: Marker[] | undefined) {
       ctx.moveTo(left, Y);
       ctx.lineTo(left + width, Y);
       ctx.stroke();
-      ctx.fillText(m.label, left + 4 * pr, Y - 4 * pr);
+      ctx.fillText(m.label, left + width - ctx.measureText(m.label).width - 4 * pr, Y - 4 * pr);
     }
   }
   ctx.restore();
