@@ -81,6 +81,16 @@ describe("library: upload, submit, validate, review", () => {
     writeFileSync(csvPath, captureCsv(step.time, step.iLoad, scenario.parts.senseResistor));
 
     await page.goto(`${BASE_URL}/scenarios/${scenarioId}/traces`, { waitUntil: "load" });
+    // A malformed capture is refused in place, naming the line and the problem.
+    const broken = csvPath.replace(/\.csv$/, "-broken.csv");
+    const lines = captureCsv(step.time, step.iLoad, scenario.parts.senseResistor).split("\n");
+    lines[9] = "12.5,n/a"; // line 10
+    writeFileSync(broken, lines.join("\n"));
+    await page.getByLabel("CSV file").setInputFiles(broken);
+    await page.getByTestId("trace-error").waitFor();
+    expect(await page.getByTestId("trace-error").textContent()).toContain('line 10: column 2 (CH1): "n/a" is not a number');
+    expect(await page.getByRole("button", { name: "Upload trace" }).isDisabled()).toBe(true);
+
     await page.getByLabel("CSV file").setInputFiles(csvPath);
     await page.getByTestId("trace-preview").waitFor();
     expect(await page.getByTestId("trace-preview").textContent()).toContain("4,000 rows");
@@ -161,6 +171,19 @@ describe("library: upload, submit, validate, review", () => {
     expect(await page.locator("header.no-print").first().isVisible()).toBe(false);
     expect(await page.getByTestId("review-sign-off").isVisible()).toBe(true);
     expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("a designer starts a new scenario from the validated entry", async () => {
+    const page = await designerCtx.newPage();
+    await page.goto(`${BASE_URL}${entryUrl}`, { waitUntil: "load" });
+    await page.getByLabel("New scenario title").fill("Valve coil driver, second channel");
+    await page.getByRole("button", { name: "Start from this" }).click();
+    await page.waitForURL((u) => /^\/scenarios\/[0-9a-f-]{36}$/.test(u.pathname) && u.pathname !== `/scenarios/${scenarioId}`, { timeout: 30_000 });
+    const newId = new URL(page.url()).pathname.split("/")[2];
+    const created = await (await page.request.get(`${BASE_URL}/api/scenarios/${newId}`)).json();
+    expect(created.title).toBe("Valve coil driver, second channel");
+    expect(created.revisionNumber).toBe(1);
     await page.close();
   });
 });
