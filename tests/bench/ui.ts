@@ -64,7 +64,7 @@ export async function run(): Promise<void> {
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signIn(page, "designer");
     await page.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
-    await page.getByRole("link", { name: "Valve coil driver" }).first().click();
+    await page.getByRole("link", { name: "Valve coil driver", exact: true }).first().click();
     await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
     await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
     const times: number[] = [];
