@@ -15,6 +15,27 @@ import {
 export interface OperatingPointView {
   nodes: Record<string, number>;
   currents: Record<string, number>;
+  devices?: Record<string, object>;
+}
+
+/** Branch currents and device figures worth reading off the operating point, as one line. */
+function opSummary(op: OperatingPointView): string {
+  const parts: string[] = [];
+  const ib = op.currents.RBASE;
+  if (ib !== undefined) parts.push(`I(drive) ${formatEng(Math.abs(ib), "A")}`);
+  let p = 0;
+  let any = false;
+  for (const name of ["Q1", "Q2", "M1"]) {
+    const d = op.devices?.[name] as { power?: number } | undefined;
+    if (d?.power !== undefined) {
+      p += d.power;
+      any = true;
+    }
+  }
+  if (any) parts.push(`P(pass) ${formatEng(p, "W")}`);
+  const u = op.devices?.U1 as { limiting?: boolean } | undefined;
+  if (u?.limiting) parts.push("op-amp limiting");
+  return parts.join(" · ");
 }
 
 export interface SchematicProps {
@@ -405,6 +426,9 @@ export function Schematic({ scenario, selected, onSelect, op, showOp }: Schemati
         <HighSide s={scenario} sel={selected} on={onSelect} op={view} />
       ) : (
         <Sink s={scenario} sel={selected} on={onSelect} op={view} />
+      )}
+      {view && (
+        <text x={6} y={394} fontSize={12} fill="#0F766E" className="num" data-testid="op-summary">{opSummary(view)}</text>
       )}
       {view && loadCurrent !== undefined && (
         <text x={586} y={394} fontSize={12.5} textAnchor="end" fill="#0F766E" fontWeight={600} className="num">
