@@ -307,6 +307,24 @@ describe("authorization matrix: server actions", () => {
     expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "denied", lead: "ok", outsider: "denied" });
   });
 
+  it("switchTeamAction (validatedAction): session first, then the form's fields, then membership", async () => {
+    const { switchTeamAction } = await import("@/app/(account)/actions");
+    const form = (teamId: string) => {
+      const fd = new FormData();
+      fd.set("teamId", teamId);
+      return fd;
+    };
+    jar.cookie = undefined;
+    expect(await switchTeamAction({}, form(f.outsider.teamId))).toEqual({ message: "Your session has ended: sign in again." });
+    await as("viewer");
+    const bad = await switchTeamAction({}, form("not-a-team"));
+    expect(Object.keys(bad.fieldErrors ?? {})).toEqual(["teamId"]);
+    expect(await switchTeamAction({}, form(f.outsider.teamId))).toEqual({ message: "You are not a member of that team." });
+    // Into a team the user belongs to: the action ends in a redirect to the scenarios (Next's redirect throws).
+    await as("outsider");
+    await expect(switchTeamAction({}, form(f.outsider.teamId))).rejects.toThrow(/NEXT_REDIRECT/);
+  });
+
   it("commentOnScenario: every member of the team, viewers included", async () => {
     const got: Record<string, string> = {};
     for (const w of WHO) got[w] = await outcome(w, () => commentOnScenario({ scenarioId: f.scenarioId, body: `from ${w}` }));
