@@ -3,7 +3,7 @@
 import { useEffect, useState } from "react";
 import { WorkerBridge } from "@/lib/workbench/bridge";
 import { WorkerPool, poolSize } from "@/lib/workbench/pool";
-import { LiveRunner } from "@/lib/workbench/live";
+import { LiveRunner, changedApartFrom } from "@/lib/workbench/live";
 import { createSimWorker } from "@/lib/workbench/worker";
 import type { SimWorkerApi } from "@/workers/sim.worker";
 import { useWbStore } from "./context";
@@ -27,7 +27,7 @@ export function useEngine(): Engine | null {
         bridge.run(signal, (api) => api.liveRest(scenario)),
       ]);
       return { step, ...rest };
-    });
+    }, { affectsRun: changedApartFrom(["studies"]) });
     runner.start();
     setEngine({ bridge, pool });
     return () => {

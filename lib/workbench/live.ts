@@ -13,6 +13,8 @@ export const LIVE_DEBOUNCE_MS = 60;
 export const STALE_KILL_MS = 200;
 
 export interface LiveRunnerOptions {
+  /** Whether a change from `prev` to `next` needs a new run (default: any change). */
+  affectsRun?: (next: unknown, prev: unknown) => boolean;
   debounceMs?: number;
   staleKillMs?: number;
   now?: () => number;
@@ -21,6 +23,21 @@ export interface LiveRunnerOptions {
 export type LiveJob<S, R> = (signal: AbortSignal, scenario: S) => Promise<R>;
 
 /** A readable message from whatever a run threw (engine SimError, scenario error, worker crash). */
+/**
+ * For objects edited by copying along the changed path: true when any top-level field other than `ignored` changed.
+ * (Study settings live in the scenario but do not change what the live run computes.)
+ */
+export function changedApartFrom(ignored: readonly string[]) {
+  return (next: unknown, prev: unknown): boolean => {
+    if (next === null || prev === null || typeof next !== "object" || typeof prev !== "object") return next !== prev;
+    const a = next as Record<string, unknown>, b = prev as Record<string, unknown>;
+    for (const k of new Set([...Object.keys(a), ...Object.keys(b)])) {
+      if (!ignored.includes(k) && a[k] !== b[k]) return true;
+    }
+    return false;
+  };
+}
+
 export function errorMessage(e: unknown): string {
   if (e instanceof Error) return e.message || e.name;
   if (e && typeof e === "object" && "message" in e && typeof (e as { message: unknown }).message === "string") {
@@ -36,6 +53,7 @@ export class LiveRunner<S, R, T extends Record<string, unknown>> {
   private readonly debounceMs: number;
   private readonly staleKillMs: number;
   private readonly now: () => number;
+  private readonly affectsRun: (next: unknown, prev: unknown) => boolean;
 
   constructor(
     private readonly store: StoreApi<WorkbenchState<S, R, T>>,
@@ -45,6 +63,7 @@ export class LiveRunner<S, R, T extends Record<string, unknown>> {
     this.debounceMs = options.debounceMs ?? LIVE_DEBOUNCE_MS;
     this.staleKillMs = options.staleKillMs ?? STALE_KILL_MS;
     this.now = options.now ?? (() => performance.now());
+    this.affectsRun = options.affectsRun ?? (() => true);
   }
 
   /** Run now for the current scenario and then after every scenario change. */
@@ -52,7 +71,9 @@ export class LiveRunner<S, R, T extends Record<string, unknown>> {
     if (this.unsubscribe) return;
     this.unsubscribe = this.store.subscribe((st, prev) => {
       // A drag (coalesced edits) waits out the debounce; a discrete edit (Enter, a choice, undo) runs at once.
-      if (st.scenario !== prev.scenario) this.schedule(st.lastEdit === null ? 0 : this.debounceMs);
+      if (st.scenario !== prev.scenario && this.affectsRun(st.scenario, prev.scenario)) {
+        this.schedule(st.lastEdit === null ? 0 : this.debounceMs);
+      }
     });
     void this.runNow();
   }

@@ -77,3 +77,27 @@ describe("LiveRunner", () => {
     runner.dispose();
   });
 });
+
+import { changedApartFrom } from "@/lib/workbench/live";
+
+describe("LiveRunner relevance", () => {
+  it("does not re-run for a change only in the ignored fields (study settings)", async () => {
+    type S2 = { parts: { c: number }; studies: { points: number } };
+    const store = createWorkbenchStore<S2, S2, Record<string, never>>({ scenario: { parts: { c: 1 }, studies: { points: 7 } }, studyKinds: [] });
+    let runs = 0;
+    const runner = new LiveRunner(store, async (_s, sc: S2) => {
+      runs++;
+      return sc;
+    }, { debounceMs: 5, affectsRun: changedApartFrom(["studies"]) });
+    runner.start();
+    await wait(20);
+    expect(runs).toBe(1);
+    store.getState().edit((s) => ({ ...s, studies: { points: 9 } }));
+    await wait(20);
+    expect(runs).toBe(1);
+    store.getState().edit((s) => ({ ...s, parts: { c: 2 } }));
+    await wait(20);
+    expect(runs).toBe(2);
+    runner.dispose();
+  });
+});
