@@ -1,7 +1,7 @@
 "use client";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
@@ -46,16 +46,22 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
   const [page, setPage] = useState(1);
   const [deleted, setDeleted] = useState(false);
   const [actionError, setActionError] = useState<string | null>(null);
+  // The search box asks the server a beat after typing stops, not on every key.
+  const [query, setQuery] = useState("");
+  useEffect(() => {
+    const t = setTimeout(() => setQuery(q.trim()), 250);
+    return () => clearTimeout(t);
+  }, [q]);
 
   const url = useMemo(() => {
     const p = new URLSearchParams({ sort, dir, page: String(page), pageSize: "20" });
-    if (q.trim()) p.set("q", q.trim());
+    if (query) p.set("q", query);
     if (owner) p.set("owner", owner);
     if (template) p.set("template", template);
     if (status) p.set("status", status);
     if (deleted) p.set("deleted", "1");
     return `/api/scenarios?${p}`;
-  }, [q, owner, template, status, sort, dir, page, deleted]);
+  }, [query, owner, template, status, sort, dir, page, deleted]);
   const { data, error, isLoading, mutate } = useSWR<ListResponse, FetchError>(url, fetcher, { keepPreviousData: true });
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
   const templateTitle = (id: string) => templates.find((t) => t.id === id)?.title ?? id;
@@ -217,7 +223,10 @@ function NewScenario({ templates, onCreated }: { templates: { id: string; title:
   }
   return (
     <form onSubmit={submit} className="mt-8 flex flex-wrap items-end gap-3 rounded border border-hairline bg-white p-4" noValidate aria-labelledby="new-scenario-title">
-      <h2 id="new-scenario-title" className="w-full text-base font-semibold">New scenario</h2>
+      <h2 id="new-scenario-title" className="w-full text-base font-semibold">
+        New scenario{" "}
+        <Link href="/scenarios/new" className="ml-2 text-sm font-normal text-signal underline">or pick a template in the workbench</Link>
+      </h2>
       <div className="flex flex-col gap-1">
         <label htmlFor="new-title" className="text-xs font-medium text-ink-muted">Title</label>
         <input id="new-title" name="title" required maxLength={200} aria-invalid={errors.title ? true : undefined} aria-describedby={errors.title ? "new-title-err" : undefined} className="w-72 rounded border border-hairline px-2 py-1.5 text-sm aria-[invalid=true]:border-verdict-fail" />
