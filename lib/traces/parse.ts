@@ -99,6 +99,48 @@ function trimTrailingEmpty(cells: string[]): string[] {
   return n === cells.length ? cells : cells.slice(0, n);
 }
 
+/** Lines read to find the header and the start of the data. */
+const HEAD_LINES = 500;
+
+/** Number of lines (a final line without a newline counts; a trailing newline does not add one). */
+function countLines(text: string): number {
+  let n = 1;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10) n++;
+    else if (c === 13) { n++; if (text.charCodeAt(i + 1) === 10) i++; }
+  }
+  return n;
+}
+
+/** Index just past the end of line `n` (1-based), or the text's length. */
+function nthLineEnd(text: string, n: number): number {
+  let seen = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10 || c === 13) {
+      if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
+      if (++seen === n) return i + 1;
+    }
+  }
+  return text.length;
+}
+
+/** The last `n` non-empty lines, read from the end. */
+function lastLines(text: string, n: number): string[] {
+  const out: string[] = [];
+  let end = text.length;
+  while (end > 0 && out.length < n) {
+    let i = end - 1;
+    while (i >= 0 && text.charCodeAt(i) !== 10 && text.charCodeAt(i) !== 13) i--;
+    const line = text.slice(i + 1, end);
+    if (line.trim() !== "") out.push(line);
+    end = i;
+    if (end > 0 && text.charCodeAt(end) === 10 && text.charCodeAt(end - 1) === 13) end--;
+  }
+  return out;
+}
+
 /** Pick the delimiter that splits the last lines of the file into the same number (≥ 2) of fields. */
 function detectDelimiter(lines: string[]): string | null {
   const tail: string[] = [];
@@ -132,17 +174,23 @@ export function parseTraceCsv(text: string, options: TraceParseOptions = {}): Pa
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   if (body.trim() === "") throw new TraceParseError([{ line: 0, message: "the file is empty" }]);
 
-  const rawLines = body.split(/\r\n|\n|\r/);
-  const delimiter = detectDelimiter(rawLines);
+  // The file is read twice without splitting it whole (a 250 000-row export would otherwise make a quarter of a
+  // million row arrays that live through the whole parse): the first HEAD_LINES lines find the header and the data
+  // block, then papaparse streams the rows (step callback) straight into typed arrays.
+  const lineCount = countLines(body);
+  const headEnd = nthLineEnd(body, HEAD_LINES);
+  const headText = body.slice(0, headEnd);
+  const headLines = headText.split(/\r\n|\n|\r/);
+  const delimiter = detectDelimiter(lastLines(body, 20));
   if (!delimiter) {
     throw new TraceParseError([
-      { line: rawLines.length, message: "no column delimiter found: expected a time column and at least one channel separated by commas, semicolons or tabs" },
+      { line: lineCount, message: "no column delimiter found: expected a time column and at least one channel separated by commas, semicolons or tabs" },
     ]);
   }
   const decimalComma = delimiter !== ",";
 
   // One line per row: with quotes only around single-line headings, papaparse's row index is the line index.
-  const parsed = Papa.parse<string[]>(body, { delimiter, skipEmptyLines: false, header: false, dynamicTyping: false });
+  const parsed = Papa.parse<string[]>(headText, { delimiter, skipEmptyLines: false, header: false, dynamicTyping: false });
   const rows = parsed.data;
   const problems: TraceProblem[] = [];
   for (const err of parsed.errors) {
@@ -177,7 +225,12 @@ export function parseTraceCsv(text: string, options: TraceParseOptions = {}): Pa
   }
   if (start < 0) {
     throw new TraceParseError([
-      { line: 0, message: "no block of numeric rows found: expected a time column and at least one channel" },
+      {
+        line: 0,
+        message: lineCount > HEAD_LINES
+          ? `no block of numeric rows found in the first ${HEAD_LINES} lines: expected a time column and at least one channel`
+          : "no block of numeric rows found: expected a time column and at least one channel",
+      },
     ]);
   }
   if (width - 1 > MAX_TRACE_CHANNELS) {
@@ -212,7 +265,7 @@ export function parseTraceCsv(text: string, options: TraceParseOptions = {}): Pa
     if (isUnitsRow(last) && above.length === 1) unitsRow = last;
     else names = last;
   }
-  const preamble = rawLines.slice(0, preambleEnd).filter((l) => l.trim() !== "").slice(0, 40);
+  const preamble = headLines.slice(0, preambleEnd).filter((l) => l.trim() !== "").slice(0, 40);
 
   const warnings: string[] = [];
   const columnLabel = (c: number) => {
@@ -262,56 +315,70 @@ export function parseTraceCsv(text: string, options: TraceParseOptions = {}): Pa
     });
   }
 
-  // Data rows.
+  // Data rows, streamed. Arrays are sized for every line after the start and trimmed at the end.
+  const capacity = Math.max(0, Math.min(lineCount - start, maxRows + 1));
+  let time = new Float64Array(capacity);
+  let values = Array.from({ length: nChannels }, () => new Float64Array(capacity));
   let count = 0;
-  for (let i = start; i < rows.length; i++) if (trimTrailingEmpty(rows[i]).length > 0) count++;
+  let overLine = 0;
+  let prevTime = -Infinity;
+  let index = -1;
+  const rowProblems: TraceProblem[] = [];
+  Papa.parse<string[]>(body, {
+    delimiter,
+    skipEmptyLines: false,
+    header: false,
+    dynamicTyping: false,
+    step(result) {
+      index++;
+      if (index < start) return;
+      const line = index + 1;
+      if (result.errors.length && rowProblems.length < MAX_PROBLEMS) {
+        for (const err of result.errors) if (err.type === "Quotes") rowProblems.push({ line, message: err.message });
+      }
+      const raw = result.data;
+      let n = raw.length;
+      while (n > 0 && raw[n - 1].trim() === "") n--;
+      if (n === 0) return;
+      count++;
+      if (count > maxRows) {
+        if (overLine === 0) overLine = line;
+        return;
+      }
+      if (rowProblems.length >= MAX_PROBLEMS) return;
+      const k = count - 1;
+      if (n !== width) {
+        rowProblems.push({ line, message: `expected ${width} fields (time and ${nChannels} channel${nChannels > 1 ? "s" : ""}), found ${n}` });
+        return;
+      }
+      for (let c = 0; c < width; c++) {
+        const v = toNumber(raw[c]);
+        if (v === null || !Number.isFinite(v)) {
+          const label = c === 0 ? "time" : channelMeta[c - 1].name;
+          rowProblems.push({ line, message: `column ${c + 1} (${label}): "${raw[c].trim().slice(0, 40)}" is not a number` });
+          return;
+        }
+        if (c === 0) time[k] = v * timeFactor;
+        else values[c - 1][k] = v * channelMeta[c - 1].scale;
+      }
+      if (!(time[k] > prevTime)) {
+        rowProblems.push({ line, message: `time ${raw[0].trim()} does not increase (the row above is at or after it)` });
+      }
+      prevTime = time[k];
+    },
+  });
   if (count > maxRows) {
-    // Name the first line past the limit.
-    let seen = 0;
-    let line = rows.length;
-    for (let i = start; i < rows.length; i++) {
-      if (trimTrailingEmpty(rows[i]).length > 0 && ++seen > maxRows) { line = i + 1; break; }
-    }
-    throw new TraceParseError([{ line, message: `more than ${maxRows.toLocaleString("en")} data rows (the file has ${count.toLocaleString("en")}); the limit is ${maxRows.toLocaleString("en")}` }]);
+    // The limit comes first: the rows past it were not read.
+    throw new TraceParseError([{ line: overLine, message: `more than ${maxRows.toLocaleString("en")} data rows (the file has ${count.toLocaleString("en")}); the limit is ${maxRows.toLocaleString("en")}` }]);
   }
+  if (rowProblems.length) throw new TraceParseError(rowProblems);
   if (count < MIN_TRACE_ROWS) {
     throw new TraceParseError([{ line: start + 1, message: `only ${count} data rows; a step response needs at least ${MIN_TRACE_ROWS}` }]);
   }
-
-  const time = new Float64Array(count);
-  const values = Array.from({ length: nChannels }, () => new Float64Array(count));
-  let k = 0;
-  let prevTime = -Infinity;
-  for (let i = start; i < rows.length && problems.length < MAX_PROBLEMS; i++) {
-    const cells = trimTrailingEmpty(rows[i]);
-    if (cells.length === 0) continue;
-    const line = i + 1;
-    if (cells.length !== width) {
-      problems.push({ line, message: `expected ${width} fields (time and ${nChannels} channel${nChannels > 1 ? "s" : ""}), found ${cells.length}` });
-      k++;
-      continue;
-    }
-    let bad = false;
-    for (let c = 0; c < width; c++) {
-      const v = toNumber(cells[c]);
-      if (v === null || !Number.isFinite(v)) {
-        const label = c === 0 ? "time" : channelMeta[c - 1].name;
-        problems.push({ line, message: `column ${c + 1} (${label}): "${cells[c].trim().slice(0, 40)}" is not a number` });
-        bad = true;
-        break;
-      }
-      if (c === 0) time[k] = v * timeFactor;
-      else values[c - 1][k] = v * channelMeta[c - 1].scale;
-    }
-    if (!bad) {
-      if (!(time[k] > prevTime)) {
-        problems.push({ line, message: `time ${cells[0].trim()} does not increase (the row above is at or after it)` });
-      }
-      prevTime = time[k];
-    }
-    k++;
+  if (count < capacity) {
+    time = time.slice(0, count);
+    values = values.map((v) => v.slice(0, count));
   }
-  if (problems.length) throw new TraceParseError(problems);
 
   return {
     time,

@@ -28,7 +28,8 @@ const LONG = /^(pico|nano|micro|milli|kilo)?(s|sec|secs|seconds?|volts?|v|amps?|
 
 /** Read a unit ("ms", "mV", "A", "Volt", "microseconds"); null when it is not a time, voltage or current unit. */
 export function parseUnit(text: string): ParsedUnit | null {
-  const t = text.trim();
+  // Units rows sometimes bracket the unit: "(s)", "[mV]".
+  const t = text.trim().replace(/^[([]\s*(.*?)\s*[)\]]$/, "$1");
   if (t === "") return null;
   const short = SHORT.exec(t);
   if (short) {

@@ -53,6 +53,14 @@ describe("parseTraceCsv: header styles", () => {
     expect(r.channels[0]).toMatchObject({ name: "CH1", unit: "V", sourceUnit: "V" });
   });
 
+  it("reads a units row written in brackets", () => {
+    const text = ["Time,Ch A", "(ms),[mA]", ...rows(20, 1, (t, a) => `${t},${a}`)].join("\n");
+    const r = parseTraceCsv(text);
+    expect(r.time[2]).toBeCloseTo(2e-3, 15); // 2 ms
+    expect(r.channels[0]).toMatchObject({ name: "Ch A", unit: "A", sourceUnit: "mA" });
+    expect(r.channels[0].values[2]).toBeCloseTo(2e-5, 15); // 0.02 mA
+  });
+
   it("reads slash units, semicolons with decimal commas, and a BOM", () => {
     const text = "\ufeffTime/s;Current/A\n" + rows(20, 0.001, (t, a) => `${t.toFixed(3).replace(".", ",")};${a.toFixed(2).replace(".", ",")}`).join("\n");
     const r = parseTraceCsv(text);
@@ -140,6 +148,11 @@ describe("parseTraceCsv: broken files name the line and the problem", () => {
   it("too few rows", () => {
     const text = ["Time (s),CH1 (V)", ...good(MIN_TRACE_ROWS - 1)].join("\n");
     expectProblem(() => parseTraceCsv(text), 2, /only 15 data rows/);
+  });
+
+  it("a settings preamble longer than the 500 lines searched for the header", () => {
+    const text = [...Array.from({ length: 600 }, (_, k) => `Setting ${k},value`), "Time (s),CH1 (V)", ...good()].join("\n");
+    expectProblem(() => parseTraceCsv(text), 0, /no block of numeric rows found in the first 500 lines/);
   });
 
   it("an empty file, a single column, and a channel in seconds", () => {
