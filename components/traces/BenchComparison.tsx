@@ -121,6 +121,12 @@ export function BenchComparison(props: {
           </fieldset>
         </div>
       )}
+      {measured && measured.unit !== "A" && (
+        <p role="note" className="text-sm text-verdict-warn" data-testid="unit-warning">
+          This channel is in {measured.unit || "no unit"}; the simulation is the load current in A. Upload it again with a
+          probe factor or the sense resistor so the two compare.
+        </p>
+      )}
       {isLoading && <p role="status" className="text-sm text-ink-muted">Loading the trace…</p>}
       {error && <p role="alert" className="text-sm text-verdict-fail">Could not load the trace: {error.message}</p>}
       {result && !result.ok && <p role="alert" className="text-sm text-verdict-fail">Cannot compare: {result.error}</p>}
