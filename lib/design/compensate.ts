@@ -1,0 +1,183 @@
+/** Compensate: the E-series compensation capacitor (and base/gate resistor) that meets the targets over the load range. */
+import { isSimError } from "../sim";
+import { formatEng } from "../units/eng";
+import { eValuesBetween, nearestE, type ESeriesName } from "./eseries";
+import { withParameter } from "./parameters";
+import { runLoopGain, runStep } from "./run";
+import type { Scenario } from "./schema";
+import { checkStop, clampRange, engineOptions, type IndexRange, type StudyOptions } from "./study-common";
+
+
+export interface CompensateSettings {
+  targetPhaseMarginDeg: number;
+  maxOvershootPct: number;
+  series: ESeriesName;
+  tuneBaseResistor: boolean;
+}
+
+export interface CompensateCandidate {
+  compCapacitor: number;
+  baseResistor: number;
+}
+
+/** The load corners the design must serve: lightest, nominal and heaviest load resistance (and cell voltages). */
+export function loadCorners(s: Scenario): Scenario[] {
+  const L = s.load;
+  const rs = [...new Set([L.resistanceMin, L.resistance, L.resistanceMax].filter((r) => r > 0))];
+  if (L.kind === "led" || rs.length === 0) return [s];
+  return rs.map((r) => withParameter(s, "load.resistance", r));
+}
+
+/** Candidates: series capacitor values from 10 pF to 100 nF (× base resistors from 0.5× to 2× the present one). */
+export function compensateCandidates(s: Scenario, settings: CompensateSettings): CompensateCandidate[] {
+  const caps = eValuesBetween(10e-12, 100e-9, settings.series);
+  const rbs = settings.tuneBaseResistor
+    ? [...new Set([0.5, 1, 2].map((f) => nearestE(s.parts.baseResistor * f, settings.series)))]
+    : [s.parts.baseResistor];
+  const out: CompensateCandidate[] = [];
+  for (const rb of rbs) for (const c of caps) out.push({ compCapacitor: c, baseResistor: rb });
+  return out;
+}
+
+function applyCandidate(s: Scenario, c: CompensateCandidate): Scenario {
+  return withParameter(withParameter(s, "parts.compCapacitor", c.compCapacitor), "parts.baseResistor", c.baseResistor);
+}
+
+export interface CompensateScanRow extends CompensateCandidate {
+  index: number;
+  /** smallest phase margin over the load corners, degrees (NaN when a corner failed) */
+  minPhaseMarginDeg: number;
+}
+
+/** Phase-margin scan of candidates [start, end) over the load corners (AC only: fast; split it across a pool). */
+export function compensateScan(s: Scenario, settings: CompensateSettings, opts: StudyOptions = {}, range?: IndexRange): CompensateScanRow[] {
+  const cands = compensateCandidates(s, settings);
+  const r = clampRange(range, cands.length);
+  const corners = loadCorners(s);
+  const rows: CompensateScanRow[] = [];
+  // Coarse AC grid: 10 points per decade is enough to locate crossover by interpolation.
+  for (let i = r.start; i < r.end; i++) {
+    checkStop(opts);
+    let minPm = Infinity;
+    for (const corner of corners) {
+      try {
+        const pm = runLoopGain(applyCandidate(corner, cands[i]), engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg;
+        minPm = Math.min(minPm, pm ?? NaN);
+      } catch (e) {
+        if (isSimError(e) && e.code === "cancelled") throw e;
+        if (!isSimError(e)) throw e;
+        minPm = NaN;
+      }
+    }
+    rows.push({ ...cands[i], index: i, minPhaseMarginDeg: minPm });
+    opts.onProgress?.(i - r.start + 1, r.end - r.start);
+  }
+  return rows;
+}
+
+export interface CompensateResult {
+  chosen: (CompensateCandidate & {
+    minPhaseMarginDeg: number;
+    worstOvershootPct: number;
+    worstSettlingTime1pct: number;
+    phaseMarginToSpareDeg: number;
+    overshootToSparePct: number;
+  }) | null;
+  /** every candidate's phase margin, and the step metrics of those that were simulated */
+  scanned: CompensateScanRow[];
+  stepped: (CompensateCandidate & { worstOvershootPct: number; worstSettlingTime1pct: number })[];
+  message: string;
+}
+
+/**
+ * Pick among scanned candidates. Those meeting the phase-margin target at every load corner are ordered by
+ * capacitance (a smaller capacitor means a faster loop). Overshoot falls as the capacitor grows, so a bisection over
+ * that list finds the smallest value whose worst-corner overshoot meets the limit; it and the next `extra` values
+ * above it are compared and the fastest worst-case settling wins. Each step run covers every load corner.
+ */
+export function compensatePick(s: Scenario, settings: CompensateSettings, rows: CompensateScanRow[], opts: StudyOptions = {}, extra = 2): CompensateResult {
+  const corners = loadCorners(s);
+  const passing = rows
+    .filter((r) => Number.isFinite(r.minPhaseMarginDeg) && r.minPhaseMarginDeg >= settings.targetPhaseMarginDeg)
+    .sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
+  const stepped: CompensateResult["stepped"] = [];
+  const cache = new Map<number, { os: number; ts: number } | null>();
+  const measure = (k: number): { os: number; ts: number } | null => {
+    if (cache.has(k)) return cache.get(k)!;
+    checkStop(opts);
+    const cand = passing[k];
+    let os = 0, ts = 0;
+    let res: { os: number; ts: number } | null = null;
+    try {
+      for (const corner of corners) {
+        const m = runStep(applyCandidate(corner, cand), engineOptions(opts)).metrics;
+        os = Math.max(os, m.overshootPct);
+        ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
+      }
+      res = { os, ts };
+      stepped.push({ compCapacitor: cand.compCapacitor, baseResistor: cand.baseResistor, worstOvershootPct: os, worstSettlingTime1pct: ts });
+    } catch (e) {
+      if (!isSimError(e) || e.code === "cancelled") throw e;
+    }
+    cache.set(k, res);
+    return res;
+  };
+  const meets = (k: number) => {
+    const m = measure(k);
+    return m !== null && m.os <= settings.maxOvershootPct;
+  };
+  let best: CompensateResult["chosen"] = null;
+  if (passing.length > 0) {
+    // Overshoot falls with capacitance until the loop gets too slow (then wind-up brings it back), so first probe
+    // about eight values spread over the list, then bisect between the last failing probe and the first that meets.
+    const n = passing.length;
+    const stride = Math.max(1, Math.ceil(n / 8));
+    const probes: number[] = [];
+    for (let k = 0; k < n; k += stride) probes.push(k);
+    if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
+    let lo = -1, hi = -1;
+    for (let j = 0; j < probes.length; j++) {
+      if (meets(probes[j])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
+    }
+    if (hi >= 0) {
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (meets(mid)) hi = mid; else lo = mid;
+      }
+      for (let k = hi; k < Math.min(passing.length, hi + 1 + extra); k++) {
+        const m = measure(k);
+        if (!m || m.os > settings.maxOvershootPct) continue;
+        if (!best || m.ts < best.worstSettlingTime1pct) {
+          const cand = passing[k];
+          best = {
+            compCapacitor: cand.compCapacitor,
+            baseResistor: cand.baseResistor,
+            minPhaseMarginDeg: cand.minPhaseMarginDeg,
+            worstOvershootPct: m.os,
+            worstSettlingTime1pct: m.ts,
+            phaseMarginToSpareDeg: cand.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
+            overshootToSparePct: settings.maxOvershootPct - m.os,
+          };
+        }
+      }
+    }
+  }
+  stepped.sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
+  const message = best
+    ? `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${formatEng(best.worstSettlingTime1pct, "s")}.`
+    : passing.length === 0
+      ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
+      : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+  return { chosen: best, scanned: rows, stepped, message };
+}
+
+/** Auto-compensation in one call: scan every candidate, then pick. */
+export function compensate(s: Scenario, settings: CompensateSettings, opts: StudyOptions = {}): CompensateResult {
+  const total = compensateCandidates(s, settings).length;
+  const scanOpts: StudyOptions = { ...opts, onProgress: opts.onProgress ? (d) => opts.onProgress!(d, total + 3) : undefined };
+  const rows = compensateScan(s, settings, scanOpts);
+  const pickOpts: StudyOptions = { ...opts, onProgress: undefined };
+  const result = compensatePick(s, settings, rows, pickOpts);
+  opts.onProgress?.(total + 3, total + 3);
+  return result;
+}
