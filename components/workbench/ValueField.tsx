@@ -7,16 +7,9 @@
 import { useEffect, useId, useRef, useState } from "react";
 import { formatEng, parseEng } from "@/lib/units/eng";
 import { nearestE, type ESeriesName } from "@/lib/design/eseries";
+import { editText } from "@/lib/workbench/format";
 
-/** Compact editable text for a value: 2.2e-9 → "2.2n", 47000 → "47k", 0.1 → "100m". */
-export function editText(value: number): string {
-  if (value === 0) return "0";
-  const t = formatEng(value, "", 4); // "2.200 n"
-  const m = /^(−?)([\d.]+)\s*(\S*)$/.exec(t);
-  if (!m) return String(value);
-  const num = m[2]!.includes(".") ? m[2]!.replace(/0+$/, "").replace(/\.$/, "") : m[2]!;
-  return `${m[1] === "−" ? "-" : ""}${num}${m[3] ?? ""}`;
-}
+export { editText };
 
 export interface ValueFieldProps {
   id: string;
