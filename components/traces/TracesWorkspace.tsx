@@ -13,6 +13,10 @@ import { TraceUpload } from "./TraceUpload";
 import { BenchComparison, type ComparisonResult, type TraceMeta } from "./BenchComparison";
 import { useSimulation } from "./useSimulation";
 
+const SETTING_LABEL: Record<string, string> = {
+  probe: "Probe / shunt", verticalScale: "Vertical scale", timebase: "Timebase", bandwidthLimit: "Bandwidth limit", notes: "Notes",
+};
+
 export interface WorkspaceTrace extends TraceMeta {
   revisionId: string;
   fileName: string;
@@ -20,6 +24,8 @@ export interface WorkspaceTrace extends TraceMeta {
   uploaderId: string;
   createdAt: string;
   duration: number;
+  /** Instrument settings as entered (text and numbers). */
+  settings: Record<string, string | number | boolean | null>;
 }
 
 export interface WorkspaceProps {
@@ -119,6 +125,9 @@ export function TracesWorkspace(p: WorkspaceProps) {
                 <li key={t.id} className="flex items-center justify-between gap-2 py-2">
                   <span>
                     <span className="font-medium">{t.label}</span>{" "}
+                    {Object.keys(t.settings).length > 0 && (
+                      <span className="block text-xs text-ink-muted">{Object.entries(t.settings).map(([k, v]) => `${SETTING_LABEL[k] ?? k}: ${v}`).join(" · ")}</span>
+                    )}
                     <span className="text-xs text-ink-muted num">rev {t.revisionNumber} · {t.sampleCount.toLocaleString("en")} samples · {formatEng(t.duration, "s")} · {t.channels.map((c) => `${c.name} [${c.unit}]`).join(", ")} · {t.uploaderName}, {new Date(t.createdAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC</span>
                   </span>
                   {(p.canDeleteAll || t.uploaderId === p.userId) && (

@@ -45,6 +45,10 @@ export default async function TracesPage({ params }: { params: Promise<{ id: str
           id: t.id, label: t.label, revisionId: t.revisionId, revisionNumber: t.revisionNumber, sampleCount: t.sampleCount,
           channels: t.channels.map((c) => ({ name: c.name, unit: c.unit })), fileName: t.fileName, uploaderName: t.uploaderName,
           uploaderId: t.uploaderId, createdAt: t.createdAt, duration: t.duration,
+          // What the uploader entered about the instrument (the parsing options are kept apart under "parse").
+          settings: Object.fromEntries(
+            Object.entries(t.settings).filter(([k, v]) => k !== "parse" && (v === null || ["string", "number", "boolean"].includes(typeof v))),
+          ) as Record<string, string | number | boolean | null>,
         }))}
         tolerances={tolerances}
         canUpload={roleAtLeast(user.role, "designer") && !scenario.deletedAt}
