@@ -98,8 +98,10 @@ describe("library: upload, submit, validate, review", () => {
     await page.getByLabel("Channel 1 name").fill("Load current");
     await page.getByLabel("Channel 1 conversion").selectOption("sense");
     await page.getByLabel("Channel 1 sense resistor").fill(String(scenario.parts.senseResistor));
+    await page.getByLabel("Probe / shunt").fill("1 Ω sense, 10:1 probe");
     await page.getByRole("button", { name: "Upload trace" }).click();
     await page.getByTestId("trace-list").getByText("Bench step 3.0→3.3 V").waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId("trace-list").textContent()).toContain("Probe / shunt: 1 Ω sense, 10:1 probe");
 
     // Measured against simulated: the capture is the simulation itself, delayed and noisy, so it passes.
     await page.getByTestId("comparison-verdict").waitFor({ timeout: 60_000 });
