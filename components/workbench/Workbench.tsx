@@ -4,7 +4,7 @@
  * with the studies drawer at the bottom. Owns the live runner and the study pool for the page's lifetime.
  */
 import Link from "next/link";
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
 import { compileNetlistJson } from "@/lib/design/compile";
 import { safeFileName } from "@/lib/workbench/csv";
@@ -14,7 +14,7 @@ import { CautionsList, ChecksTable, HeadlineFigures } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
 import { downloadText } from "@/components/plots/ExportMenu";
-import { useEngine, type Engine } from "./engine";
+import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
 import { SaveControl, type SaveFn } from "./SaveControl";
 
@@ -56,7 +56,7 @@ function focusField(key: string) {
 
 const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] text-ink hover:bg-paper disabled:opacity-40 focus-visible:outline-2 focus-visible:outline-signal";
 
-function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps & { engine: Engine | null }) {
+function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps) {
   const store = useWbStore();
   const canUndo = useWb((s) => s.past.length > 0);
   const canRedo = useWb((s) => s.future.length > 0);
@@ -66,7 +66,6 @@ function Toolbar({ title, engine, scenarioId, revisionId, revisionNumber, save }
   const showOp = useWb((s) => s.showOperatingPoint);
   const template = useWb((s) => s.scenario.template);
   const [shownRevision, setShownRevision] = useState(revisionNumber);
-  void engine;
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
@@ -221,14 +220,13 @@ function useShortcuts() {
 function WorkbenchInner(props: WorkbenchProps) {
   const engine = useEngine();
   const [drawer, setDrawer] = useState(false);
-  const warned = useRef(false);
   const dirty = useWb((s) => s.dirty);
   useShortcuts();
   useEffect(() => {
     const onBefore = (e: BeforeUnloadEvent) => {
       if (dirty && props.save) {
+        // Asks the browser to confirm leaving with unsaved changes.
         e.preventDefault();
-        warned.current = true;
       }
     };
     window.addEventListener("beforeunload", onBefore);
@@ -236,7 +234,7 @@ function WorkbenchInner(props: WorkbenchProps) {
   }, [dirty, props.save]);
   return (
     <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
-      <Toolbar {...props} engine={engine} />
+      <Toolbar {...props} />
       <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_300px]">
         <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto md:pr-1">
           <h2 className="sr-only">Circuit</h2>
