@@ -144,6 +144,22 @@ describe("workbench", () => {
     expect(await status.textContent()).toContain("Cancelled");
   });
 
+  it("starts a new scenario from a template as a local draft and simulates it", async () => {
+    await page.goto(`${BASE_URL}/scenarios/new`, { waitUntil: "load" });
+    await page.getByTestId("template-howland").click();
+    await page.getByTestId("new-draft").click();
+    await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+    expect(await text("revision-label")).toContain("local draft");
+    // The Howland pump's own parts are listed and drawn.
+    for (const key of ["howlandR1", "howlandR2", "howlandR3", "howlandR4"]) {
+      await page.locator(`#field-parts-${key}`).waitFor();
+      await page.getByTestId(`schematic-${key}`).waitFor();
+    }
+    // Clicking a part in the schematic focuses its value field.
+    await page.getByTestId("schematic-howlandR2").click();
+    expect(await page.evaluate("document.activeElement && document.activeElement.id")).toBe("field-parts-howlandR2");
+  });
+
   it("ran without page errors", () => {
     expect(errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
   });
