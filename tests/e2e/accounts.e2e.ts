@@ -231,7 +231,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const ctx = await context(browser);
     const page = await ctx.newPage();
     await signIn(page, "designer");
-    await page.getByRole("table").getByRole("link", { name: "History of Valve coil driver" }).click();
+    await page.getByRole("table").getByRole("link", { name: "History of Valve coil driver", exact: true }).click();
     await page.waitForURL(/\/history$/);
     await page.getByRole("button", { name: "Share link" }).click();
     await page.getByLabel("Expires after").selectOption("7");
