@@ -31,6 +31,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
   }
   return (
     <Workbench
+      key={row.id}
       scenario={opened.scenario}
       title={row.title}
       scenarioId={row.id}
