@@ -136,7 +136,7 @@ export class Circuit {
   i1 = new Float64Array(0);
 
   /** which DC method produced the last operating point */
-  dcMethod: "newton" | "gmin" | "source" = "newton";
+  dcMethod: "newton" | "damped" | "gmin" | "source" = "newton";
   /** work counters */
   newtonIterations = 0;
   deadline = Infinity;

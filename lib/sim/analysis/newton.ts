@@ -7,6 +7,11 @@ import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
 import { LU_REORDER } from "../sparse";
 
+/** V: largest node-voltage change per iteration in the damped-Newton stage of the DC solve */
+const DAMPED_STEP = 2;
+/** iterations of plain Newton before the damped stage */
+const PLAIN_ITER = 40;
+
 /** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
 let worstUnknown = -1;
 
@@ -72,7 +77,7 @@ function singular(c: Circuit, k: number): SimError {
  * Convergence: every unknown's update within reltol·|x| + (vntol for voltages | abstol for currents) and no device
  * limited its voltages in the last load.
  */
-export function newton(c: Circuit, maxIter: number): boolean {
+export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
   const n = c.n;
   const nn = c.numNodes;
   const { reltol, vntol, abstol } = c.tol;
@@ -82,6 +87,17 @@ export function newton(c: Circuit, maxIter: number): boolean {
     const xn = c.xNew;
     solveInto(c, xn);
     const xo = c.x;
+    if (maxNodeStep > 0 && iter > 0) {
+      // damped Newton: shrink the whole update so no node voltage moves more than maxNodeStep (the first
+      // iteration is left whole, so nodes fixed by sources land at once)
+      let big = 0;
+      for (let i = 0; i < nn; i++) { const d = Math.abs(xn[i] - xo[i]); if (d > big) big = d; }
+      if (big > maxNodeStep) {
+        const a = maxNodeStep / big;
+        for (let i = 0; i < n; i++) xn[i] = xo[i] + a * (xn[i] - xo[i]);
+        c.noncon++;
+      }
+    }
     let ok = true;
     let worst = -1;
     let worstRatio = 0;
@@ -119,8 +135,19 @@ export function solveDc(c: Circuit, what: string): void {
   const maxIter = c.tol.maxNewton;
   const guess = c.x.slice();
   c.dcMethod = "newton";
-  if (newton(c, maxIter)) return;
-  const tried: string[] = [`Newton–Raphson (${maxIter} iterations; largest change at ${worstName(c)})`];
+  // plain Newton gets a shorter leash: a circuit it can solve converges well within it, and one where it cycles
+  // between saturated states should reach the damped stage quickly
+  const plainIter = Math.min(maxIter, PLAIN_ITER);
+  if (newton(c, plainIter)) return;
+  const tried: string[] = [`Newton–Raphson (${plainIter} iterations; largest change at ${worstName(c)})`];
+
+  // damped Newton: a high-gain loop with saturating parts (op-amp, pass device) can make plain Newton jump between
+  // the rails forever; limiting every node's change per iteration (the direction-preserving "damped Newton" of the
+  // limiting schemes, Najm 2010 ch. on DC analysis) walks it to the solution instead.
+  c.x.set(guess);
+  c.dcMethod = "damped";
+  if (newton(c, 2 * maxIter, DAMPED_STEP)) return;
+  tried.push(`damped Newton (${2 * maxIter} iterations, ≤ ${DAMPED_STEP} V per step; largest change at ${worstName(c)})`);
 
   // gmin stepping: a shunt from every node to ground, from 1e-2 S down to nothing; the reduction factor adapts
   // (÷10 while steps converge, its square root after a failure, from the last converged solution).

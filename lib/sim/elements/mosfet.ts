@@ -28,6 +28,38 @@ export function squareLaw(vgs: number, vds: number, m: MosfetModel, out: Float64
 
 const sq = new Float64Array(3);
 
+/*
+ * Newton step limiting for the square law, after the MOSFET practice described by T. Quarles, "Analysis of
+ * performance and convergence issues for circuit simulation", UCB ERL M89/42, 1989 [from memory]: the gate voltage
+ * may move by about twice its overdrive (plus 2 V) per iteration and turns a device on only to Vth + 0.5 V at a time;
+ * a large VDS may at most triple, a small one grow to 4 V or fall to −0.5 V.
+ */
+function limitGate(vNew: number, vOld: number, vth: number): number {
+  const span = 2 * Math.abs(vOld - vth) + 2;
+  const d = vNew - vOld;
+  if (vOld >= vth) {
+    if (d > span) return vOld + span;
+    if (vOld >= vth + 3.5) {
+      if (d < -span / 2 - 2) return Math.max(vOld - span / 2 - 2, vth + 2);
+    } else if (d < 0) {
+      return Math.max(vNew, vth - 0.5);
+    }
+    return vNew;
+  }
+  if (d < -span) return vOld - span;
+  if (d > 0 && vNew > vth + 0.5) return vth + 0.5;
+  return vNew;
+}
+function limitDrain(vNew: number, vOld: number): number {
+  if (vOld >= 3.5) {
+    if (vNew > vOld) return Math.min(vNew, 3 * vOld + 2);
+    if (vNew < 3.5) return Math.max(vNew, 2);
+    return vNew;
+  }
+  if (vNew > vOld) return Math.min(vNew, 4);
+  return Math.max(vNew, -0.5);
+}
+
 export class Mosfet extends Element {
   private readonly p: number;
   private d = 0; private g = 0; private s = 0;
@@ -66,10 +98,9 @@ export class Mosfet extends Element {
     const m = c.mat, x = c.x, p = this.p;
     let vgs = p * (x[this.g] - x[this.s]);
     let vds = p * (x[this.d] - x[this.s]);
-    // simple step limiting (common practice): at most 1 V change of VGS and 5 V of VDS per iteration
-    const dg = vgs - this.vgs, dd = vds - this.vds;
-    if (Math.abs(dg) > 1 && this.vgs !== 0) { vgs = this.vgs + Math.sign(dg); c.noncon++; }
-    if (Math.abs(dd) > 5 && this.vds !== 0) { vds = this.vds + 5 * Math.sign(dd); c.noncon++; }
+    const vgsL = limitGate(vgs, this.vgs, this.model.Vth);
+    const vdsL = this.vds >= 0 ? limitDrain(vds, this.vds) : -limitDrain(-vds, -this.vds);
+    if (vgsL !== vgs || vdsL !== vds) { vgs = vgsL; vds = vdsL; c.noncon++; }
     const id0 = this.id, gg0 = this.Gg, gd0 = this.Gd;
     const dgs = vgs - this.vgs, dds = vds - this.vds;
     this.vgs = vgs; this.vds = vds;

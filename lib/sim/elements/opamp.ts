@@ -21,8 +21,21 @@ export interface OpampModel {
 /** clamp conductance (S) and knee width (V) of the swing limits */
 const G_CLAMP = 1e3;
 const W_CLAMP = 5e-3;
+/** V beyond the swing limits at which the internal node is linearised at most (Newton limiting) */
+const X_WINDOW = 0.2;
 /** smoothing current (A) of the supply-pin split */
 const EPS_SPLIT = 1e-6;
+
+/**
+ * Step limiting for a saturating (tanh) branch, in the spirit of junction limiting (Nagel 1975): a Newton step from
+ * one saturated side lands far out on the other (the slope there is nearly zero), and the next comes back further
+ * still; such a crossing is cut to the middle of the linear range. Returns the limited value; the caller flags non-convergence.
+ */
+function crossLimit(uNew: number, uOld: number, U: number): number {
+  if ((uOld > U && uNew < -2 * U) || (uOld < -U && uNew > 2 * U)) return 0;
+  return uNew;
+}
+
 
 /** softplus ln(1 + e^z) and its slope σ(z) from one exponential; slope left in `slope`. */
 let slope = 0;
@@ -95,11 +108,12 @@ export class Opamp extends Element {
     this.sy = this.sx + 1;
   }
 
-  /** output current (A, out of the op-amp into the out pin) at the present solution and its slope d/du */
+  /** output current (A, out of the op-amp into the out pin) at u = v(x|y) − v(out) */
   private ioutOf(u: number): number {
     const lim = this.model.Iout;
     return lim === null ? u / this.rout : lim * Math.tanh(u / (this.rout * lim));
   }
+  /** d(iout)/du */
   private ioutSlope(u: number): number {
     const lim = this.model.Iout;
     if (lim === null) return 1 / this.rout;
@@ -118,9 +132,11 @@ export class Opamp extends Element {
     // input bias currents leave the input nodes into the op-amp
     if (mod.Ib !== 0) { rhs[this.inp] -= mod.Ib; rhs[this.inn] -= mod.Ib; }
     // drive: current idrv(vd) into node x
-    const vd = x[this.inp] - x[this.inn] + mod.Vos;
+    let vd = x[this.inp] - x[this.inn] + mod.Vos;
     let idrv = vd, gd = 1;
     if (this.imax !== Infinity) {
+      const lim = crossLimit(vd, this.dV, this.imax);
+      if (lim !== vd) { vd = lim; c.noncon++; }
       const t = Math.tanh(vd / this.imax);
       idrv = this.imax * t;
       gd = 1 - t * t;
@@ -128,9 +144,19 @@ export class Opamp extends Element {
     c.checkCurrent(idrv, this.dI + this.dG * (vd - this.dV));
     this.dI = idrv; this.dG = gd; this.dV = vd;
     m[this.pxInp] -= gd; m[this.pxInn] += gd;
-    rhs[nx] += idrv - gd * (x[this.inp] - x[this.inn]);
-    // swing clamps on vx, relative to the supply pins
-    const vx = x[nx];
+    rhs[nx] += idrv - gd * (vd - mod.Vos);
+    // swing clamps on vx, relative to the supply pins. A Newton step can throw vx to Aol·vd (kilovolts) because the
+    // far clamp is invisible to the linearisation; like junction limiting (Nagel 1975), the clamps are linearised
+    // no further than X_WINDOW outside the swing range, and such an iteration is not accepted as converged.
+    let vx = x[nx];
+    if (mod.swingHigh !== null) {
+      const top = x[this.vcc] - mod.swingHigh + X_WINDOW;
+      if (vx > top) { vx = top; c.noncon++; }
+    }
+    if (mod.swingLow !== null) {
+      const bottom = x[this.vee] + mod.swingLow - X_WINDOW;
+      if (vx < bottom) { vx = bottom; c.noncon++; }
+    }
     if (mod.swingHigh !== null) {
       const z = (vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP;
       const i = G_CLAMP * W_CLAMP * softplus(z);
@@ -176,7 +202,11 @@ export class Opamp extends Element {
       m[this.pEeK] -= dneg; rhs[this.vee] -= ineg - dneg * iout;
     } else {
       const s = this.src, out = this.out;
-      const u = x[s] - x[out];
+      let u = x[s] - x[out];
+      if (mod.Iout !== null) {
+        const lim = crossLimit(u, this.oV, this.rout * mod.Iout);
+        if (lim !== u) { u = lim; c.noncon++; }
+      }
       const iout = this.ioutOf(u), g = this.ioutSlope(u);
       c.checkCurrent(iout, this.oI + this.oG * (u - this.oV));
       this.oI = iout; this.oG = g; this.oV = u;
