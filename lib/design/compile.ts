@@ -359,11 +359,5 @@ export function compileNetlistJson(s: Scenario, purpose: CompilePurpose, opts: C
   if (s.template === "howland") buildHowland(b);
   else if (s.template === "source-highside") buildHighSide(b);
   else buildSink(b);
-  const netlist: NetlistJson = { temperature: s.thermal.ambient, elements: b.els, analysis: analysisFor(s, purpose, opts) };
-  // DC solves (operating point, and the one under every AC analysis): the op-amp macro model's internal gain node
-  // sits at volts while a 1 S drive sets it from vd, so the default relative update test (1e-3·|v|) can stop Newton
-  // with millivolts of error in vd — a state where a limited op-amp "regulates" the wrong current. A tighter
-  // relative tolerance makes Newton finish; the transient keeps the default (its step control uses it too).
-  if (purpose !== "step") netlist.options = { reltol: 1e-6 };
-  return netlist;
+  return { temperature: s.thermal.ambient, elements: b.els, analysis: analysisFor(s, purpose, opts) };
 }
