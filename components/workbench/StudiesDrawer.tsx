@@ -11,6 +11,7 @@ import { SWEEPABLE_PARAMETERS, mergeSpread, summarizeSpread, type MapMetric } fr
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/design/eseries";
 import { setPath, getPath } from "@/lib/workbench/paths";
 import { StudyRunner } from "@/lib/workbench/studies";
+import { changedApartFrom } from "@/lib/workbench/live";
 import type { StudyKind } from "@/lib/workbench/types";
 import type { StudyState } from "@/lib/workbench/store";
 import { UPlotChart, type Overlay, type UPlotHandle } from "@/components/plots/UPlotChart";
@@ -34,6 +35,17 @@ function fmtTime(ms: number | null): string {
   if (ms < 1000) return "under a second";
   const s = Math.round(ms / 1000);
   return s < 90 ? `about ${s} s` : `about ${Math.round(s / 60)} min`;
+}
+
+const designChanged = changedApartFrom(["studies"]);
+
+/** A note when the results on show were computed for an earlier version of the design. */
+function StaleNote({ kind, runner }: { kind: StudyKind; runner: StudyRunner | null }) {
+  const scenario = useWb((s) => s.scenario);
+  const status = useWb((s) => s.studies[kind].status);
+  const from = runner?.startedWith(kind) ?? null;
+  if (!from || status === "idle" || !designChanged(scenario, from)) return null;
+  return <p className="text-[12px] text-verdict-warn" role="status">The design has changed since this study ran: run it again to update.</p>;
 }
 
 function Progress({ kind, state, onCancel }: { kind: StudyKind; state: StudyState<unknown>; onCancel: () => void }) {
@@ -204,6 +216,7 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
           <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.sweep()} data-testid="sweep-run">Run sweep</button>
         </div>
         <Progress kind="sweep" state={state} onCancel={() => runner?.cancel("sweep")} />
+        <StaleNote kind="sweep" runner={runner} />
         {merged && merged.failures.length > 0 && (
           <ul className="text-[12px] text-verdict-fail">{merged.failures.map((f) => <li key={f.index}>Point {f.index + 1}: {f.message}</li>)}</ul>
         )}
@@ -272,6 +285,7 @@ function MapTab({ runner }: { runner: StudyRunner | null }) {
         </div>
         <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.map()} data-testid="map-run">Run map</button>
         <Progress kind="map" state={state} onCancel={() => runner?.cancel("map")} />
+        <StaleNote kind="map" runner={runner} />
       </div>
       <div className="min-w-0">
         {merged ? (
@@ -336,6 +350,7 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
         <ParamField spec={{ path: "tolerances.capacitor", label: "Capacitor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
         <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.spread()} data-testid="spread-run">Run spread</button>
         <Progress kind="spread" state={state} onCancel={() => runner?.cancel("spread")} />
+        <StaleNote kind="spread" runner={runner} />
       </div>
       <div className="min-w-0">
         {summary ? (
@@ -390,6 +405,7 @@ function CompensateTab({ runner }: { runner: StudyRunner | null }) {
         </label>
         <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.compensate()} data-testid="compensate-run">Find compensation</button>
         <Progress kind="compensate" state={state} onCancel={() => runner?.cancel("compensate")} />
+        <StaleNote kind="compensate" runner={runner} />
       </div>
       <div className="min-w-0 space-y-2">
         {result ? (

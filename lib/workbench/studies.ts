@@ -19,6 +19,7 @@ type Job<R> = (api: Remote<SimWorkerApi>, range: [number, number]) => Promise<R>
 
 export class StudyRunner {
   private readonly controllers = new Map<StudyKind, AbortController>();
+  private readonly inputs = new Map<StudyKind, Scenario>();
 
   constructor(
     private readonly store: WbStore,
@@ -41,8 +42,14 @@ export class StudyRunner {
     for (const k of [...this.controllers.keys()]) this.cancel(k);
   }
 
+  /** The scenario the latest run of `kind` started from (to tell when the design has moved on since). */
+  startedWith(kind: StudyKind): Scenario | null {
+    return this.inputs.get(kind) ?? null;
+  }
+
   private begin(kind: StudyKind): AbortController {
     this.controllers.get(kind)?.abort();
+    this.inputs.set(kind, this.store.getState().scenario);
     const ctl = new AbortController();
     this.controllers.set(kind, ctl);
     return ctl;
