@@ -135,6 +135,8 @@ export class Circuit {
   i0 = new Float64Array(0);
   i1 = new Float64Array(0);
 
+  /** a singular matrix at the next Newton iteration is reported as the circuit's fault (first iteration only) */
+  strictSingular = true;
   /** which DC method produced the last operating point */
   dcMethod: "newton" | "damped" | "gmin" | "source" = "newton";
   /** work counters */

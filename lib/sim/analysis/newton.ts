@@ -14,6 +14,8 @@ const PLAIN_ITER = 40;
 
 /** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
 let worstUnknown = -1;
+/** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
+let singularAt = "";
 
 export function checkBudget(c: Circuit): void {
   if (performance.now() > c.deadline) {
@@ -85,7 +87,18 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
     c.newtonIterations++;
     loadAll(c);
     const xn = c.xNew;
-    solveInto(c, xn);
+    try {
+      solveInto(c, xn);
+    } catch (e) {
+      // A matrix singular at the very first iteration of an analysis is the circuit's own fault (reported as
+      // such); one that turns singular later (a device driven into a corner where its slopes vanish) is a failed
+      // Newton run, for the caller's next strategy or a smaller time step.
+      if (!(e instanceof SimError) || e.code !== "singular" || (iter === 0 && c.strictSingular)) throw e;
+      worstUnknown = -1;
+      singularAt = e.message;
+      return false;
+    }
+    c.strictSingular = false;
     const xo = c.x;
     if (maxNodeStep > 0 && iter > 0) {
       // damped Newton: shrink the whole update so no node voltage moves more than maxNodeStep (the first
@@ -123,7 +136,8 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
 
 /** Name of the unknown that moved most in the last failed Newton run. */
 export function worstName(c: Circuit): string {
-  return worstUnknown >= 0 ? (c.unknownNames[worstUnknown] ?? "?") : "(none)";
+  if (worstUnknown >= 0) return c.unknownNames[worstUnknown] ?? "?";
+  return singularAt ? `a singular matrix (${singularAt.replace(/ \(check.*$/, "")})` : "(none)";
 }
 
 /**
@@ -132,6 +146,8 @@ export function worstName(c: Circuit): string {
  */
 export function solveDc(c: Circuit, what: string): void {
   c.mode = MODE_DC;
+  c.strictSingular = true;
+  singularAt = "";
   const maxIter = c.tol.maxNewton;
   const guess = c.x.slice();
   c.dcMethod = "newton";

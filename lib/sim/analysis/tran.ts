@@ -42,6 +42,7 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
   if (a.start === "op") {
     solveDc(c, "the transient's initial operating point");
   } else {
+    c.strictSingular = true; // a singular matrix at the first step is the circuit's fault
     for (const el of els) if (el instanceof Capacitor) {
       const [i, v] = el.icNode(c);
       if (i >= 0) c.x[i] = v;
