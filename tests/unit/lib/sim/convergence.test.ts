@@ -79,4 +79,35 @@ describe("DC continuation when plain Newton–Raphson runs out of iterations", (
     expect(r.nodes.b1).toBeCloseTo(vb, 5);
     expect(r.nodes.c1).toBeCloseTo(vcOf(vb), 5);
   });
+
+  it("op-amp + MOSFET sink into a high-voltage diode string: plain Newton cycles between the rails, the damped stage converges to the regulated point", () => {
+    // Regulation closed form: the loop holds v(sense) = Vref − vout/Aol (op-amp with finite gain), so I ≈ Vref/Rs =
+    // 1.5 A, and the square law gives VGS = Vth + √(I/K) (Shichman & Hodges 1968).
+    const sink: Netlist = {
+      elements: [
+        { kind: "vsource", name: "VREF", nodes: ["ref", "0"], dc: 0.3 },
+        { kind: "vsource", name: "VCC", nodes: ["vcc", "0"], dc: 12 },
+        { kind: "opamp", name: "U1", nodes: ["ref", "inv", "oa", "vcc", "0"], model: { Aol: 2e5, GBW: 1e6, Rout: 40, slewRate: 5e5, swingHigh: 1.2, swingLow: 0.05, Iout: 0.025 } },
+        { kind: "resistor", name: "RG", nodes: ["oa", "g"], value: 100 },
+        { kind: "capacitor", name: "CC", nodes: ["oa", "inv"], value: 2.2e-9 },
+        { kind: "resistor", name: "RFB", nodes: ["s", "inv"], value: 10e3 },
+        { kind: "resistor", name: "RS", nodes: ["s", "0"], value: 0.2 },
+        { kind: "mosfet", name: "M1", nodes: ["d", "g", "s"], model: { Vth: 3.5, K: 3, lambda: 0 } },
+        { kind: "vsource", name: "VL", nodes: ["vl", "0"], dc: 48 },
+        { kind: "diode", name: "DLED", nodes: ["vl", "k"], model: { Is: 5e-20, n: 26 } },
+        { kind: "resistor", name: "RL", nodes: ["k", "d"], value: 6.8 },
+      ],
+      analysis: { kind: "op" },
+      options: { reltol: 1e-6 },
+    };
+    const c = solveWith(sink);
+    expect(c.dcMethod).toBe("damped");
+    const r = runOp(sink);
+    // finite gain: the gate draws no current, so the op-amp output equals its internal node and vd = v(g)/Aol
+    expect(r.nodes.s).toBeCloseTo(0.3 - r.nodes.g / 2e5, 8);
+    const i = r.nodes.s / 0.2;
+    expect(r.currents.M1).toBeCloseTo(i, 7);
+    expect(i).toBeCloseTo(1.5, 3);
+    expect(r.nodes.g - r.nodes.s).toBeCloseTo(3.5 + Math.sqrt(i / 3), 6);
+  });
 });
