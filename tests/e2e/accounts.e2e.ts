@@ -138,6 +138,19 @@ describe("accounts journey: save, share, open, comment", () => {
     await lead.reload({ waitUntil: "load" });
     await lead.getByRole("cell", { name: "designer's change" }).waitFor();
     expect(await lead.getByRole("cell", { name: "lead's change, on a stale base" }).count()).toBe(0);
+
+    // The designer sends it for review; the table's status filter finds it.
+    const [patched] = await Promise.all([
+      designer.waitForResponse((r) => r.request().method() === "PATCH" && r.url().includes("/api/scenarios/")),
+      designer.getByLabel("Status").selectOption("review"),
+    ]);
+    expect(patched.status()).toBe(200);
+    await designer.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
+    await designer.getByLabel("Status").selectOption("review");
+    await designer.getByLabel("Search titles").fill(title);
+    await designer.getByRole("table").getByRole("link", { name: title, exact: true }).waitFor();
+    await expect.poll(() => designer.getByRole("table").locator("tbody tr").count(), { timeout: 10_000 }).toBe(1);
+    expect(await designer.getByRole("table").locator("tbody tr").textContent()).toContain("review");
     await designerCtx.close();
     await leadCtx.close();
   });

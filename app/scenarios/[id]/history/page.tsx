@@ -8,6 +8,8 @@ import { ShareDialog } from "@/components/scenarios/ShareDialog";
 import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton, DeleteButton } from "@/components/scenarios/ScenarioButtons";
 import { SaveRevisionForm } from "@/components/scenarios/SaveRevisionForm";
+import { StatusSelect } from "@/components/scenarios/StatusSelect";
+import { SCENARIO_STATUSES } from "@/lib/db/scenarioBody";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 
 export const dynamic = "force-dynamic";
@@ -31,6 +33,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
         {s.can.share && s.revisionId && s.revisionNumber !== null && (
           <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} />
         )}
+        {s.can.edit && <StatusSelect scenarioId={s.id} status={s.status} statuses={[...new Set<string>([...SCENARIO_STATUSES, s.status])]} />}
         {s.can.share && s.revisionId && <ForkButton revisionId={s.revisionId} fork={forkScenario} label="Fork" />}
         {s.can.delete && <DeleteButton scenarioId={s.id} deleted={!!s.deletedAt} setDeleted={setScenarioDeleted} />}
       </div>
