@@ -7,6 +7,11 @@
  * `compile(netlist)` validates and builds the topology once and returns an object whose `run()` can be called
  * repeatedly (each run restarts from a zero guess; device limiting state is reused as a warm start). Build a new one
  * when element values change — compiling is cheap next to solving.
+ *
+ * Module map: schema.ts (zod netlist contract) · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
+ * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
+ * device models) · lu.ts (dense LU, used to choose pivots) · sparse.ts (LU with a reused order, the hot path) ·
+ * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts) · waves.ts · results.ts · cli.ts (Node only).
  */
 import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";
 import { parseNetlist } from "./netlist";
