@@ -40,7 +40,7 @@ export function Comments({ scenarioId, revisionId }: { scenarioId: string; revis
   }
 
   return (
-    <section aria-labelledby="comments-title" className="rounded border border-hairline bg-white">
+    <section aria-labelledby="comments-title" className="self-start rounded border border-hairline bg-white">
       <h2 id="comments-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Comments</h2>
       {error ? (
         <LoadError error={error} retry={() => mutate()} />

@@ -9,7 +9,8 @@ import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton, DeleteButton } from "@/components/scenarios/ScenarioButtons";
 import { SaveRevisionForm } from "@/components/scenarios/SaveRevisionForm";
 import { StatusSelect } from "@/components/scenarios/StatusSelect";
-import { SCENARIO_STATUSES } from "@/lib/db/scenarioBody";
+import { SCENARIO_STATUSES, TEMPLATE_CHOICES } from "@/lib/db/scenarioBody";
+import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 
 export const dynamic = "force-dynamic";
@@ -22,6 +23,10 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
     if (e instanceof DomainError && e.status === 404) notFound();
     throw e;
   });
+  // The form starts from the revision as the current schema reads it (older versions upgraded), else as stored.
+  const upgraded = tryUpgradeScenario(s.body);
+  const editable = upgraded.ok ? upgraded.scenario : s.body;
+  const templateTitle = TEMPLATE_CHOICES.find((t) => t.id === s.template)?.title ?? s.template;
   return (
     <main className="mx-auto max-w-6xl px-6 py-8">
       <p className="text-sm text-ink-muted">
@@ -38,14 +43,14 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
         {s.can.delete && <DeleteButton scenarioId={s.id} deleted={!!s.deletedAt} setDeleted={setScenarioDeleted} />}
       </div>
       <p className="mt-1 text-sm text-ink-muted">
-        {s.template} · owner {s.ownerName} · status {s.status}
+        {templateTitle} · owner {s.ownerName} · status {s.status}
         {s.deletedAt && <span className="ml-2 font-medium text-verdict-fail">Deleted — restore it to edit</span>}
       </p>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
         <div className="space-y-6">
           <RevisionHistory scenarioId={s.id} />
           {s.can.edit && s.revisionId && s.revisionNumber !== null && (
-            <SaveRevisionForm scenarioId={s.id} baseRevisionId={s.revisionId} baseNumber={s.revisionNumber} body={s.body} save={saveScenarioRevision} />
+            <SaveRevisionForm scenarioId={s.id} baseRevisionId={s.revisionId} baseNumber={s.revisionNumber} body={editable} save={saveScenarioRevision} />
           )}
         </div>
         <Comments scenarioId={s.id} revisionId={s.revisionId ?? undefined} />
