@@ -271,6 +271,27 @@ export const scenarioSchema = z.object({
   thermal: thermalSchema,
   tolerances: tolerancesSchema,
   studies: studiesSchema,
+}).superRefine((s, ctx) => {
+  // Cross-field rules, each reported on the field to change.
+  const need: Record<string, readonly string[]> = {
+    "sink-npn": ["npn"], "sink-darlington": ["npn"], "sink-nmos": ["nmos"], "source-highside": ["pnp", "pmos"],
+  };
+  const kinds = need[s.template];
+  if (kinds && !kinds.includes(s.pass.kind)) {
+    ctx.addIssue({ code: "custom", path: ["pass", "kind"], message: `The ${s.template} template needs a ${kinds.join(" or ")} pass device (got ${s.pass.kind})` });
+  }
+  if (s.load.resistanceMin > s.load.resistanceMax) {
+    ctx.addIssue({ code: "custom", path: ["load", "resistanceMin"], message: "Minimum load resistance is above the maximum" });
+  }
+  if (s.load.cellVoltageMin > s.load.cellVoltageMax) {
+    ctx.addIssue({ code: "custom", path: ["load", "cellVoltageMin"], message: "Lowest cell voltage is above the highest" });
+  }
+  if (s.stimulus.stepTime >= s.stimulus.stopTime) {
+    ctx.addIssue({ code: "custom", path: ["stimulus", "stepTime"], message: "The step must happen before the stop time" });
+  }
+  if (s.pass.betaMin > s.pass.betaF) {
+    ctx.addIssue({ code: "custom", path: ["pass", "betaMin"], message: "Minimum beta is above the typical beta" });
+  }
 });
 export type Scenario = z.infer<typeof scenarioSchema>;
 

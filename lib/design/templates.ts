@@ -191,7 +191,7 @@ export function defaultScenario(templateId: TemplateId): Scenario {
       s.pass = passPreset("Medium power PNP 60 V");
       s.opamp = opampPreset("Precision 3 MHz rail-to-rail");
       s.supplies = { load: 24, opampPositive: 24, opampNegative: 0 };
-      s.load = { ...s.load, kind: "resistor", resistance: 10, resistanceMax: 10, inductance: 0, clampDiode: false };
+      s.load = { ...s.load, kind: "resistor", resistance: 10, resistanceMin: 5, resistanceMax: 10, inductance: 0, clampDiode: false };
       // k = 1k/(49.9k + 1k); 5 V → 98 mV across 0.2 Ω → 0.49 A.
       s.parts.dividerTop = 49.9e3;
       s.parts.dividerBottom = 1e3;

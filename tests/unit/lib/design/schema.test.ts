@@ -30,4 +30,18 @@ describe("scenario schema and upgrades", () => {
     expect(() => upgradeScenario({ schemaVersion: 99, template: "sink-npn" })).toThrow(/newer/);
     expect(() => upgradeScenario("text")).toThrow(/JSON object/);
   });
+  it("cross-field rules name the field to change", () => {
+    const s = structuredClone(defaultScenario("sink-npn"));
+    s.pass.kind = "nmos";
+    expect(tryUpgradeScenario(s)).toEqual({ ok: false, error: "pass.kind: The sink-npn template needs a npn pass device (got nmos)" });
+    const t = structuredClone(defaultScenario("sink-npn"));
+    t.stimulus.stepTime = t.stimulus.stopTime;
+    t.load.resistanceMin = 100;
+    const r = tryUpgradeScenario(t);
+    expect(r.ok).toBe(false);
+    if (!r.ok) {
+      expect(r.error).toContain("load.resistanceMin: Minimum load resistance is above the maximum");
+      expect(r.error).toContain("stimulus.stepTime: The step must happen before the stop time");
+    }
+  });
 });
