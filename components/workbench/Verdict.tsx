@@ -16,7 +16,8 @@ export function VerdictWordBadge({ v }: { v: VerdictWord | null }) {
   return <span className={`rounded px-1.5 py-0.5 text-[11px] font-semibold uppercase tracking-wide ${COLOR[v]} ${BG[v]}`}>{v}</span>;
 }
 
-/** Phase margin: ≥ 45° pass, 30–45° warn, below fail (common practice for a robust loop). */
+/** Phase margin: ≥ 45° pass, 30–45° warn, below fail (common practice for a robust loop). The overshoot target
+ * is the Compensate study's; a settled ±1 % but unsettled ±0.1 % response is a warning. */
 export function phaseMarginVerdict(pm: number | null): VerdictWord | null {
   if (pm === null) return null;
   return pm >= 45 ? "pass" : pm >= 30 ? "warn" : "fail";
@@ -42,7 +43,7 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
     {
       id: "phase-margin", label: "Phase margin",
       value: pm === null ? (loop ? "no crossover" : "—") : `${pm.toFixed(1)}°`,
-      verdict: phaseMarginVerdict(pm), hint: "≥ 45° pass, 30–45° warn (common practice)",
+      verdict: phaseMarginVerdict(pm), hint: "pass ≥ 45°, warn ≥ 30°",
     },
     {
       id: "crossover", label: "Crossover",
@@ -54,7 +55,7 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
       id: "overshoot", label: "Overshoot",
       value: os === null ? "—" : `${os.toFixed(1)} %`,
       verdict: os === null ? null : os <= maxOvershootPct ? "pass" : os <= 2 * maxOvershootPct + 5 ? "warn" : "fail",
-      hint: `target ≤ ${maxOvershootPct} % (Compensate settings)`,
+      hint: `target ≤ ${maxOvershootPct} %`,
     },
     {
       id: "settling", label: "Settling (±1 %)",
