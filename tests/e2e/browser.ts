@@ -29,3 +29,9 @@ export function watchErrors(page: Page): string[] {
   page.on("pageerror", (e) => errors.push(e.message));
   return errors;
 }
+
+/** Go to a path (or URL) and wait until React has hydrated the page (see components/shell/HydrationMark). */
+export async function open(page: Page, path: string): Promise<void> {
+  await page.goto(path.startsWith("http") ? path : `${BASE_URL}${path}`, { waitUntil: "load" });
+  await page.waitForSelector("html[data-hydrated]", { state: "attached", timeout: 30_000 });
+}

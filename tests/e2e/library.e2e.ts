@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { BASE_URL, launch, watchErrors } from "./browser";
+import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { demoUser, signIn } from "./auth";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import { db } from "@/lib/db/knex";
@@ -80,7 +80,7 @@ describe("library: upload, submit, validate, review", () => {
     csvPath = join(mkdtempSync(join(tmpdir(), "quell-e2e-")), "valve-step.csv");
     writeFileSync(csvPath, captureCsv(step.time, step.iLoad, scenario.parts.senseResistor));
 
-    await page.goto(`${BASE_URL}/scenarios/${scenarioId}/traces`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/scenarios/${scenarioId}/traces`);
     // A malformed capture is refused in place, naming the line and the problem.
     const broken = csvPath.replace(/\.csv$/, "-broken.csv");
     const lines = captureCsv(step.time, step.iLoad, scenario.parts.senseResistor).split("\n");
@@ -127,7 +127,7 @@ describe("library: upload, submit, validate, review", () => {
     const page = await leadCtx.newPage();
     const errors = watchErrors(page);
     await signIn(page, "lead");
-    await page.goto(`${BASE_URL}/library?status=submitted`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/library?status=submitted`);
     await page.getByTestId("library-table").getByRole("link", { name: "Valve coil driver" }).first().click();
     await page.waitForURL((u) => u.pathname === entryUrl);
     await page.getByTestId("submitted-comparison").waitFor();
@@ -143,7 +143,7 @@ describe("library: upload, submit, validate, review", () => {
     const mail = await mailTo(demoUser("designer").email, "Validated: Valve coil driver", decidedAt);
     expect(mail?.text_body).toContain("Bench agrees with the simulation");
 
-    await page.goto(`${BASE_URL}/library?status=validated&q=Valve`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/library?status=validated&q=Valve`);
     const row = page.getByTestId("library-row").filter({ hasText: "Valve coil driver" }).first();
     await row.waitFor();
     expect(await row.textContent()).toContain("validated");
@@ -154,7 +154,7 @@ describe("library: upload, submit, validate, review", () => {
   it("the review page renders every section, and prints without the app's chrome", async () => {
     const page = await designerCtx.newPage();
     const errors = watchErrors(page);
-    await page.goto(`${BASE_URL}/scenarios/${scenarioId}/review`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/scenarios/${scenarioId}/review`);
     await page.locator('[data-testid="review-document"][data-sim-status="done"]').waitFor({ timeout: 60_000 });
     for (const id of ["review-schematic", "review-parts", "review-op", "review-checks", "review-cautions", "review-step-plot", "review-loop-plot", "review-bench", "review-status", "review-sign-off"]) {
       await expect(page.getByTestId(id).first().isVisible()).resolves.toBe(true);
@@ -178,7 +178,7 @@ describe("library: upload, submit, validate, review", () => {
 
   it("a designer starts a new scenario from the validated entry", async () => {
     const page = await designerCtx.newPage();
-    await page.goto(`${BASE_URL}${entryUrl}`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}${entryUrl}`);
     await page.getByLabel("New scenario title").fill("Valve coil driver, second channel");
     await page.getByRole("button", { name: "Start from this" }).click();
     await page.waitForURL((u) => /^\/scenarios\/[0-9a-f-]{36}$/.test(u.pathname) && u.pathname !== `/scenarios/${scenarioId}`, { timeout: 30_000 });
