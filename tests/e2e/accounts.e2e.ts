@@ -44,6 +44,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const cookie = (await designerCtx.cookies()).find((c) => c.name === "quell_session");
     expect(cookie).toMatchObject({ httpOnly: true, sameSite: "Lax" });
     await designer.getByRole("heading", { name: "Scenarios" }).waitFor();
+    await designer.getByLabel("Search titles").fill("Valve coil driver");
     await designer.getByRole("table").getByRole("link", { name: "Valve coil driver", exact: true }).waitFor();
 
     const title = `Coil driver, tuned ${Date.now()}`;
@@ -244,6 +245,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const ctx = await context(browser);
     const page = await ctx.newPage();
     await signIn(page, "designer");
+    await page.getByLabel("Search titles").fill("Valve coil driver"); // other suites add scenarios: it may be past page 1
     await page.getByRole("table").getByRole("link", { name: "History of Valve coil driver", exact: true }).click();
     await page.waitForURL(/\/history$/);
     await page.getByRole("button", { name: "Share link" }).click();
