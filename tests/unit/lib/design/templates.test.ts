@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { parseNetlist } from "@/lib/sim";
 import {
-  TEMPLATES, accuracyBudget, compileNetlist, defaultScenario, demoScenarios, fullScaleCurrent, idealTransconductance, runOperatingPoint,
+  TEMPLATES, accuracyBudget, compileNetlist, defaultScenario, demoScenarios, fullScaleCurrent, idealTransconductance, passPreset, runOperatingPoint,
   type Scenario, type TemplateId,
 } from "@/lib/design";
 
@@ -31,6 +31,11 @@ describe("each template's DC current matches Vcommand·k/Rsense within the predi
     const s = defaultScenario(id);
     const err = dcError(s);
     expect(Math.abs(err)).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
+  });
+  it("source-highside with a P-MOSFET", () => {
+    const s = defaultScenario("source-highside");
+    s.pass = passPreset("P-MOSFET 60 V");
+    expect(Math.abs(dcError(s))).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
   });
   it.each(demoScenarios().map((d) => [d.key, d.body] as const))("the %s demo", (_key, s) => {
     expect(Math.abs(dcError(s))).toBeLessThanOrEqual(accuracyBudget(s).worstCase);
