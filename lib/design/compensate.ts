@@ -171,13 +171,106 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
   return { chosen: best, scanned: rows, stepped, message };
 }
 
-/** Auto-compensation in one call: scan every candidate, then pick. */
-export function compensate(s: Scenario, settings: CompensateSettings, opts: StudyOptions = {}): CompensateResult {
-  const total = compensateCandidates(s, settings).length;
-  const scanOpts: StudyOptions = { ...opts, onProgress: opts.onProgress ? (d) => opts.onProgress!(d, total + 3) : undefined };
-  const rows = compensateScan(s, settings, scanOpts);
-  const pickOpts: StudyOptions = { ...opts, onProgress: undefined };
-  const result = compensatePick(s, settings, rows, pickOpts);
-  opts.onProgress?.(total + 3, total + 3);
-  return result;
+/**
+ * Auto-compensation in one thread, evaluating lazily: the same search as compensateScan + compensatePick (probe
+ * about eight values, bisect to the smallest that meets both the phase-margin and the overshoot target at every
+ * load corner, then compare it with the next values up for settling), but a candidate's phase margin is computed
+ * only when the search visits it. `scanned` then lists the visited candidates. A worker pool should rather split
+ * compensateScan and call compensatePick.
+ */
+export function compensate(s: Scenario, settings: CompensateSettings, opts: StudyOptions = {}, extra = 2): CompensateResult {
+  const cands = compensateCandidates(s, settings);
+  const corners = loadCorners(s);
+  const scanned = new Map<number, CompensateScanRow>();
+  const stepped = new Map<number, { os: number; ts: number } | null>();
+  const quiet: StudyOptions = { ...opts, onProgress: undefined };
+  let visits = 0;
+  const budget = cands.length;
+  const progress = () => opts.onProgress?.(Math.min(++visits, budget), budget);
+  const pmRow = (k: number): CompensateScanRow => {
+    let row = scanned.get(k);
+    if (!row) {
+      row = compensateScan(s, settings, quiet, { start: k, end: k + 1 })[0];
+      scanned.set(k, row);
+      progress();
+    }
+    return row;
+  };
+  const step = (k: number): { os: number; ts: number } | null => {
+    if (stepped.has(k)) return stepped.get(k)!;
+    checkStop(opts);
+    let os = 0, ts = 0;
+    let res: { os: number; ts: number } | null = null;
+    try {
+      for (const corner of corners) {
+        const m = runStep(applyCandidate(corner, cands[k]), engineOptions(opts)).metrics;
+        os = Math.max(os, m.overshootPct);
+        ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
+      }
+      res = { os, ts };
+    } catch (e) {
+      if (!isSimError(e) || e.code === "cancelled") throw e;
+    }
+    stepped.set(k, res);
+    return res;
+  };
+  const pmOk = (k: number) => {
+    const pm = pmRow(k).minPhaseMarginDeg;
+    return Number.isFinite(pm) && pm >= settings.targetPhaseMarginDeg;
+  };
+  const meets = (k: number) => {
+    if (!pmOk(k)) return false;
+    const m = step(k);
+    return m !== null && m.os <= settings.maxOvershootPct;
+  };
+  let best: CompensateResult["chosen"] = null;
+  // One search per base/gate resistor (candidates come grouped by resistor, ascending in capacitance).
+  const groups = new Map<number, number[]>();
+  cands.forEach((c, k) => groups.set(c.baseResistor, [...(groups.get(c.baseResistor) ?? []), k]));
+  for (const idx of groups.values()) {
+    const n = idx.length;
+    const stride = Math.max(1, Math.ceil(n / 8));
+    const probes: number[] = [];
+    for (let j = 0; j < n; j += stride) probes.push(j);
+    if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
+    let lo = -1, hi = -1;
+    for (let j = 0; j < probes.length; j++) {
+      if (meets(idx[probes[j]])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
+    }
+    if (hi < 0) continue;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (meets(idx[mid])) hi = mid; else lo = mid;
+    }
+    for (let j = hi; j < Math.min(n, hi + 1 + extra); j++) {
+      const k = idx[j];
+      if (!meets(k)) continue;
+      const m = step(k)!;
+      if (!best || m.ts < best.worstSettlingTime1pct) {
+        const row = pmRow(k);
+        best = {
+          compCapacitor: row.compCapacitor,
+          baseResistor: row.baseResistor,
+          minPhaseMarginDeg: row.minPhaseMarginDeg,
+          worstOvershootPct: m.os,
+          worstSettlingTime1pct: m.ts,
+          phaseMarginToSpareDeg: row.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
+          overshootToSparePct: settings.maxOvershootPct - m.os,
+        };
+      }
+    }
+  }
+  opts.onProgress?.(budget, budget);
+  const rows = [...scanned.values()].sort((a, b) => a.index - b.index);
+  const steppedRows = [...stepped.entries()]
+    .filter((e): e is [number, { os: number; ts: number }] => e[1] !== null)
+    .map(([k, m]) => ({ compCapacitor: cands[k].compCapacitor, baseResistor: cands[k].baseResistor, worstOvershootPct: m.os, worstSettlingTime1pct: m.ts }))
+    .sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
+  const anyPm = rows.some((r) => Number.isFinite(r.minPhaseMarginDeg) && r.minPhaseMarginDeg >= settings.targetPhaseMarginDeg);
+  const message = best
+    ? `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${formatEng(best.worstSettlingTime1pct, "s")}.`
+    : !anyPm
+      ? `No ${settings.series} value from 10 pF to 100 nF that was tried reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
+      : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+  return { chosen: best, scanned: rows, stepped: steppedRows, message };
 }
