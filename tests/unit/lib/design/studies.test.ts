@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { isSimError } from "@/lib/sim";
 import {
-  SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, worstCaseCorners, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
+  SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, compensatePick, compensateScan, worstCaseCorners, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
   withParameter,
 } from "@/lib/design";
 
@@ -86,6 +86,10 @@ describe("studies on the reference sink", () => {
     expect(c.minPhaseMarginDeg).toBeGreaterThanOrEqual(60);
     expect(c.worstOvershootPct).toBeLessThanOrEqual(5);
     expect(c.phaseMarginToSpareDeg).toBeCloseTo(c.minPhaseMarginDeg - 60, 12);
+    // The lazy one-thread search and the pool's full scan + pick choose the same value.
+    const settings = { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E6" as const, tuneBaseResistor: false };
+    const full = compensatePick(one, settings, compensateScan(one, settings));
+    expect(full.chosen?.compCapacitor).toBe(c.compCapacitor);
   });
 
   it("Spread stays between the worst-case corners, and the corners inside the analytic worst-case budget", () => {
