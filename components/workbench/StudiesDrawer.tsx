@@ -7,7 +7,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import { formatEng, parseEng } from "@/lib/units/eng";
-import { SWEEPABLE_PARAMETERS, mergeSpread, summarizeSpread, type MapMetric } from "@/lib/design/studies";
+import { SWEEPABLE_PARAMETERS, mergeSpread, summarizeSpread, type MapMetric, type SpreadDraw } from "@/lib/design/studies";
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/design/eseries";
 import { setPath, getPath } from "@/lib/workbench/paths";
 import { StudyRunner } from "@/lib/workbench/studies";
@@ -312,6 +312,21 @@ function MapTab({ runner }: { runner: StudyRunner | null }) {
   );
 }
 
+/** The part deviations that produced a worst-case run (relative in %, offset in V, bias in A, β absolute). */
+function WorstDraw({ title, draw }: { title: string; draw: SpreadDraw }) {
+  const abs: Record<string, string> = { vos: "V", ib: "A", betaF: "" };
+  return (
+    <details className="rounded border border-hairline bg-white px-2 py-1 text-[12px]">
+      <summary className="cursor-pointer">{title}</summary>
+      <ul className="num mt-1 grid grid-cols-2 gap-x-4 sm:grid-cols-3">
+        {Object.entries(draw).map(([k, v]) => (
+          <li key={k}>{k}: {k in abs ? formatEng(v, abs[k]!) : `${v >= 0 ? "+" : ""}${(v * 100).toFixed(2)} %`}</li>
+        ))}
+      </ul>
+    </details>
+  );
+}
+
 function HistFigure({ title, h, label, unit, color, testId }: { title: string; h: { edges: Float64Array; counts: Float64Array }; label: string; unit: string; color: string; testId: string }) {
   const ref = useRef<{ toPng(): string | null }>(null);
   return (
@@ -367,6 +382,8 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
                 <tr><th scope="row" className="pr-3 text-left font-medium">Runs that failed</th><td>{summary.merged.failures.length}</td></tr>
               </tbody>
             </table>
+            {summary.sum.worstError && <WorstDraw title={`Worst current error: run ${summary.sum.worstError.index + 1}, ${summary.sum.worstError.errorPctFs.toFixed(3)} % FS`} draw={summary.sum.worstError.draw} />}
+            {summary.sum.worstPhaseMargin && <WorstDraw title={`Lowest phase margin: run ${summary.sum.worstPhaseMargin.index + 1}, ${summary.sum.worstPhaseMargin.phaseMarginDeg.toFixed(1)}°`} draw={summary.sum.worstPhaseMargin.draw} />}
           </div>
         ) : (
           <p className="text-[13px] text-ink-muted">Draws every part within its tolerance (seeded, repeatable) and shows how the output current and the phase margin spread.</p>

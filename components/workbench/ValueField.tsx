@@ -7,7 +7,7 @@
 import { useEffect, useId, useRef, useState } from "react";
 import { formatEng, parseEng } from "@/lib/units/eng";
 import { nearestE, type ESeriesName } from "@/lib/design/eseries";
-import { editText } from "@/lib/workbench/format";
+import { editText, editTextFor } from "@/lib/workbench/format";
 
 export { editText };
 
@@ -39,7 +39,7 @@ const STEPS = 1000;
 
 export function ValueField(props: ValueFieldProps) {
   const { id, label, unit, value, onCommit, validate, min, max, slider, snap, nullable, integer, onFocus, selected, testId, compact } = props;
-  const shown = value === null ? "" : editText(value);
+  const shown = value === null ? "" : editTextFor(value, unit);
   const [draft, setDraft] = useState(shown);
   const [error, setError] = useState<string | null>(null);
   const [note, setNote] = useState<string | null>(null);
@@ -83,7 +83,7 @@ export function ValueField(props: ValueFieldProps) {
     const typed = parseEng(draft, unit || undefined);
     setNote(snap && r.value !== null && typed.ok && typed.value !== r.value ? `snapped to ${snap}: ${formatEng(r.value, unit)}` : null);
     if (r.value !== before) onCommit(r.value, false);
-    setDraft(r.value === null ? "" : editText(r.value));
+    setDraft(r.value === null ? "" : editTextFor(r.value, unit));
   };
 
   const lo = Math.max(min ?? 0, unit === "F" ? 1e-12 : unit === "Ω" ? 1e-3 : 1e-15);

@@ -13,3 +13,12 @@ export function editText(value: number): string {
   const num = m[2]!.includes(".") ? m[2]!.replace(/0+$/, "").replace(/\.$/, "") : m[2]!;
   return `${m[1] === "−" ? "-" : ""}${num}${m[3] ?? ""}`;
 }
+
+/** Units shown as plain decimals rather than with SI prefixes (100m % would read badly). */
+export const PLAIN_UNITS: ReadonlySet<string> = new Set(["", "%", "°", "°C", "°C/W"]);
+
+/** `editText` for SI quantities; plain decimals (four significant digits) for the units in PLAIN_UNITS. */
+export function editTextFor(value: number, unit: string): string {
+  if (!PLAIN_UNITS.has(unit) || !Number.isFinite(value)) return editText(value);
+  return String(Number(value.toPrecision(4)));
+}

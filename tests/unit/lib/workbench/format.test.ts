@@ -22,3 +22,14 @@ describe("editText (what a value field shows)", () => {
     }
   });
 });
+
+import { editTextFor } from "@/lib/workbench/format";
+
+describe("editTextFor", () => {
+  it("writes percentages, degrees and plain numbers without SI prefixes", () => {
+    expect(editTextFor(0.1, "%")).toBe("0.1");
+    expect(editTextFor(45, "°")).toBe("45");
+    expect(editTextFor(2e5, "")).toBe("200000");
+    expect(editTextFor(2.2e-9, "F")).toBe("2.2n");
+  });
+});
