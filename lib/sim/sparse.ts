@@ -2,18 +2,20 @@
  * LU with a pivot order and fill pattern computed once, then reused: the classic circuit-simulator split of
  * "ordering + symbolic factorisation" from "numeric factorisation" (K. S. Kundert, "Sparse matrix techniques", in
  * Circuit Analysis, Simulation and Design, A. E. Ruehli ed., North-Holland 1986; Vlach & Singhal 1994, ch. on sparse
- * matrices). The order comes from Gaussian elimination with partial pivoting on an actual matrix (Golub & Van Loan
- * §3.4); every later numeric factorisation walks only the structurally non-zero positions (stamps + fill-in) and
- * allocates nothing. When a reused pivot turns out small (a multiplier above GROWTH, the threshold-pivoting test),
+ * matrices). The order comes from an elimination on an actual matrix with threshold pivoting and a fewest-non-zeros
+ * tie-break (see chooseOrder); every later numeric factorisation walks only the structurally non-zero positions
+ * (stamps + fill-in) and allocates nothing. When a reused pivot turns out small (a multiplier above GROWTH, the threshold-pivoting test),
  * the caller re-analyses with the current values.
  *
  * Storage is the circuit's row-major (n+1)×(n+1) array: rows are never moved; `rowOf[k]` says which stored row is
  * the k-th pivot row.
  */
-import { luFactor, luFactorComplex, SINGULAR_PIVOT } from "./lu";
+import { SINGULAR_PIVOT } from "./lu";
 
 /** Largest multiplier accepted before asking for a new pivot order (threshold pivoting, u = 1e-4). */
 const GROWTH = 1e4;
+/** A pivot candidate must be at least this fraction of its column's largest entry. */
+const PIVOT_THRESHOLD = 0.1;
 
 export const LU_OK = -1;
 /** factor() result: the reused order is numerically poor at this matrix; call analyse() and factor again. */
@@ -36,7 +38,6 @@ export class StaticLU {
   positions = new Int32Array(0);
   private scratch: Float64Array;
   private scratchIm: Float64Array;
-  private piv: Int32Array;
   private y: Float64Array;
   private yi: Float64Array;
 
@@ -48,7 +49,6 @@ export class StaticLU {
     this.base = new Int32Array(n);
     this.scratch = new Float64Array(stride * stride);
     this.scratchIm = new Float64Array(stride * stride);
-    this.piv = new Int32Array(stride);
     this.y = new Float64Array(stride);
     this.yi = new Float64Array(stride);
   }
@@ -62,20 +62,10 @@ export class StaticLU {
     // only structural entries count (other positions may hold stale factors from an earlier order)
     const st = this.structure, sc = this.scratch, si = this.scratchIm;
     for (let i = 0; i < sc.length; i++) sc[i] = st[i] ? a[i] : 0;
-    let bad: number;
-    if (im) {
-      for (let i = 0; i < si.length; i++) si[i] = st[i] ? im[i] : 0;
-      bad = luFactorComplex(this.scratch, this.scratchIm, n, stride, this.piv);
-    } else {
-      bad = luFactor(this.scratch, n, stride, this.piv);
-    }
+    if (im) for (let i = 0; i < si.length; i++) si[i] = st[i] ? im[i] : 0;
+    const bad = this.chooseOrder(im !== undefined);
     if (bad >= 0) return bad;
     const rowOf = this.rowOf;
-    for (let k = 0; k < n; k++) rowOf[k] = k;
-    for (let k = 0; k < n; k++) {
-      const p = this.piv[k];
-      if (p !== k) { const t = rowOf[k]; rowOf[k] = rowOf[p]; rowOf[p] = t; }
-    }
     for (let k = 0; k < n; k++) this.base[k] = rowOf[k] * stride;
     // symbolic elimination on the permuted structure (dense boolean, n is small)
     const s = new Uint8Array(n * n);
@@ -102,6 +92,65 @@ export class StaticLU {
     this.lRows = Int32Array.from(lRows); this.uCols = Int32Array.from(uCols);
     this.analysed = true;
     this.reorders++;
+    return -1;
+  }
+
+  /**
+   * Pivot order by threshold pivoting with a Markowitz-style tie-break (H. M. Markowitz, "The elimination form of
+   * the inverse and its application to linear programming", Management Science 3, 1957; threshold pivoting as in
+   * Duff, Erisman & Reid, "Direct Methods for Sparse Matrices", 1986): columns are eliminated in their natural order;
+   * among the rows whose entry is at least PIVOT_THRESHOLD × the column's largest, the one with the fewest
+   * remaining non-zeros is chosen, which keeps fill-in down. Works on the scratch copy; fills rowOf.
+   * Returns -1, or the column where no usable pivot exists.
+   */
+  private chooseOrder(complex: boolean): number {
+    const { n, stride } = this;
+    const re = this.scratch, im = this.scratchIm;
+    const used = new Uint8Array(n);
+    const nz = new Uint8Array(n * n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) nz[i * n + j] = this.structure[i * stride + j];
+    for (let k = 0; k < n; k++) {
+      let colMax = 0;
+      for (let r = 0; r < n; r++) {
+        if (used[r]) continue;
+        const q = r * stride + k;
+        const m = complex ? Math.abs(re[q]) + Math.abs(im[q]) : Math.abs(re[q]);
+        if (m > colMax) colMax = m;
+      }
+      if (!(colMax > SINGULAR_PIVOT)) return k;
+      let best = -1, bestCount = Infinity, bestMag = 0;
+      for (let r = 0; r < n; r++) {
+        if (used[r]) continue;
+        const q = r * stride + k;
+        const m = complex ? Math.abs(re[q]) + Math.abs(im[q]) : Math.abs(re[q]);
+        if (m < PIVOT_THRESHOLD * colMax) continue;
+        let count = 0;
+        for (let j = k + 1; j < n; j++) count += nz[r * n + j];
+        if (count < bestCount || (count === bestCount && m > bestMag)) { best = r; bestCount = count; bestMag = m; }
+      }
+      this.rowOf[k] = best;
+      used[best] = 1;
+      const bp = best * stride;
+      // the multiplier is formed exactly as factor()/factorComplex() form it, so the numeric factorisation that
+      // follows meets the same pivots bit for bit (near-cancelling entries must not decide differently)
+      const dr = re[bp + k], di = complex ? im[bp + k] : 0;
+      let ir: number, ii: number;
+      if (complex) { const den = dr * dr + di * di; ir = dr / den; ii = -di / den; } else { ir = 1 / dr; ii = 0; }
+      for (let i = 0; i < n; i++) {
+        if (used[i]) continue;
+        const ip = i * stride;
+        const mr = re[ip + k], mi = complex ? im[ip + k] : 0;
+        if (mr === 0 && mi === 0 && !nz[i * n + k]) continue;
+        const lr = complex ? mr * ir - mi * ii : mr * ir, li = complex ? mr * ii + mi * ir : 0;
+        for (let j = k + 1; j < n; j++) {
+          if (!nz[best * n + j]) continue;
+          nz[i * n + j] = 1;
+          const ur = re[bp + j], ui = complex ? im[bp + j] : 0;
+          re[ip + j] -= lr * ur - li * ui;
+          if (complex) im[ip + j] -= lr * ui + li * ur;
+        }
+      }
+    }
     return -1;
   }
 

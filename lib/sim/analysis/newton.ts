@@ -10,7 +10,7 @@ import { LU_REORDER } from "../sparse";
 /** V: largest node-voltage change per iteration in the damped-Newton stage of the DC solve */
 const DAMPED_STEP = 2;
 /** iterations of plain Newton before the damped stage */
-const PLAIN_ITER = 40;
+const PLAIN_ITER = 25;
 
 /** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
 let worstUnknown = -1;
@@ -59,6 +59,9 @@ export function solveInto(c: Circuit, out: Float64Array): void {
     for (let q = 0; q < P.length; q++) m[P[q]] = bk[P[q]];
     const bad = lu.analyse(c.mat);
     if (bad >= 0) throw singular(c, bad);
+    // fill-in positions of the new order may hold stale factors from an older one: they start at zero
+    const P2 = lu.positions, st = c.structure;
+    for (let q = 0; q < P2.length; q++) if (!st[P2[q]]) m[P2[q]] = 0;
     r = lu.factor(c.mat);
     if (r !== -1) throw singular(c, r === LU_REORDER ? 0 : r);
   }

@@ -7,7 +7,7 @@
  * Optional series rb, rc, re through internal nodes; gmin across each junction; junction limiting (§1.5).
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
-import { criticalVoltage, depletion, expLim, expLimSlope, pnjlim } from "./junction";
+import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
 import { nodeOf } from "./linear";
 
 export interface BjtModel {
@@ -48,6 +48,7 @@ export class Bjt extends Element {
   private sBE = 0; private sBC = 0;
   private vbe = 0; private vbc = 0;
   private vcrit = 0.6;
+  private vmax = 1.5;
   // results of the last evaluation (normalised polarity)
   private IC = 0; private IB = 0; private gmBE = 0; private gcBC = 0; private gpi = 0; private gmu = 0;
   private iF = 0; private iR = 0; private gF = 0; private gR = 0;
@@ -79,6 +80,7 @@ export class Bjt extends Element {
     this.sBE = c.allocState(2);
     this.sBC = this.sBE + 1;
     this.vcrit = criticalVoltage(c.vt, this.model.Is);
+    this.vmax = junctionCeiling(c.vt, this.model.Is);
   }
 
   /** Evaluate currents and conductances at normalised (vbe, vbc). */
@@ -115,8 +117,8 @@ export class Bjt extends Element {
     const vt = c.vt;
     const vbeRaw = p * (x[this.bi] - x[this.ei]);
     const vbcRaw = p * (x[this.bi] - x[this.ci]);
-    const vbe = pnjlim(vbeRaw, this.vbe, vt, this.vcrit);
-    const vbc = pnjlim(vbcRaw, this.vbc, vt, this.vcrit);
+    const vbe = Math.min(pnjlim(vbeRaw, this.vbe, vt, this.vcrit), this.vmax);
+    const vbc = Math.min(pnjlim(vbcRaw, this.vbc, vt, this.vcrit), this.vmax);
     // previous linearisation, for the current convergence test
     const ic0 = this.IC, ib0 = this.IB, gm0 = this.gmBE, gc0 = this.gcBC, gpi0 = this.gpi, gmu0 = this.gmu;
     const dbe = vbe - this.vbe, dbc = vbc - this.vbc;

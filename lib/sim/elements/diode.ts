@@ -3,7 +3,7 @@
  * reverse breakdown at BV (exponential knee), depletion + diffusion (tau·I) charge, series Rs, gmin across the junction.
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
-import { criticalVoltage, depletion, expLim, expLimSlope, pnjlim } from "./junction";
+import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
 import { nodeOf } from "./linear";
 
 export interface DiodeModel { Is: number; n: number; Rs: number; Cj0: number; Vj: number; m: number; tau: number; BV: number | null }
@@ -20,6 +20,7 @@ export class Diode extends Element {
   private gPrev = 0;
   private nvt = 0.025;
   private vcrit = 0.6;
+  private vmax = 1.5;
   constructor(name: string, private readonly nodeNames: readonly [string, string], private readonly model: DiodeModel) {
     super(name, "diode");
   }
@@ -35,6 +36,7 @@ export class Diode extends Element {
     this.s = c.allocState(1);
     this.nvt = this.model.n * c.vt;
     this.vcrit = criticalVoltage(this.nvt, this.model.Is);
+    this.vmax = junctionCeiling(this.nvt, this.model.Is);
   }
   /** junction current (A) and conductance (S) at vd; conductance left in scratch[1] */
   private iv(vd: number, gmin: number): number {
@@ -62,7 +64,7 @@ export class Diode extends Element {
       const vr = pnjlim(-(vd + mod.BV), -(this.vd + mod.BV), this.nvt, this.vcrit);
       vd = -(vr + mod.BV);
     } else {
-      vd = pnjlim(vd, this.vd, this.nvt, this.vcrit);
+      vd = Math.min(pnjlim(vd, this.vd, this.nvt, this.vcrit), this.vmax);
     }
     const i = this.iv(vd, c.tol.gmin);
     let g = scratch[1];

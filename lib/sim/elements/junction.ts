@@ -23,6 +23,16 @@ export function pnjlim(vnew: number, vold: number, nvt: number, vcrit: number): 
   return vnew;
 }
 
+/**
+ * Largest junction voltage a Newton iteration may linearise at: where the junction would carry 1 MA. Junction
+ * limiting lets the voltage creep up by ~Vt·ln(ΔV/Vt) per iteration; while a circuit is far from its solution that
+ * creep can reach currents whose conductances (1e17 S and more) cancel catastrophically in the LU. A safeguard of our
+ * own; no real solution is anywhere near it.
+ */
+export function junctionCeiling(nvt: number, is: number): number {
+  return nvt * Math.log(1e6 / is);
+}
+
 /** Exponent cap: beyond it exp continues linearly, so a wild iterate cannot overflow to Infinity. */
 const EXP_MAX = 80;
 const E_MAX = Math.exp(EXP_MAX);

@@ -148,14 +148,13 @@ export class Opamp extends Element {
     // swing clamps on vx, relative to the supply pins. A Newton step can throw vx to Aol·vd (kilovolts) because the
     // far clamp is invisible to the linearisation; like junction limiting (Nagel 1975), the clamps are linearised
     // no further than X_WINDOW outside the swing range, and such an iteration is not accepted as converged.
+    // (Skipped while the supplies leave no room between the limits, e.g. at the start of source stepping.)
     let vx = x[nx];
-    if (mod.swingHigh !== null) {
-      const top = x[this.vcc] - mod.swingHigh + X_WINDOW;
+    const top = mod.swingHigh === null ? Infinity : x[this.vcc] - mod.swingHigh + X_WINDOW;
+    const bottom = mod.swingLow === null ? -Infinity : x[this.vee] + mod.swingLow - X_WINDOW;
+    if (bottom < top) {
       if (vx > top) { vx = top; c.noncon++; }
-    }
-    if (mod.swingLow !== null) {
-      const bottom = x[this.vee] + mod.swingLow - X_WINDOW;
-      if (vx < bottom) { vx = bottom; c.noncon++; }
+      else if (vx < bottom) { vx = bottom; c.noncon++; }
     }
     if (mod.swingHigh !== null) {
       const z = (vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP;
