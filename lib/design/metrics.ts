@@ -196,7 +196,8 @@ function logInterp(f: Float64Array, i: number, frac: number): number {
 
 /**
  * Margins of a loop gain T(jω) (T > 0 at low frequency for negative feedback; the closed loop is 1/(1+T)-shaped).
- * PM = 180° + ∠T at the first |T| = 1 crossing downward; GM = −|T|dB where ∠T first reaches −180°.
+ * PM = 180° + ∠T (wrapped to (−180°, 180°]) at the |T| = 1 crossing where it is smallest; GM = −|T|dB where ∠T
+ * first reaches −180°.
  */
 export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Array): LoopMetrics {
   const n = freq.length;
@@ -212,15 +213,20 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
     const k = Math.round(phaseDeg[0] / 360);
     if (k !== 0) for (let i = 0; i < n; i++) phaseDeg[i] -= 360 * k;
   }
+  // Every |T| = 1 crossing is a gain crossover; with several (a load resonance can dip |T| through 0 dB and back),
+  // the margin that matters is the smallest one, and the crossover reported is where it occurs (common practice).
   let crossoverHz: number | null = null;
   let phaseMarginDeg: number | null = null;
   for (let i = 1; i < n; i++) {
-    if (magDb[i - 1] >= 0 && magDb[i] < 0) {
-      const frac = magDb[i - 1] / (magDb[i - 1] - magDb[i]);
+    if ((magDb[i - 1] >= 0) === (magDb[i] >= 0)) continue;
+    const frac = magDb[i - 1] / (magDb[i - 1] - magDb[i]);
+    const ph = phaseDeg[i - 1] + frac * (phaseDeg[i] - phaseDeg[i - 1]);
+    // Margin from the nearest −180° (mod 360°), so an unwrapped phase below −180° gives a negative margin.
+    // 180° + ∠T wrapped into [−180°, 180°): an unwrapping jump of 360° across a notch must not inflate the margin.
+    const margin = ((((180 + ph) % 360) + 540) % 360) - 180;
+    if (phaseMarginDeg === null || margin < phaseMarginDeg) {
+      phaseMarginDeg = margin;
       crossoverHz = logInterp(freq, i, frac);
-      const ph = phaseDeg[i - 1] + frac * (phaseDeg[i] - phaseDeg[i - 1]);
-      phaseMarginDeg = 180 + ph;
-      break;
     }
   }
   let gainMarginDb: number | null = null;
