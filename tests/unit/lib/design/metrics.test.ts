@@ -178,11 +178,11 @@ describe("disturbance metrics (load or supply step)", () => {
 });
 
 describe("loop margins with several gain crossovers", () => {
-  // T(s) = (ωc/s) · (s² + 2ζz·ωz·s + ωz²)/(s² + 2ζp·ωz·s + ωz²) · 1/(1 + s/ωp): an integrator with a lightly damped
-  // zero pair (a load resonance) and a second pole. The notch pulls |T| through 0 dB and back, so |T| = 1 three
-  // times. Oracle: the closed form of T evaluated at crossings found by bisection on |T| − 1 (common practice: the
+  // T(s) = (ωc/s) · (s² + 2ζz·ωz·s + ωz²)/(s² + 2ζp·ωz·s + ωz²) · 1/(1 + s/ωp): an integrator crossing 0 dB at
+  // ωc, then a lightly damped pole pair above it (a load resonance) whose peak lifts |T| through 0 dB and back, so
+  // |T| = 1 three times and the first crossing (PM ≈ 90°) is not the one that matters. Oracle: the closed form of T evaluated at crossings found by bisection on |T| − 1 (common practice: the
   // margin that matters is the smallest one).
-  const wc = 2 * Math.PI * 2e5, wz = 2 * Math.PI * 1e4, zz = 0.002, zp = 0.7, wp = 2 * Math.PI * 4e5;
+  const wc = 2 * Math.PI * 1e4, wz = 2 * Math.PI * 1e5, zz = 0.7, zp = 0.01, wp = 2 * Math.PI * 1e7;
   function T(w: number): [number, number] {
     const mul = (a: [number, number], b: [number, number]): [number, number] => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
     const div = (a: [number, number], b: [number, number]): [number, number] => {
