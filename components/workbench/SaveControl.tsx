@@ -29,6 +29,9 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   const [msg, setMsg] = useState<string | null>(null);
   const [conflict, setConflict] = useState<{ revisionId: string; number: number; author: string; createdAt: string; theirs: Scenario | null; diff: ReturnType<typeof scenarioDiff> } | null>(null);
 
+  if (!save && scenarioId) {
+    return <span className="text-[12px] text-ink-muted" title="Your role can read and comment; edits here are not saved">Read only</span>;
+  }
   if (!save || !scenarioId || !base) {
     return <span className="text-[12px] text-ink-muted" title="This scenario is a local draft: it is not saved anywhere">Local draft</span>;
   }

@@ -1,6 +1,6 @@
 import { notFound } from "next/navigation";
 import { getScenarioWithRevision } from "@/lib/db/scenarios";
-import { currentUser, requirePageUser } from "@/lib/auth/current";
+import { currentUser, requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { Workbench } from "@/components/workbench/Workbench";
 import { saveScenarioRevision } from "./actions";
@@ -37,7 +37,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
       scenarioId={row.id}
       revisionId={row.revisionId}
       revisionNumber={row.revisionNumber}
-      save={saveScenarioRevision}
+      save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
     />
   );
 }
