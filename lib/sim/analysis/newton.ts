@@ -1,7 +1,8 @@
 /**
- * Newton–Raphson on the MNA equations with device-level junction limiting (Nagel 1975, ERL-M520; REFERENCES §1.5),
- * and the DC continuation fallbacks: gmin stepping and source stepping (Najm, "Circuit Simulation", 2010, DC
- * chapter; Grasser 1999 §6.2.1 — REFERENCES §2.4). Nothing here allocates per iteration.
+ * Newton–Raphson on the MNA equations with device-level junction limiting and a per-device current convergence test
+ * (Nagel 1975, ERL-M520; REFERENCES §1.5), and the DC fallbacks in order: damped Newton (every node's change per
+ * iteration bounded), gmin stepping and source stepping (Najm, "Circuit Simulation", 2010, DC chapter; Grasser 1999
+ * §6.2.1 — REFERENCES §2.4). Nothing in the Newton loop allocates.
  */
 import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
