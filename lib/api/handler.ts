@@ -1,6 +1,7 @@
 import "server-only";
 import { z, type ZodType } from "zod";
 import { ApiError } from "./errors";
+import { readLimitedBytes } from "./body";
 import { DomainError } from "@/lib/db/errors";
 import { sessionFromCookieHeader } from "@/lib/auth/session-config";
 import { resolveCurrentUser } from "@/lib/db/users";
@@ -33,23 +34,9 @@ export function fieldErrors(error: z.ZodError): Record<string, string[]> {
 }
 
 async function readBody(req: Request, maxBytes: number): Promise<string> {
-  const declared = Number(req.headers.get("content-length") ?? "NaN");
-  if (Number.isFinite(declared) && declared > maxBytes) throw new ApiError(413, `Request body over ${maxBytes} bytes.`);
-  if (!req.body) return "";
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > maxBytes) {
-      await reader.cancel();
-      throw new ApiError(413, `Request body over ${maxBytes} bytes.`);
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks).toString("utf8");
+  const bytes = await readLimitedBytes(req, maxBytes);
+  if (!bytes) throw new ApiError(413, `Request body over ${maxBytes} bytes.`);
+  return new TextDecoder().decode(bytes);
 }
 
 /** Mutating requests from another origin are refused (cookies are sameSite=lax, this is the second fence). */

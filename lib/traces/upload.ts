@@ -4,6 +4,7 @@
  * the line; nothing is stored by this module.
  */
 import { z } from "zod";
+import { readLimitedBytes } from "@/lib/api/body";
 import { MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "./parse";
 
 /** Largest multipart request, bytes: the file limit plus room for the other fields. */
@@ -45,27 +46,6 @@ export type TraceUpload =
     }
   | { ok: false; status: 400 | 413; error: string; problems?: TraceProblem[]; fieldErrors?: Record<string, string[]> };
 
-async function readLimited(req: Request, max: number): Promise<Uint8Array | null> {
-  if (!req.body) return new Uint8Array(0);
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > max) {
-      await reader.cancel();
-      return null;
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) { out.set(c, at); at += c.byteLength; }
-  return out;
-}
-
 function jsonField<T>(form: FormData, name: string, schema: z.ZodType<T>, fallback: T): { ok: true; value: T } | { ok: false; errors: string[] } {
   const raw = form.get(name);
   if (raw === null || raw === "") return { ok: true, value: fallback };
@@ -87,7 +67,7 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
   if (!type.toLowerCase().startsWith("multipart/form-data")) {
     return { ok: false, status: 400, error: "Send the trace as multipart/form-data with a `file` field." };
   }
-  const bytes = await readLimited(req, maxBytes);
+  const bytes = await readLimitedBytes(req, maxBytes);
   if (!bytes) return { ok: false, status: 413, error: `The upload is over ${(maxBytes / 1048576).toFixed(0)} MB.` };
   let form: FormData;
   try {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { alignmentOffset, compareStep, findStepEdge, stepFigures, DEFAULT_TOLERANCES } from "@/lib/traces";
+import { createRng } from "@/lib/design/stats";
 
 /**
  * Second-order step response (REFERENCES.md §5a, closed form):
@@ -16,17 +17,8 @@ function secondOrder(t: number, zeta = ZETA, w0 = W0): number {
   return 1 - Math.exp(-zeta * w0 * t) * (Math.cos(wd * t) + (zeta / Math.sqrt(1 - zeta * zeta)) * Math.sin(wd * t));
 }
 
-/** Deterministic pseudo-random numbers (mulberry32), so the noisy capture is the same on every run. */
-function seeded(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+// Deterministic pseudo-random numbers (mulberry32, the project's seeded generator), so the noisy capture is the same on every run.
+const seeded = createRng;
 
 /** Root of y(t) = level on [a, b] by bisection on the closed form (the oracle for rise and settling). */
 function solve(f: (t: number) => number, level: number, a: number, b: number): number {
