@@ -247,8 +247,10 @@ export class Opamp extends Element {
     const vx = x[this.nx];
     const vd = x[this.inp] - x[this.inn] + mod.Vos;
     let limiting = false;
-    if (mod.swingHigh !== null && vx > x[this.vcc] - mod.swingHigh - 2 * W_CLAMP) limiting = true;
-    if (mod.swingLow !== null && vx < x[this.vee] + mod.swingLow + 2 * W_CLAMP) limiting = true;
+    // a swing clamp counts as limiting once it carries more than 1 µA of the (1 S) drive, i.e. it holds the internal
+    // stage against more than 1 µV of input error
+    if (mod.swingHigh !== null && G_CLAMP * W_CLAMP * softplus((vx - (x[this.vcc] - mod.swingHigh)) / W_CLAMP) > 1e-6) limiting = true;
+    if (mod.swingLow !== null && G_CLAMP * W_CLAMP * softplus((x[this.vee] + mod.swingLow - vx) / W_CLAMP) > 1e-6) limiting = true;
     if (this.imax !== Infinity && Math.abs(vd) > this.imax) limiting = true;
     if (!this.ideal && mod.Iout !== null && Math.abs(x[this.src] - x[this.out]) > this.rout * mod.Iout) limiting = true;
     return { kind: "opamp", vout: x[this.out], iout: this.current(c), limiting };

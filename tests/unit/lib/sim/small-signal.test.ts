@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { NetlistElement } from "@/lib/sim";
-import { T300C, VT300, runAc, runOp, runTran } from "./helpers";
+import { T300C, VT300, runAc, runOp, runSweep, runTran } from "./helpers";
 import { referenceSink } from "./fixtures/sink";
 
 /**
@@ -99,5 +99,22 @@ describe("reference sink (fixture): consistency of the analyses", () => {
     expect(u.vout).toBe(op.nodes.out);
     expect(u.iout).toBeCloseTo(q.ib, 8); // within the Newton tolerance (reltol 1e-3 of the update)
     expect(u.limiting).toBe(false);
+  });
+
+  it("a DC sweep of the command (each point continuing from the last) equals separate operating points", () => {
+    const sweep = runSweep(referenceSink({ kind: "dcsweep", source: "Vcmd", from: 0, to: 5, points: 11 }));
+    for (const k of [0, 3, 7, 10]) {
+      const op = runOp(referenceSink({ kind: "op" }, sweep.sweep[k]));
+      expect(sweep.currents.Q1[k]).toBeCloseTo(op.currents.Q1, 6);
+      expect(sweep.nodes.out[k]).toBeCloseTo(op.nodes.out, 4);
+    }
+    // the op-amp's internal stage cannot go below 1.2 V, so at zero command the sink still conducts (a property of
+    // this design): the output sits at that floor less the base current's drop across Rout = 40 Ω
+    const u = runOp(referenceSink({ kind: "op" }, 0)).devices.U1;
+    if (u.kind !== "opamp") throw new Error("opamp");
+    expect(u.limiting).toBe(true);
+    expect(sweep.nodes.out[0] + 40 * u.iout).toBeGreaterThan(1.2);
+    expect(sweep.nodes.out[0] + 40 * u.iout).toBeLessThan(1.25);
+    expect(sweep.currents.Q1[0]).toBeGreaterThan(0.1);
   });
 });
