@@ -12,8 +12,9 @@
  */
 import { SINGULAR_PIVOT } from "./lu";
 
-/** Largest multiplier accepted before asking for a new pivot order (threshold pivoting, u = 1e-4). */
-const GROWTH = 1e4;
+/** Largest multiplier accepted before asking for a new pivot order (the order was chosen with multipliers ≤ 10;
+ *  a reused one may drift to 1e3 before it is replaced — a chain of large multipliers compounds). */
+const GROWTH = 1e3;
 /** A pivot candidate must be at least this fraction of its column's largest entry. */
 const PIVOT_THRESHOLD = 0.1;
 
@@ -96,7 +97,7 @@ export class StaticLU {
   }
 
   /**
-   * Pivot order by threshold pivoting with a Markowitz-style tie-break (H. M. Markowitz, "The elimination form of
+   * Pivot order by threshold pivoting with diagonal preference and a Markowitz-style tie-break (H. M. Markowitz, "The elimination form of
    * the inverse and its application to linear programming", Management Science 3, 1957; threshold pivoting as in
    * Duff, Erisman & Reid, "Direct Methods for Sparse Matrices", 1986): columns are eliminated in their natural order;
    * among the rows whose entry is at least PIVOT_THRESHOLD × the column's largest, the one with the fewest
@@ -119,7 +120,12 @@ export class StaticLU {
       }
       if (!(colMax > SINGULAR_PIVOT)) return k;
       let best = -1, bestCount = Infinity, bestMag = 0;
-      for (let r = 0; r < n; r++) {
+      // the diagonal first when it is acceptable: node rows of an MNA matrix are diagonally heavy, and keeping the
+      // pivot on the diagonal keeps it there when later values (C/h, device slopes) shift the magnitudes
+      const dq = k * stride + k;
+      const dm = used[k] ? 0 : complex ? Math.abs(re[dq]) + Math.abs(im[dq]) : Math.abs(re[dq]);
+      if (dm >= PIVOT_THRESHOLD * colMax && dm > SINGULAR_PIVOT) { best = k; bestCount = -1; }
+      for (let r = 0; r < n && bestCount >= 0; r++) {
         if (used[r]) continue;
         const q = r * stride + k;
         const m = complex ? Math.abs(re[q]) + Math.abs(im[q]) : Math.abs(re[q]);
