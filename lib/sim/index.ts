@@ -10,7 +10,8 @@
  *
  * Module map: schema.ts (zod netlist contract) · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
  * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
- * device models) · lu.ts (dense LU, used to choose pivots) · sparse.ts (LU with a reused order, the hot path) ·
+ * device models) · lu.ts (dense LU with partial pivoting, kept as the benchmark's comparison) · sparse.ts (LU with a
+ * reused order and fill pattern, the hot path) ·
  * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts) · waves.ts · results.ts · cli.ts (Node only).
  */
 import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";
