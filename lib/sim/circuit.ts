@@ -91,7 +91,6 @@ export class Circuit {
   readonly rhs: Float64Array;
   x: Float64Array;
   xNew: Float64Array;
-  readonly piv: Int32Array;
   readonly diag: Int32Array;
   /** structural non-zeros: every position requested through pos() */
   readonly structure: Uint8Array;
@@ -153,7 +152,6 @@ export class Circuit {
     this.rhs = new Float64Array(this.stride);
     this.x = new Float64Array(this.stride);
     this.xNew = new Float64Array(this.stride);
-    this.piv = new Int32Array(this.stride);
     this.structure = new Uint8Array(this.stride * this.stride);
     this.matBackup = new Float64Array(this.stride * this.stride);
     this.diag = new Int32Array(this.numNodes);
