@@ -199,3 +199,27 @@ describe("AC against closed-form transfer functions", () => {
     expect(r.currents.V0.im[0]).toBeCloseTo(0.5e-3, 14);
   });
 });
+
+describe("transient: sine source", () => {
+  it("an RC low-pass driven at f = 1/(2πRC) settles to amplitude 1/√2 and −45° (closed form of H = 1/(1 + jωRC))", () => {
+    const R = 1000, C = 1e-7;
+    const f = 1 / (2 * Math.PI * R * C); // 1591.5 Hz
+    const r = runTran({
+      elements: [
+        { kind: "vsource", name: "V1", nodes: ["in", "0"], wave: { shape: "sine", offset: 0.5, amplitude: 1, freq: f, delay: 0 } },
+        { kind: "resistor", name: "R1", nodes: ["in", "out"], value: R },
+        { kind: "capacitor", name: "C1", nodes: ["out", "0"], value: C },
+      ],
+      analysis: { kind: "tran", tStop: 20 / f, maxStep: 1 / (100 * f) },
+      options: { reltol: 1e-5 },
+    });
+    // the source itself is exact at every accepted point
+    for (let i = 0; i < r.time.length; i += 37) expect(r.nodes.in[i]).toBeCloseTo(0.5 + Math.sin(2 * Math.PI * f * r.time[i]), 12);
+    // after 10 periods (63 time constants, so the start-up transient has died) the response is offset + |H|·sin(ωt − 45°)
+    for (let i = 0; i < r.time.length; i++) {
+      const t = r.time[i];
+      if (t < 10 / f) continue;
+      expect(r.nodes.out[i]).toBeCloseTo(0.5 + Math.SQRT1_2 * Math.sin(2 * Math.PI * f * t - Math.PI / 4), 3);
+    }
+  });
+});
