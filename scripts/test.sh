@@ -30,7 +30,8 @@ wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
 status=0
 say "type check"
-if npx tsc --noEmit -p tsconfig.json; then echo "type check: 1 passed, 0 failed"; else status=1; echo "type check: 0 passed, 1 failed"; fi
+typecheck_failed=0
+if npx tsc --noEmit -p tsconfig.json; then echo "type check: passed"; else status=1; typecheck_failed=1; echo "type check: failed"; fi
 
 say "unit and integration tests"
 npx vitest run --reporter=default --reporter=json --outputFile="$RESULTS/vitest.json" || status=1
@@ -56,8 +57,9 @@ fi
 
 node -e '
 const fs=require("fs");let p=0,f=0,s=0;
+if (process.argv[2]==="1") f++; else p++;
 for (const n of ["vitest.json","e2e.json"]) { const file=process.argv[1]+"/"+n;
   if(!fs.existsSync(file)){f++;continue} const r=JSON.parse(fs.readFileSync(file,"utf8"));
   p+=r.numPassedTests;f+=r.numFailedTests;s+=r.numPendingTests+(r.numTodoTests||0); }
-console.log(`tests: ${p} passed, ${f} failed, ${s} skipped`);' "$RESULTS"
+console.log(`tests: ${p} passed, ${f} failed, ${s} skipped`);' "$RESULTS" "$typecheck_failed"
 exit $status
