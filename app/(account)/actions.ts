@@ -3,6 +3,7 @@ import { z } from "zod";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { validatedAction, validatedPublicAction, type ActionState } from "@/lib/auth/action";
+import { clientAddressFrom } from "@/lib/auth/client-address";
 import { setSession, destroySession, getSession } from "@/lib/auth/session";
 import { sessionAccount } from "@/lib/auth/current";
 import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createInvitedAccount } from "@/lib/auth/accounts";
@@ -20,8 +21,7 @@ function safeNext(next: unknown): string {
 }
 
 async function clientAddress(): Promise<string> {
-  const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "unknown";
+  return clientAddressFrom(await headers());
 }
 
 async function startSession(userId: string, preferredTeam?: string | null) {

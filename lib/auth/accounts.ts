@@ -4,7 +4,7 @@ import { findUserByEmail, insertUser, normaliseEmail, findUserById, type UserRow
 import { createTeam } from "@/lib/db/teams";
 import { audit } from "@/lib/db/audit";
 import { DomainError } from "@/lib/db/errors";
-import { recordAttempt, recentFailures, pruneAttempts, MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
+import { beginAttempt, markAttemptSucceeded, dropAttempt, recentFailures, pruneAttempts, MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
 import { createPasswordReset, consumePasswordReset, recentResetCount, MAX_RESETS_PER_HOUR, RESET_TTL_MS } from "@/lib/db/passwordResets";
 import { hashPassword, verifyPassword, verifyAgainstNothing } from "./password";
 import { publicBaseUrl } from "./tokens";
@@ -24,13 +24,16 @@ export type SignInResult = { ok: true; user: UserRow } | { ok: false; throttled:
  */
 export async function signInWithPassword(email: string, password: string, clientAddress: string): Promise<SignInResult> {
   const account = normaliseEmail(email);
+  // Recorded (as a failure) before counting, so concurrent guesses cannot all slip under the limit.
+  const attempt = await beginAttempt(account, clientAddress);
   const failures = await recentFailures(account, clientAddress);
-  if (failures.account >= MAX_FAILURES_PER_ACCOUNT || failures.address >= MAX_FAILURES_PER_ADDRESS) {
+  if (failures.account > MAX_FAILURES_PER_ACCOUNT || failures.address > MAX_FAILURES_PER_ADDRESS) {
+    await dropAttempt(attempt);
     return { ok: false, throttled: true, message: SIGN_IN_THROTTLED };
   }
   const user = await findUserByEmail(account);
   const good = user ? await verifyPassword(password, user.passwordHash) : await verifyAgainstNothing(password);
-  await recordAttempt(account, clientAddress, good);
+  if (good) await markAttemptSucceeded(attempt);
   if (Math.random() < 0.02) await pruneAttempts();
   if (!good || !user) return { ok: false, throttled: false, message: SIGN_IN_REFUSED };
   return { ok: true, user };

@@ -60,8 +60,9 @@ export async function sessionFromCookieHeader(header: string | null): Promise<Se
     .map((p) => p.trim())
     .find((p) => p.startsWith(`${SESSION_COOKIE}=`));
   if (!pair) return {};
-  const seal = decodeURIComponent(pair.slice(SESSION_COOKIE.length + 1));
   try {
+    // Inside the try: a malformed %-escape makes decodeURIComponent throw, and a bad cookie means "anonymous", not 500.
+    const seal = decodeURIComponent(pair.slice(SESSION_COOKIE.length + 1));
     const data = await unsealData<SessionData>(seal, { password: sessionPassword(), ttl: SESSION_TTL_S });
     return data && typeof data === "object" ? data : {};
   } catch {

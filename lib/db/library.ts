@@ -349,6 +349,9 @@ export async function submitForValidation(actor: CurrentUser, scenarioId: string
     const tolerances = await getTeamTolerances(actor.teamId, trx);
     const facets = scenarioFacets(rev.body, s.template);
     const evidence: Evidence = { traceIds: input.traceIds, comparisons: input.comparisons, tolerances };
+    // A revision has at most one entry (unique index). FOR UPDATE locks nothing while there is no row yet, so two
+    // concurrent first submissions both inserted and one died on the index with a server error: serialise them.
+    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`library-entry:${rev.id}`]);
     const existing = await trx("library_entries").where({ revision_id: rev.id }).forUpdate().first();
     const fields = {
       status: "submitted",

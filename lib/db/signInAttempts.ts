@@ -13,6 +13,26 @@ export async function recordAttempt(account: string, clientAddress: string, succ
 }
 
 /**
+ * Records an attempt as failed before its password is compared, and returns its id. Counting after this insert
+ * (rather than checking, comparing, then recording) closes the race where many concurrent guesses all read the
+ * count before any of them was recorded: whichever attempt commits last sees every earlier one.
+ */
+export async function beginAttempt(account: string, clientAddress: string): Promise<string> {
+  const [r] = await db()("sign_in_attempts").insert({ account, client_address: clientAddress, succeeded: false }).returning("id");
+  return String(r.id);
+}
+
+/** The password matched: the attempt counts as a success (which clears the account's failure count). */
+export async function markAttemptSucceeded(id: string): Promise<void> {
+  await db()("sign_in_attempts").where({ id }).update({ succeeded: true });
+}
+
+/** A throttled attempt never reached the password check: it is not counted (a locked-out user's retries do not extend the lock). */
+export async function dropAttempt(id: string): Promise<void> {
+  await db()("sign_in_attempts").where({ id }).delete();
+}
+
+/**
  * Failed sign-ins in the window: for the account since its last success, and for the client address (a success
  * does not clear the address count, or signing into one's own account would reset it). Counted in PostgreSQL so
  * every server instance sees the same numbers.

@@ -39,6 +39,21 @@ export async function listMembers(teamId: string): Promise<Member[]> {
   return rows.map((r) => ({ userId: r.id, name: r.name, email: r.email, role: r.role, joinedAt: new Date(r.created_at).toISOString() }));
 }
 
+/**
+ * Serialises a team's membership changes. Locking the target row and then every lead row let two leads demoting
+ * (or removing) each other at once each hold the row the other needed: PostgreSQL broke the deadlock by failing one
+ * request with a server error. Taken first, this lock makes the second change wait and then see the first one.
+ */
+async function lockTeamMemberships(trx: Knex.Transaction, teamId: string): Promise<void> {
+  await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`memberships:${teamId}`]);
+}
+
+/** The actor's role was read before the lock: a lead demoted meanwhile by another lead may no longer act as one. */
+async function actorStillLeads(trx: Knex.Transaction, actor: CurrentUser): Promise<void> {
+  const me = await trx("memberships").where({ team_id: actor.teamId, user_id: actor.id }).first("role");
+  if (me?.role !== "lead") throw new DomainError(403, "Only a lead can change the team's members.");
+}
+
 async function leadCount(trx: Knex.Transaction, teamId: string): Promise<number> {
   const rows = await trx("memberships").where({ team_id: teamId, role: "lead" }).forUpdate().select("user_id");
   return rows.length;
@@ -49,6 +64,8 @@ export async function changeRole(actor: CurrentUser, userId: string, role: Role)
   if (actor.role !== "lead") throw new DomainError(403, "Only a lead can change roles.");
   if (!isUuid(userId)) throw new DomainError(404, "No such member.");
   return db().transaction(async (trx) => {
+    await lockTeamMemberships(trx, actor.teamId);
+    await actorStillLeads(trx, actor);
     const m = await trx("memberships").where({ team_id: actor.teamId, user_id: userId }).forUpdate().first();
     if (!m) throw new DomainError(404, "No such member.");
     if (m.role === "lead" && role !== "lead" && (await leadCount(trx, actor.teamId)) <= 1) {
@@ -66,6 +83,8 @@ export async function removeMember(actor: CurrentUser, userId: string): Promise<
   if (actor.role !== "lead") throw new DomainError(403, "Only a lead can remove members.");
   if (!isUuid(userId)) throw new DomainError(404, "No such member.");
   await db().transaction(async (trx) => {
+    await lockTeamMemberships(trx, actor.teamId);
+    await actorStillLeads(trx, actor);
     const m = await trx("memberships").where({ team_id: actor.teamId, user_id: userId }).forUpdate().first();
     if (!m) throw new DomainError(404, "No such member.");
     if (m.role === "lead" && (await leadCount(trx, actor.teamId)) <= 1) {

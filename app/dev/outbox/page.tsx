@@ -9,7 +9,7 @@ export const metadata = { title: "Development outbox" };
 export default async function OutboxPage() {
   if (!devOutboxEnabled()) notFound();
   const user = await requirePageUser("lead");
-  const mail = await teamOutbox(user.teamId);
+  const mail = await teamOutbox(user.teamId, 50, user.email);
   return (
     <main className="mx-auto max-w-4xl px-6 py-10">
       <h1 className="text-2xl font-semibold">Development outbox</h1>

@@ -1,0 +1,193 @@
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("server-only", () => ({}));
+
+import { db } from "@/lib/db/knex";
+import * as scenarios from "@/app/api/scenarios/route";
+import * as revisions from "@/app/api/scenarios/[id]/revisions/route";
+import * as comments from "@/app/api/scenarios/[id]/comments/route";
+import * as shareLinks from "@/app/api/scenarios/[id]/share-links/route";
+import * as scenarioTraces from "@/app/api/scenarios/[id]/traces/route";
+import * as trace from "@/app/api/traces/[id]/route";
+import * as library from "@/app/api/library/route";
+import * as libraryEntry from "@/app/api/library/[id]/route";
+import { signInWithPassword } from "@/lib/auth/accounts";
+import { MAX_FAILURES_PER_ACCOUNT } from "@/lib/db/signInAttempts";
+import { changeRole, createInvitation, removeMember } from "@/lib/db/teams";
+import { createScenario } from "@/lib/db/scenarios";
+import { createPasswordReset } from "@/lib/db/passwordResets";
+import { DomainError } from "@/lib/db/errors";
+import { teamOutbox } from "@/lib/mail/outbox";
+import { invitationMail, passwordResetMail } from "@/lib/mail/messages";
+import { libraryMail } from "@/lib/db/library";
+import { SESSION_COOKIE } from "@/lib/auth/session-config";
+import { closeDb, cookieFor, ctx, makeFixture, ORIGIN, request, type Actor, type Fixture } from "./support/fixtures";
+
+let f: Fixture;
+/** A second, independent team (its own lead, designer, viewer, scenario) for cross-team probes. */
+let g: Fixture;
+beforeAll(async () => {
+  f = await makeFixture("secrev");
+  g = await makeFixture("secrev-b");
+});
+afterAll(closeDb);
+
+function csv(rows = 50): string {
+  const lines = ["Time (ms),I (mA)"];
+  for (let k = 0; k < rows; k++) lines.push(`${(k * 0.1).toFixed(1)},${k < 10 ? 0 : 750}`);
+  return lines.join("\n");
+}
+
+async function upload(a: Actor, scenarioId: string): Promise<Response> {
+  const form = new FormData();
+  form.set("file", new File([csv()], "bench.csv", { type: "text/csv" }));
+  const headers: Record<string, string> = { host: "127.0.0.1:3999", cookie: (await cookieFor(a))! };
+  return scenarioTraces.POST(new Request(`${ORIGIN}/api/scenarios/${scenarioId}/traces`, { method: "POST", headers, body: form }), ctx({ id: scenarioId }));
+}
+
+describe("sign-in throttle under concurrent guesses", () => {
+  it("lets at most the per-account limit of guesses reach the password check, however many arrive at once", async () => {
+    const account = `burst.${f.tag}@fixture.test`;
+    const n = 16;
+    // Different client addresses, so only the per-account limit applies.
+    const results = await Promise.all(Array.from({ length: n }, (_, i) => signInWithPassword(account, `guess-${i}`, `10.77.${i}.1`)));
+    const checked = results.filter((r) => !r.ok && !r.throttled).length;
+    expect(results.every((r) => !r.ok)).toBe(true);
+    // Before the fix every guess read the count before any was recorded, and all 16 were checked.
+    expect(checked).toBeLessThanOrEqual(MAX_FAILURES_PER_ACCOUNT);
+    // Throttled attempts are not recorded: the rows are exactly the guesses that were checked.
+    const rows = await db()("sign_in_attempts").where({ account });
+    expect(rows.length).toBe(checked);
+  });
+});
+
+describe("the last-lead rule under concurrent changes", () => {
+  it("two leads demoting (or removing) each other at once: one wins, the other is refused, never a server error", async () => {
+    for (let round = 0; round < 4; round++) {
+      const h = await makeFixture(`lastlead${round}`);
+      await db()("memberships").where({ team_id: h.lead.teamId, user_id: h.designer.id }).update({ role: "lead" });
+      const a = h.lead;
+      const b: Actor = { ...h.designer, role: "lead" };
+      const settled = await Promise.allSettled(
+        round % 2 === 0 ? [changeRole(a, b.id, "viewer"), changeRole(b, a.id, "viewer")] : [removeMember(a, b.id), removeMember(b, a.id)],
+      );
+      const refused = settled.filter((s) => s.status === "rejected");
+      for (const s of refused) {
+        expect(s.status === "rejected" && s.reason).toBeInstanceOf(DomainError);
+        expect([403, 409]).toContain((s as PromiseRejectedResult).reason.status);
+      }
+      expect(settled.filter((s) => s.status === "fulfilled").length).toBe(1);
+      const leads = await db()("memberships").where({ team_id: h.lead.teamId, role: "lead" });
+      expect(leads.length).toBe(1);
+    }
+  });
+});
+
+describe("library submission under concurrent requests", () => {
+  it("two simultaneous first submissions of one revision: one 201, one 409, one entry (never a server error)", async () => {
+    for (let round = 0; round < 6; round++) {
+      const s = await createScenario(f.designer, { title: `Race ${round}`, template: "sink-npn" });
+      const up = await upload(f.designer, s.id);
+      expect(up.status).toBe(201);
+      const traceId = (await up.json()).id as string;
+      const body = { scenarioId: s.id, note: "Bench agrees.", traceIds: [traceId] };
+      const reqs = [await request("POST", "/api/library", f.designer, body), await request("POST", "/api/library", f.lead, body)];
+      const [r1, r2] = await Promise.all(reqs.map((r) => library.POST(r, ctx({}))));
+      expect([r1!.status, r2!.status].sort()).toEqual([201, 409]);
+      expect((await db()("library_entries").where({ revision_id: s.revisionId })).length).toBe(1);
+    }
+  });
+});
+
+describe("ids of another team are refused wherever they are accepted", () => {
+  it("revisions, forks-by-revision, comments and share links do not take another team's revision id", async () => {
+    // A revision of team g, asked for through team f's own scenario: 404, not g's body.
+    const r = await revisions.GET(await request("GET", `/api/scenarios/${f.scenarioId}/revisions?revision=${g.revisionId}`, f.viewer), ctx({ id: f.scenarioId }));
+    expect(r.status).toBe(404);
+    expect(JSON.stringify(await r.json())).not.toContain("senseResistor");
+    const created = await scenarios.POST(await request("POST", "/api/scenarios", f.designer, { title: "Copy of theirs", template: "sink-npn", fromRevisionId: g.revisionId }), ctx({}));
+    expect(created.status).toBe(404);
+    const before = (await db()("comments").where({ scenario_id: f.scenarioId })).length;
+    const c = await comments.POST(await request("POST", `/api/scenarios/${f.scenarioId}/comments`, f.viewer, { body: "hi", revisionId: g.revisionId }), ctx({ id: f.scenarioId }));
+    expect(c.status).toBe(400);
+    expect((await c.json()).error).toMatch(/revisionId/);
+    expect((await db()("comments").where({ scenario_id: f.scenarioId })).length).toBe(before);
+    const l = await shareLinks.POST(await request("POST", `/api/scenarios/${f.scenarioId}/share-links`, f.designer, { revisionId: g.revisionId, days: 3 }), ctx({ id: f.scenarioId }));
+    expect(l.status).toBe(400);
+    expect((await db()("share_links").where({ revision_id: g.revisionId })).length).toBe(0);
+  });
+
+  it("traces: another team's trace id is 404 to read or delete; another team's trace cannot be evidence", async () => {
+    const up = await upload(g.designer, g.scenarioId);
+    expect(up.status).toBe(201);
+    const theirs = (await up.json()).id as string;
+    expect((await trace.GET(await request("GET", `/api/traces/${theirs}`, f.lead), ctx({ id: theirs }))).status).toBe(404);
+    expect((await trace.DELETE(await request("DELETE", `/api/traces/${theirs}`, f.lead), ctx({ id: theirs }))).status).toBe(404);
+    expect(await db()("bench_traces").where({ id: theirs }).first()).toBeTruthy();
+    expect((await scenarioTraces.GET(await request("GET", `/api/scenarios/${g.scenarioId}/traces`, f.lead), ctx({ id: g.scenarioId }))).status).toBe(404);
+    const sub = await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: f.scenarioId, note: "n", traceIds: [theirs] }), ctx({}));
+    expect(sub.status).toBe(400);
+    expect((await sub.json()).error).toMatch(/traceIds/);
+    // Another team's scenario id with one's own trace: 404.
+    const own = (await (await upload(f.designer, f.scenarioId)).json()).id as string;
+    expect((await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: g.scenarioId, note: "n", traceIds: [own] }), ctx({}))).status).toBe(404);
+  });
+
+  it("library entries of another team: 404 to read, change or comment", async () => {
+    const up = await upload(g.designer, g.scenarioId);
+    const t = (await up.json()).id as string;
+    const sub = await library.POST(await request("POST", "/api/library", g.designer, { scenarioId: g.scenarioId, note: "theirs", traceIds: [t] }), ctx({}));
+    expect(sub.status).toBe(201);
+    const entryId = (await sub.json()).entryId as string;
+    expect((await libraryEntry.GET(await request("GET", `/api/library/${entryId}`, f.lead), ctx({ id: entryId }))).status).toBe(404);
+    for (const body of [{ status: "validated" }, { withdraw: true }, { comment: "sneaky" }]) {
+      const r = await libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, f.lead, body), ctx({ id: entryId }));
+      expect(r.status).toBe(404);
+    }
+    expect((await db()("library_entries").where({ id: entryId }).first()).status).toBe("submitted");
+    const list = await library.GET(await request("GET", "/api/library", f.lead), ctx({}));
+    expect(((await list.json()).entries as { id: string }[]).some((e) => e.id === entryId)).toBe(false);
+  });
+});
+
+describe("a session cookie that cannot be read", () => {
+  it("is anonymous (401), not a server error", async () => {
+    const req = new Request(`${ORIGIN}/api/scenarios`, { headers: { host: "127.0.0.1:3999", cookie: `${SESSION_COOKIE}=%E0%A4%A` } });
+    const r = await scenarios.GET(req, ctx({}));
+    expect(r.status).toBe(401);
+  });
+});
+
+describe("development outbox: nobody else's links", () => {
+  it("hides other teams' invitation links and other people's reset links from a lead", async () => {
+    // Team g's lead invites team f's viewer (a member of f): the mail is addressed to a member of f.
+    const { token: gToken } = await createInvitation(g.lead, f.viewer.email, "designer");
+    // Team f's lead invites g's viewer, which makes that address one of f's invitees.
+    const { token: fToken } = await createInvitation(f.lead, g.viewer.email, "viewer");
+    const base = "http://localhost:3000";
+    const mails = [
+      { to: f.viewer.email, mail: invitationMail({ to: f.viewer.email, teamName: g.lead.teamName, inviterName: g.lead.name, role: "designer", link: `${base}/invitations/${gToken}`, expiresAt: new Date() }) },
+      { to: g.viewer.email, mail: invitationMail({ to: g.viewer.email, teamName: f.lead.teamName, inviterName: f.lead.name, role: "viewer", link: `${base}/invitations/${fToken}`, expiresAt: new Date() }) },
+      { to: f.viewer.email, mail: passwordResetMail({ to: f.viewer.email, link: `${base}/reset-password?token=${await createPasswordReset(f.viewer.id)}`, expiresAt: new Date() }) },
+      { to: g.viewer.email, mail: passwordResetMail({ to: g.viewer.email, link: `${base}/reset-password?token=${await createPasswordReset(g.viewer.id)}`, expiresAt: new Date() }) },
+      { to: f.lead.email, mail: passwordResetMail({ to: f.lead.email, link: `${base}/reset-password?token=${await createPasswordReset(f.lead.id)}`, expiresAt: new Date() }) },
+      { to: f.viewer.email, mail: libraryMail({ to: { email: f.viewer.email, name: "V" }, subject: `lib-g-${g.tag}`, lines: ["x"], entryId: "00000000-0000-4000-8000-000000000001" }) },
+    ];
+    for (const { to, mail } of mails) {
+      await db()("dev_mailbox").insert({ to_address: to, from_address: "quell@localhost", subject: `${mail.subject} ${f.tag}`, text_body: mail.text, html_body: mail.html ?? "" });
+    }
+    const seen = await teamOutbox(f.lead.teamId, 200, f.lead.email);
+    const texts = seen.map((m) => m.text).join("\n");
+    // f's own invitation is there; g's invitation to f's member is not (it would let f's lead join g in their place).
+    expect(texts).toContain(`/invitations/${fToken}`);
+    expect(texts).not.toContain(`/invitations/${gToken}`);
+    // Reset links: only the lead's own.
+    const resets = seen.filter((m) => m.text.includes("/reset-password?token="));
+    expect(resets.map((m) => m.to)).toEqual([f.lead.email]);
+    // A library notice about an entry that is not f's is not shown.
+    expect(seen.some((m) => m.subject.startsWith(`lib-g-${g.tag}`))).toBe(false);
+    // g's lead sees g's invitation mail to f's viewer? No: f's viewer is neither g's member nor (any more) pending...
+    // it is g's invitee, so g's lead does see its own invitation link.
+    expect((await teamOutbox(g.lead.teamId, 200, g.lead.email)).map((m) => m.text).join("\n")).toContain(`/invitations/${gToken}`);
+  });
+});

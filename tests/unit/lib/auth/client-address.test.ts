@@ -1,0 +1,37 @@
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { clientAddressFrom } from "@/lib/auth/client-address";
+import { SESSION_COOKIE, sessionFromCookieHeader } from "@/lib/auth/session-config";
+
+afterEach(() => vi.unstubAllEnvs());
+
+// X-Forwarded-For semantics: each proxy appends the address it received the request from (MDN, "X-Forwarded-For";
+// RFC 7239 §5.2 for the equivalent Forwarded "for=" list): only the right-hand entries written by our own proxies
+// can be trusted, the left end is whatever the client typed.
+describe("client address for the per-address sign-in limit", () => {
+  it("takes the entry our proxy appended, not the one the client sent", () => {
+    const h = new Headers({ "x-forwarded-for": "203.0.113.9, 198.51.100.7" });
+    expect(clientAddressFrom(h, 1)).toBe("198.51.100.7");
+    expect(clientAddressFrom(h, 2)).toBe("203.0.113.9");
+  });
+
+  it("a forged left-hand entry does not change the address", () => {
+    const a = clientAddressFrom(new Headers({ "x-forwarded-for": "1.1.1.1, 198.51.100.7" }), 1);
+    const b = clientAddressFrom(new Headers({ "x-forwarded-for": "2.2.2.2, 198.51.100.7" }), 1);
+    expect(a).toBe(b);
+  });
+
+  it("reads QUELL_PROXY_HOPS, clamps to the list, and falls back to x-real-ip then 'unknown'", () => {
+    vi.stubEnv("QUELL_PROXY_HOPS", "2");
+    expect(clientAddressFrom(new Headers({ "x-forwarded-for": "a, b, c" }))).toBe("b");
+    expect(clientAddressFrom(new Headers({ "x-forwarded-for": "only" }), 3)).toBe("only");
+    expect(clientAddressFrom(new Headers({ "x-real-ip": "192.0.2.1" }))).toBe("192.0.2.1");
+    expect(clientAddressFrom(new Headers())).toBe("unknown");
+  });
+});
+
+describe("session cookie parsing", () => {
+  it("treats a cookie with a malformed %-escape as no session (anonymous), without throwing", async () => {
+    await expect(sessionFromCookieHeader(`${SESSION_COOKIE}=%E0%A4%A`)).resolves.toEqual({});
+    await expect(sessionFromCookieHeader(`other=1; ${SESSION_COOKIE}=%`)).resolves.toEqual({});
+  });
+});
