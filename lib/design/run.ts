@@ -3,7 +3,7 @@
  * closed-loop transconductance, output impedance and DC transfer. Every function takes the engine's options
  * (time budget, shouldStop, onProgress) and throws the engine's SimError when a run fails.
  */
-import { simulate, type AcResult, type DcSweepResult, type Netlist, type OpResult, type SimOptions, type TranResult } from "../sim";
+import { compile, simulate, type AcResult, type DcSweepResult, type Netlist, type OpResult, type SimOptions, type TranResult } from "../sim";
 import { NAMES, compileNetlistJson, idealTransconductance, operatingCommand, type CompileOptions, type CompilePurpose } from "./compile";
 import { bandwidth3dB, loopMetrics, stepMetrics, unwrapDeg, type StepMetrics } from "./metrics";
 import type { Scenario } from "./schema";
@@ -143,17 +143,22 @@ export function tianLoopGain(v1re: number, v1im: number, i2re: number, i2im: num
   return [-(nr * dr + ni * di) / d2, -(ni * dr - nr * di) / d2];
 }
 
-function progressSplit(options: SimOptions, part: number, parts: number): SimOptions {
-  const { onProgress } = options;
-  return { ...options, onProgress: onProgress ? (f: number) => onProgress((part + f) / parts) : undefined };
+/**
+ * Both Tian injections on one compiled circuit: the probe netlist is compiled once, its operating point solved once
+ * (the probes are 0 V / 0 A at DC, so it is the circuit's own OP), and the two excitations — Vi = 1 (VPROBE) and
+ * Ii = 1 (IPROBE) — share the linearisation and each frequency's factorisation (engine runAcMulti). Same numbers as
+ * two separate AC runs of the "loopgain-v" and "loopgain-i" netlists.
+ */
+function loopGainRuns(s: Scenario, options: SimOptions, compileOpts: CompileOptions): { op: OpResult; a: AcResult; b: AcResult } {
+  const c = compile(compileNetlist(s, "loopgain-v", compileOpts));
+  const { op, results } = c.runAcMulti(
+    [{ [NAMES.probeV]: { ac: 1 }, [NAMES.probeI]: { ac: 0 } }, { [NAMES.probeV]: { ac: 0 }, [NAMES.probeI]: { ac: 1 } }],
+    options,
+  );
+  return { op, a: results[0], b: results[1] };
 }
 
-export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): LoopGainResult {
-  const rv = simulate(compileNetlist(s, "loopgain-v", compileOpts), progressSplit(options, 0, 2));
-  expect(rv, "ac");
-  const ri = simulate(compileNetlist(s, "loopgain-i", compileOpts), progressSplit(options, 1, 2));
-  expect(ri, "ac");
-  const a = rv as AcResult, b = ri as AcResult;
+function loopGainFrom(a: AcResult, b: AcResult): LoopGainResult {
   const n = a.freq.length;
   const v1 = a.nodes[NAMES.nodeOpampOut];
   const ip = b.currents[NAMES.probeV];
@@ -169,6 +174,22 @@ export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: 
     phaseMarginDeg: m.phaseMarginDeg, gainMarginDb: m.gainMarginDb, crossoverHz: m.crossoverHz, phaseCrossoverHz: m.phaseCrossoverHz,
     modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz,
   };
+}
+
+export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): LoopGainResult {
+  const { a, b } = loopGainRuns(s, options, compileOpts);
+  return loopGainFrom(a, b);
+}
+
+/**
+ * Operating point and loop gain from one compile and one OP solve (what a Spread run needs). The OP is taken on the
+ * probe netlist, whose probes carry nothing at DC; the summary reads the same nodes and devices as runOperatingPoint.
+ */
+export function runOperatingPointAndLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): {
+  op: OpResult; summary: OperatingPointSummary; loop: LoopGainResult;
+} {
+  const { op, a, b } = loopGainRuns(s, options, compileOpts);
+  return { op, summary: summarizeOp(s, op), loop: loopGainFrom(a, b) };
 }
 
 function magPhase(re: Float64Array, im: Float64Array, db: boolean): { mag: Float64Array; phaseDeg: Float64Array } {

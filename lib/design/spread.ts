@@ -1,6 +1,6 @@
 /** Spread: Monte Carlo over the part tolerances, and the worst-case corners. */
 import { fullScaleCurrent } from "./checks";
-import { runLoopGain, runOperatingPoint } from "./run";
+import { runOperatingPoint, runOperatingPointAndLoopGain } from "./run";
 import type { Scenario } from "./schema";
 import { deviation, histogram, rngForRun, summarize, type Summary } from "./stats";
 import { checkStop, clampRange, engineOptions, failure, nanArray, type IndexRange, type StudyOptions } from "./study-common";
@@ -70,9 +70,10 @@ export function spread(s: Scenario, settings: { runs: number; seed: number }, op
     checkStop(opts);
     const { scenario } = spreadScenario(s, settings.seed, i);
     try {
-      const { summary } = runOperatingPoint(scenario, engineOptions(opts));
+      // one compile and one operating point serve the current error and both loop-gain injections
+      const { summary, loop } = runOperatingPointAndLoopGain(scenario, engineOptions(opts), { pointsPerDecade: 10 });
       out.errorPctFs[i] = ((Math.abs(summary.iLoad) - Math.abs(nominalIdeal)) / fs) * 100;
-      out.phaseMarginDeg[i] = runLoopGain(scenario, engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg ?? NaN;
+      out.phaseMarginDeg[i] = loop.phaseMarginDeg ?? NaN;
     } catch (e) {
       failure(e, i, out.failures);
     }

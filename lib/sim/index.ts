@@ -19,7 +19,7 @@ import { parseNetlist } from "./netlist";
 import { buildCircuit } from "./compile";
 import type { Circuit } from "./circuit";
 import { runDcSweep, runOp } from "./analysis/dc";
-import { runAc } from "./analysis/ac";
+import { runAc, runAcMulti, type AcExcitation } from "./analysis/ac";
 import { runTran } from "./analysis/tran";
 import { SimError } from "./errors";
 import type { SimResult } from "./results";
@@ -30,6 +30,8 @@ export { parseNetlist, isGround } from "./netlist";
 export { SimError, isSimError, type SimErrorCode } from "./errors";
 export { resultToJSON } from "./results";
 export type { SimResult, OpResult, DcSweepResult, AcResult, TranResult, ComplexColumn, DeviceInfo } from "./results";
+export type { AcExcitation } from "./analysis/ac";
+import type { AcResult, OpResult } from "./results";
 export { transportCurrents } from "./elements/bjt";
 export { logFrequencies } from "./analysis/ac";
 
@@ -53,14 +55,25 @@ export interface CompiledNetlist {
   readonly unknowns: number;
   /** Run the netlist's analysis, or another one on the same circuit. */
   run(options?: SimOptions, analysis?: Analysis): SimResult;
+  /**
+   * One operating point, then an AC analysis per excitation set (the netlist's AC analysis, or `analysis`, which
+   * must be of kind "ac"). Each set names sources whose AC magnitude/phase it replaces; the others keep the
+   * netlist's. The OP, the linearisation and each frequency's factorisation are shared, so n sets cost little more
+   * than one AC run. `op` is the operating point the small-signal model was taken at.
+   */
+  runAcMulti(excitations: readonly AcExcitation[], options?: SimOptions, analysis?: Analysis): { op: OpResult; results: AcResult[] };
 }
 
-function execute(c: Circuit, netlist: ParsedNetlist, analysis: ParsedNetlist["analysis"], options: SimOptions): SimResult {
+function prepare(c: Circuit, options: SimOptions): void {
   c.deadline = performance.now() + (options.timeBudgetMs ?? DEFAULT_TIME_BUDGET_MS);
   c.shouldStop = options.shouldStop;
   c.newtonIterations = 0;
   c.srcScale = 1;
   c.gshunt = 0;
+}
+
+function execute(c: Circuit, netlist: ParsedNetlist, analysis: ParsedNetlist["analysis"], options: SimOptions): SimResult {
+  prepare(c, options);
   switch (analysis.kind) {
     case "op": return runOp(c);
     case "dcsweep": return runDcSweep(c, analysis.source, analysis.from, analysis.to, analysis.points, options.onProgress);
@@ -72,21 +85,31 @@ function execute(c: Circuit, netlist: ParsedNetlist, analysis: ParsedNetlist["an
 export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
   const parsed = parseNetlist(netlist);
   const c = buildCircuit(parsed);
+  const pick = (analysis: Analysis | undefined): ParsedNetlist["analysis"] => {
+    if (!analysis) return parsed.analysis;
+    const r = analysisSchema.safeParse(analysis);
+    if (!r.success) throw new SimError("invalid", `Invalid analysis: ${r.error.issues.map((i) => `field "${i.path.join(".")}" ${i.message}`).join("; ")}`);
+    const a = r.data;
+    if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === a.source && (e.kind === "vsource" || e.kind === "isource"))) {
+      throw new SimError("invalid", `Invalid analysis: field "source" names "${a.source}", which is not a vsource or isource`);
+    }
+    return a;
+  };
   return {
     netlist: parsed,
     nodeNames: c.userNodeNames,
     unknowns: c.n,
     run(options: SimOptions = {}, analysis?: Analysis): SimResult {
-      let a = parsed.analysis;
-      if (analysis) {
-        const r = analysisSchema.safeParse(analysis);
-        if (!r.success) throw new SimError("invalid", `Invalid analysis: ${r.error.issues.map((i) => `field "${i.path.join(".")}" ${i.message}`).join("; ")}`);
-        a = r.data;
-        if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === (a as { source: string }).source && (e.kind === "vsource" || e.kind === "isource"))) {
-          throw new SimError("invalid", `Invalid analysis: field "source" names "${a.source}", which is not a vsource or isource`);
-        }
-      }
-      return execute(c, parsed, a, options);
+      return execute(c, parsed, pick(analysis), options);
+    },
+    runAcMulti(excitations: readonly AcExcitation[], options: SimOptions = {}, analysis?: Analysis) {
+      const a = pick(analysis);
+      if (a.kind !== "ac") throw new SimError("invalid", `Invalid analysis: field "kind" must be "ac" for runAcMulti (got "${a.kind}")`);
+      if (excitations.length === 0) throw new SimError("invalid", "Invalid excitations: at least one excitation set is needed");
+      prepare(c, options);
+      const op = runOp(c);
+      const results = runAcMulti(c, a.fStart, a.fStop, a.pointsPerDecade, excitations, options.onProgress, true);
+      return { op, results };
     },
   };
 }

@@ -131,8 +131,9 @@ export class Inductor extends BranchElement {
 export class VSource extends BranchElement {
   /** value that replaces `dc` during a DC sweep, or null */
   sweepValue: number | null = null;
-  private readonly acRe: number;
-  private readonly acIm: number;
+  /** AC excitation (real, imaginary); replaced for one excitation set of a multi-excitation AC run, then restored */
+  acRe: number;
+  acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "vsource", nodes);
     this.acRe = ac * Math.cos((acPhaseDeg * Math.PI) / 180);
@@ -151,8 +152,9 @@ export class VSource extends BranchElement {
 
 export class ISource extends TwoTerminal {
   sweepValue: number | null = null;
-  private readonly acRe: number;
-  private readonly acIm: number;
+  /** AC excitation (real, imaginary); see VSource */
+  acRe: number;
+  acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "isource", nodes);
     this.acRe = ac * Math.cos((acPhaseDeg * Math.PI) / 180);
