@@ -25,7 +25,13 @@ import * as comments from "@/app/api/scenarios/[id]/comments/route";
 import * as shareLinks from "@/app/api/scenarios/[id]/share-links/route";
 import * as members from "@/app/api/team/members/route";
 import * as invitations from "@/app/api/team/invitations/route";
+import * as scenarioTraces from "@/app/api/scenarios/[id]/traces/route";
+import * as traceRoute from "@/app/api/traces/[id]/route";
+import * as library from "@/app/api/library/route";
+import * as libraryEntry from "@/app/api/library/[id]/route";
 import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenario } from "@/app/scenarios/[id]/actions";
+import { startFromEntryAction, setTolerancesAction } from "@/app/library/actions";
+import { changeEntryStatus, submitForValidation } from "@/lib/db/library";
 import { createScenario } from "@/lib/db/scenarios";
 import { createPublicLink } from "@/lib/db/shareLinks";
 import { createInvitation } from "@/lib/db/teams";
@@ -329,5 +335,169 @@ describe("authorization matrix: server actions", () => {
     const got: Record<string, string> = {};
     for (const w of WHO) got[w] = await outcome(w, () => commentOnScenario({ scenarioId: f.scenarioId, body: `from ${w}` }));
     expect(got).toEqual({ anonymous: "denied", viewer: "ok", designer: "ok", lead: "ok", outsider: "denied" });
+  });
+});
+
+// ── Bench traces and the library: the same matrix (added in the server review) ────────────────────────────────
+
+/** A small capture (ms, mA) uploaded by `a` to a scenario; the response as the route gives it. */
+async function uploadTrace(a: Actor | null, scenarioId: string): Promise<Response> {
+  const lines = ["Time (ms),I (mA)"];
+  for (let k = 0; k < 40; k++) lines.push(`${(k * 0.1).toFixed(1)},${k < 10 ? 0 : 500}`);
+  const form = new FormData();
+  form.set("file", new File([lines.join("\n")], "bench.csv", { type: "text/csv" }));
+  const headers: Record<string, string> = { host: "127.0.0.1:3999" };
+  const cookie = await cookieFor(a);
+  if (cookie) headers.cookie = cookie;
+  return scenarioTraces.POST(new Request(`http://127.0.0.1:3999/api/scenarios/${scenarioId}/traces`, { method: "POST", headers, body: form }), ctx({ id: scenarioId }));
+}
+
+async function designerTrace(): Promise<string> {
+  const r = await uploadTrace(f.designer, f.scenarioId);
+  expect(r.status).toBe(201);
+  return ((await r.json()) as { id: string }).id;
+}
+
+/** A scenario of the designer's with one trace, submitted for validation: [entryId, scenarioId]. */
+async function submittedEntry(): Promise<{ entryId: string; scenarioId: string }> {
+  const s = await createScenario(f.designer, { title: "Entry target", template: "sink-npn" });
+  const t = await uploadTrace(f.designer, s.id);
+  const traceId = ((await t.json()) as { id: string }).id;
+  const r = await submitForValidation(f.designer, s.id, { note: "bench", traceIds: [traceId], keyFigures: {}, comparisons: [] });
+  return { entryId: r.entryId, scenarioId: s.id };
+}
+
+const libraryCases: Case[] = [
+  {
+    name: "GET /api/scenarios/[id]/traces",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => scenarioTraces.GET(await request("GET", `/api/scenarios/${f.scenarioId}/traces`, a), ctx({ id: f.scenarioId })),
+  },
+  {
+    name: "POST /api/scenarios/[id]/traces",
+    expect: { anonymous: 401, viewer: 403, designer: 201, lead: 201, outsider: 404 },
+    call: (a) => uploadTrace(a, f.scenarioId),
+  },
+  {
+    name: "GET /api/traces/[id]",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await designerTrace();
+      return traceRoute.GET(await request("GET", `/api/traces/${id}`, a), ctx({ id }));
+    },
+  },
+  {
+    name: "DELETE /api/traces/[id] (uploaded by the designer)",
+    expect: { anonymous: 401, viewer: 403, designer: 204, lead: 204, outsider: 404 },
+    call: async (a) => {
+      const id = await designerTrace();
+      return traceRoute.DELETE(await request("DELETE", `/api/traces/${id}`, a), ctx({ id }));
+    },
+  },
+  {
+    name: "GET /api/library",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 200 },
+    call: async (a) => library.GET(await request("GET", "/api/library?status=submitted", a), ctx({})),
+  },
+  {
+    name: "POST /api/library (a trace of the team's scenario)",
+    expect: { anonymous: 401, viewer: 403, designer: 201, lead: 201, outsider: 404 },
+    call: async (a) => {
+      const s = await createScenario(f.designer, { title: "Submit target", template: "sink-npn" });
+      const t = ((await (await uploadTrace(f.designer, s.id)).json()) as { id: string }).id;
+      return library.POST(await request("POST", "/api/library", a, { scenarioId: s.id, note: "bench", traceIds: [t] }), ctx({}));
+    },
+  },
+  {
+    name: "GET /api/library/[id]",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await submittedEntry();
+      return libraryEntry.GET(await request("GET", `/api/library/${entryId}`, a), ctx({ id: entryId }));
+    },
+  },
+  {
+    name: "PATCH /api/library/[id] { status: validated }",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await submittedEntry();
+      return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { status: "validated" }), ctx({ id: entryId }));
+    },
+  },
+  {
+    name: "PATCH /api/library/[id] { withdraw } (submitted by the designer)",
+    expect: { anonymous: 401, viewer: 403, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await submittedEntry();
+      return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { withdraw: true }), ctx({ id: entryId }));
+    },
+  },
+  {
+    name: "PATCH /api/library/[id] { comment }",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await submittedEntry();
+      return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { comment: "looks right" }), ctx({ id: entryId }));
+    },
+  },
+];
+
+describe("authorization matrix: bench traces and library route handlers", () => {
+  for (const c of libraryCases) {
+    it(c.name, async () => {
+      const got: Record<string, number> = {};
+      for (const w of WHO) got[w] = (await c.call(actor(w))).status;
+      expect(got).toEqual(c.expect);
+    });
+  }
+
+  it("answers 400 naming the field for unknown keys in a library PATCH", async () => {
+    const { entryId } = await submittedEntry();
+    const r = await libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, f.lead, { status: "validated", validatedBy: f.viewer.id }), ctx({ id: entryId }));
+    expect(r.status).toBe(400);
+    expect(JSON.stringify((await r.json()) as object)).toMatch(/validatedBy/);
+    expect((await db()("library_entries").where({ id: entryId }).first()).status).toBe("submitted");
+  });
+});
+
+describe("authorization matrix: library server actions", () => {
+  function form(fields: Record<string, string>): FormData {
+    const fd = new FormData();
+    for (const [k, v] of Object.entries(fields)) fd.set(k, v);
+    return fd;
+  }
+  /** "ok" when the action went through (a redirect, or ok: true), else the refusal. */
+  async function run(w: Who, fn: () => Promise<{ ok?: boolean; message?: string }>): Promise<"ok" | "denied"> {
+    jar.cookie = await cookieFor(actor(w));
+    try {
+      const r = await fn();
+      return r.ok ? "ok" : "denied";
+    } catch (e) {
+      if (e instanceof Error && /NEXT_REDIRECT/.test(e.message)) return "ok";
+      throw e;
+    }
+  }
+
+  it("startFromEntryAction: designers and leads of the team, from a validated entry only", async () => {
+    const { entryId } = await submittedEntry();
+    jar.cookie = await cookieFor(f.designer);
+    expect((await startFromEntryAction({}, form({ entryId }))).message).toMatch(/Only validated entries/);
+    await changeEntryStatus(f.lead, entryId, "validate");
+    const got: Record<string, string> = {};
+    for (const w of WHO) got[w] = await run(w, () => startFromEntryAction({}, form({ entryId })));
+    expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "ok", lead: "ok", outsider: "denied" });
+    jar.cookie = await cookieFor(f.designer);
+    expect(Object.keys((await startFromEntryAction({}, form({ entryId: "nope" }))).fieldErrors ?? {})).toEqual(["entryId"]);
+  });
+
+  it("setTolerancesAction: leads only; bad numbers come back naming the field", async () => {
+    const good = { riseTimePct: "20", overshootPts: "5", settlingTimePct: "25", ringingPct: "15", rmsPctOfStep: "5", settleBandPct: "2" };
+    const got: Record<string, string> = {};
+    for (const w of WHO) got[w] = await run(w, () => setTolerancesAction({}, form(good)));
+    // The outsider leads their own team: the tolerances they set are their team's.
+    expect(got).toEqual({ anonymous: "denied", viewer: "denied", designer: "denied", lead: "ok", outsider: "ok" });
+    jar.cookie = await cookieFor(f.lead);
+    const bad = await setTolerancesAction({}, form({ ...good, settleBandPct: "80", ringingPct: "lots" }));
+    expect(Object.keys(bad.fieldErrors ?? {}).sort()).toEqual(["ringingPct", "settleBandPct"]);
   });
 });

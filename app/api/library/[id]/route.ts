@@ -15,6 +15,7 @@ const patchBody = z
     withdraw: z.literal(true).optional(),
     comment: z.string().max(4000, "comment: at most 4000 characters").optional(),
   })
+  .strict()
   .refine((b) => b.status !== undefined || b.withdraw || (b.comment ?? "").trim() !== "", {
     message: "Give a status, withdraw: true, or a comment",
     path: ["status"],
