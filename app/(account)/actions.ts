@@ -6,7 +6,7 @@ import { validatedAction, validatedPublicAction, type ActionState } from "@/lib/
 import { clientAddressFrom } from "@/lib/auth/client-address";
 import { setSession, destroySession, getSession } from "@/lib/auth/session";
 import { sessionAccount } from "@/lib/auth/current";
-import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createInvitedAccount } from "@/lib/auth/accounts";
+import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createAccountFromInvitation } from "@/lib/auth/accounts";
 import { resolveCurrentUser, findUserById, teamsOfUser, setCurrentTeam } from "@/lib/db/users";
 import { acceptInvitation, createTeam, findInvitationByToken } from "@/lib/db/teams";
 import { DomainError } from "@/lib/db/errors";
@@ -97,8 +97,7 @@ export const acceptWithNewAccountAction = validatedPublicAction(
   async (data) => {
     const inv = await findInvitationByToken(data.token);
     if (!inv || inv.status !== "pending") return { message: "This invitation is no longer valid." };
-    const user = await createInvitedAccount({ name: data.name, email: inv.email, password: data.password });
-    const { teamId } = await acceptInvitation(data.token, user.id);
+    const { user, teamId } = await createAccountFromInvitation(data.token, { name: data.name, password: data.password });
     await setSession({ userId: user.id, teamId, sv: user.sessionVersion });
     redirect("/scenarios");
   },

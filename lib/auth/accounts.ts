@@ -1,13 +1,13 @@
 import "server-only";
 import { db } from "@/lib/db/knex";
 import { findUserByEmail, insertUser, normaliseEmail, findUserById, type UserRow } from "@/lib/db/users";
-import { createTeam } from "@/lib/db/teams";
+import { acceptInvitationIn, createTeam } from "@/lib/db/teams";
 import { audit } from "@/lib/db/audit";
 import { DomainError } from "@/lib/db/errors";
 import { beginAttempt, markAttemptSucceeded, dropAttempt, recentFailures, pruneAttempts, MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
-import { createPasswordReset, consumePasswordReset, recentResetCount, MAX_RESETS_PER_HOUR, RESET_TTL_MS } from "@/lib/db/passwordResets";
+import { createPasswordResetWithin, consumePasswordReset, MAX_RESETS_PER_HOUR, RESET_TTL_MS } from "@/lib/db/passwordResets";
 import { hashPassword, verifyPassword, verifyAgainstNothing } from "./password";
-import { publicBaseUrl } from "./tokens";
+import { hashToken, publicBaseUrl } from "./tokens";
 import { sendMail } from "@/lib/mail/transport";
 import { passwordResetMail } from "@/lib/mail/messages";
 
@@ -71,6 +71,29 @@ export async function createInvitedAccount(p: { name: string; email: string; pas
 }
 
 /**
+ * Creates the account of someone following an invitation link and accepts the invitation, in one transaction: when
+ * the invitation was revoked, used or expired in the meantime, no team-less account is left behind. The address is
+ * the invitation's own.
+ */
+export async function createAccountFromInvitation(token: string, p: { name: string; password: string }): Promise<{ user: UserRow; teamId: string }> {
+  const passwordHash = await hashPassword(p.password);
+  try {
+    return await db().transaction(async (trx) => {
+      const inv = await trx("invitations").where({ token_hash: hashToken(token) }).first("email");
+      if (!inv) throw new DomainError(404, "This invitation link is not valid.");
+      const user = await insertUser({ email: normaliseEmail(inv.email), name: p.name, passwordHash }, trx);
+      const { teamId } = await acceptInvitationIn(trx, token, user.id);
+      return { user, teamId };
+    });
+  } catch (e) {
+    if (e instanceof Error && /users_email_lower/.test(e.message)) {
+      throw new DomainError(409, "An account with this address exists: sign in to accept the invitation.");
+    }
+    throw e;
+  }
+}
+
+/**
  * Sends a reset link when the address has an account; does nothing visible otherwise (the caller shows the same
  * confirmation either way). Returns whether a message was sent, for tests only.
  */
@@ -80,8 +103,8 @@ export async function requestPasswordReset(email: string): Promise<boolean> {
     await verifyAgainstNothing("timing");
     return false;
   }
-  if ((await recentResetCount(user.id)) >= MAX_RESETS_PER_HOUR) return false;
-  const token = await createPasswordReset(user.id);
+  const token = await createPasswordResetWithin(user.id, MAX_RESETS_PER_HOUR);
+  if (!token) return false;
   const link = `${publicBaseUrl()}/reset-password?token=${encodeURIComponent(token)}`;
   await sendMail(passwordResetMail({ to: user.email, link, expiresAt: new Date(Date.now() + RESET_TTL_MS) }));
   return true;

@@ -22,12 +22,29 @@ export async function recentResetCount(userId: string): Promise<number> {
 
 /** Issues a single-use reset token for a user; only its hash is stored. Earlier unused tokens stop working. */
 export async function createPasswordReset(userId: string): Promise<string> {
+  const token = await createPasswordResetWithin(userId, Infinity);
+  return token!;
+}
+
+/**
+ * The same, unless the user already had `maxPerHour` links issued in the last hour (then null, nothing written).
+ * The count and the insert happen under a per-user lock, so simultaneous requests cannot all pass a count that
+ * none of them has added to yet.
+ */
+export async function createPasswordResetWithin(userId: string, maxPerHour: number): Promise<string | null> {
   const token = randomToken();
-  await db().transaction(async (trx) => {
+  const issued = await db().transaction(async (trx) => {
+    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`password-reset:${userId}`]);
+    const [{ n }] = await trx("password_resets")
+      .where({ user_id: userId })
+      .where("created_at", ">", new Date(Date.now() - 3600_000))
+      .count<{ n: string }[]>({ n: "*" });
+    if (Number(n) >= maxPerHour) return false;
     await trx("password_resets").where({ user_id: userId }).whereNull("used_at").update({ used_at: trx.fn.now() });
     await trx("password_resets").insert({ user_id: userId, token_hash: hashToken(token), expires_at: new Date(Date.now() + RESET_TTL_MS) });
+    return true;
   });
-  return token;
+  return issued ? token : null;
 }
 
 export type ResetTokenState = "valid" | "used" | "expired" | "unknown";

@@ -214,22 +214,25 @@ export async function findInvitationByToken(token: string): Promise<InvitationBy
  * one) and makes the team their current one. Single use, checked under a row lock.
  */
 export async function acceptInvitation(token: string, userId: string): Promise<{ teamId: string; role: Role }> {
-  return db().transaction(async (trx) => {
-    const inv = await trx("invitations").where({ token_hash: hashToken(token) }).forUpdate().first();
-    if (!inv) throw new DomainError(404, "This invitation link is not valid.");
-    const status = invitationStatus(inv);
-    if (status !== "pending") throw new DomainError(410, `This invitation has been ${status === "accepted" ? "used already" : status}.`);
-    const user = await trx("users").where({ id: userId }).first();
-    if (!user || normaliseEmail(user.email) !== normaliseEmail(inv.email)) {
-      throw new DomainError(403, "This invitation was sent to another address.");
-    }
-    await trx("memberships")
-      .insert({ team_id: inv.team_id, user_id: userId, role: inv.role })
-      .onConflict(["team_id", "user_id"])
-      .ignore();
-    await trx("invitations").where({ id: inv.id }).update({ accepted_at: trx.fn.now() });
-    await trx("users").where({ id: userId }).update({ current_team_id: inv.team_id });
-    await audit({ teamId: inv.team_id, actorId: userId, action: "invitation.accept", subjectType: "invitation", subjectId: inv.id }, trx);
-    return { teamId: inv.team_id, role: inv.role };
-  });
+  return db().transaction((trx) => acceptInvitationIn(trx, token, userId));
+}
+
+/** The same inside a caller's transaction (creating the account and accepting commit or fail together). */
+export async function acceptInvitationIn(trx: Knex.Transaction, token: string, userId: string): Promise<{ teamId: string; role: Role }> {
+  const inv = await trx("invitations").where({ token_hash: hashToken(token) }).forUpdate().first();
+  if (!inv) throw new DomainError(404, "This invitation link is not valid.");
+  const status = invitationStatus(inv);
+  if (status !== "pending") throw new DomainError(410, `This invitation has been ${status === "accepted" ? "used already" : status}.`);
+  const user = await trx("users").where({ id: userId }).first();
+  if (!user || normaliseEmail(user.email) !== normaliseEmail(inv.email)) {
+    throw new DomainError(403, "This invitation was sent to another address.");
+  }
+  await trx("memberships")
+    .insert({ team_id: inv.team_id, user_id: userId, role: inv.role })
+    .onConflict(["team_id", "user_id"])
+    .ignore();
+  await trx("invitations").where({ id: inv.id }).update({ accepted_at: trx.fn.now() });
+  await trx("users").where({ id: userId }).update({ current_team_id: inv.team_id });
+  await audit({ teamId: inv.team_id, actorId: userId, action: "invitation.accept", subjectType: "invitation", subjectId: inv.id }, trx);
+  return { teamId: inv.team_id, role: inv.role };
 }

@@ -11,11 +11,11 @@ import * as scenarioTraces from "@/app/api/scenarios/[id]/traces/route";
 import * as trace from "@/app/api/traces/[id]/route";
 import * as library from "@/app/api/library/route";
 import * as libraryEntry from "@/app/api/library/[id]/route";
-import { signInWithPassword } from "@/lib/auth/accounts";
+import { createAccountFromInvitation, requestPasswordReset, signInWithPassword } from "@/lib/auth/accounts";
 import { MAX_FAILURES_PER_ACCOUNT } from "@/lib/db/signInAttempts";
-import { changeRole, createInvitation, removeMember } from "@/lib/db/teams";
+import { changeRole, createInvitation, removeMember, revokeInvitation } from "@/lib/db/teams";
 import { createScenario } from "@/lib/db/scenarios";
-import { createPasswordReset } from "@/lib/db/passwordResets";
+import { createPasswordReset, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordResets";
 import { DomainError } from "@/lib/db/errors";
 import { teamOutbox } from "@/lib/mail/outbox";
 import { invitationMail, passwordResetMail } from "@/lib/mail/messages";
@@ -189,5 +189,35 @@ describe("development outbox: nobody else's links", () => {
     // g's lead sees g's invitation mail to f's viewer? No: f's viewer is neither g's member nor (any more) pending...
     // it is g's invitee, so g's lead does see its own invitation link.
     expect((await teamOutbox(g.lead.teamId, 200, g.lead.email)).map((m) => m.text).join("\n")).toContain(`/invitations/${gToken}`);
+  });
+});
+
+describe("password-reset flood guard under concurrent requests", () => {
+  it("issues at most the hourly number of links however many requests arrive at once", async () => {
+    const [u] = await db()("users").insert({ email: `resetburst.${f.tag}@fixture.test`, name: "Burst", password_hash: "x" }).returning("*");
+    const sent = await Promise.all(Array.from({ length: 8 }, () => requestPasswordReset(u.email)));
+    expect(sent.filter(Boolean).length).toBe(MAX_RESETS_PER_HOUR);
+    expect((await db()("password_resets").where({ user_id: u.id })).length).toBe(MAX_RESETS_PER_HOUR);
+  });
+});
+
+describe("creating an account from an invitation", () => {
+  it("creates the account and the membership together, in the invitation's role", async () => {
+    const email = `newcomer.${f.tag}@fixture.test`;
+    const { token } = await createInvitation(f.lead, email, "designer");
+    const { user, teamId } = await createAccountFromInvitation(token, { name: "New Comer", password: "newcomer-password" });
+    expect(teamId).toBe(f.lead.teamId);
+    expect(user.email).toBe(email);
+    expect((await db()("memberships").where({ team_id: teamId, user_id: user.id }).first()).role).toBe("designer");
+  });
+
+  it("leaves no team-less account behind when the invitation was withdrawn in the meantime", async () => {
+    const email = `withdrawn.${f.tag}@fixture.test`;
+    const { invitation, token } = await createInvitation(f.lead, email, "viewer");
+    await revokeInvitation(f.lead, invitation.id);
+    const e = await createAccountFromInvitation(token, { name: "Too Late", password: "too-late-password" }).catch((x) => x);
+    expect(e).toBeInstanceOf(DomainError);
+    expect((e as DomainError).status).toBe(410);
+    expect(await db()("users").whereRaw("lower(email) = ?", [email]).first()).toBeUndefined();
   });
 });
