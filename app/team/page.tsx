@@ -7,6 +7,29 @@ import { devOutboxEnabled } from "@/lib/mail/outbox";
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Team" };
 
+/** The audit log's action codes in plain words; an unknown code shows as it is. */
+const ACTION_WORDS: Record<string, string> = {
+  "comment.add": "commented on a revision",
+  "invitation.accept": "accepted an invitation",
+  "invitation.create": "sent an invitation",
+  "invitation.revoke": "revoked an invitation",
+  "library.start_from": "started a scenario from a Library entry",
+  "library.tolerances": "changed the bench-comparison tolerances",
+  "member.remove": "removed a member",
+  "member.role": "changed a member's role",
+  "revision.save": "saved a revision",
+  "scenario.create": "created a scenario",
+  "scenario.delete": "deleted a scenario",
+  "scenario.fork": "forked a scenario",
+  "scenario.restore": "restored a scenario",
+  "scenario.update": "updated a scenario",
+  "team.create": "started the team",
+  "trace.delete": "deleted a bench trace",
+  "trace.upload": "uploaded a bench trace",
+  "user.password_reset": "reset a password",
+  "user.sign_up": "signed up",
+};
+
 export default async function TeamPage() {
   const user = await requirePageUser("viewer");
   const isLead = user.role === "lead";
@@ -25,13 +48,14 @@ export default async function TeamPage() {
       {isLead && (
         <section aria-labelledby="audit-title" className="mt-8 rounded border border-hairline bg-white">
           <h2 id="audit-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Recent activity</h2>
+          {audit.length === 0 && <p className="px-4 py-3 text-sm text-ink-muted">No activity yet.</p>}
           <ul className="divide-y divide-hairline text-sm">
             {audit.map((a) => (
               <li key={a.id} className="flex justify-between px-4 py-1.5">
                 <span>
-                  <span className="font-medium">{a.actorName ?? "someone"}</span> · {a.action}
+                  <span className="font-medium">{a.actorName ?? "someone"}</span> {ACTION_WORDS[a.action] ?? `· ${a.action}`}
                 </span>
-                <time className="text-ink-muted" dateTime={a.createdAt}>{new Date(a.createdAt).toUTCString()}</time>
+                <time className="text-ink-muted" dateTime={a.createdAt}>{new Date(a.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</time>
               </li>
             ))}
           </ul>

@@ -41,11 +41,17 @@ export const Histogram = forwardRef<{ toPng(): string | null }, HistogramProps>(
     ctx.strokeRect(L, T, w, h);
     ctx.fillStyle = "#5B6472";
     ctx.font = '11px "Inter Variable", system-ui, sans-serif';
-    ctx.textAlign = "center";
+    // Five ticks with the same number of decimals (enough to tell neighbours apart); the end ticks are aligned
+    // inwards so they are not cut off at the canvas edge.
+    const step = (hi - lo) / 4;
+    const decimals = step > 0 ? Math.min(6, Math.max(0, Math.ceil(-Math.log10(step)))) : 2;
+    const tiny = Math.max(Math.abs(lo), Math.abs(hi)) < 1e-3;
     for (let k = 0; k <= 4; k++) {
-      const v = lo + ((hi - lo) * k) / 4;
-      ctx.fillText(Math.abs(v) >= 1e-3 || v === 0 ? Number(v.toPrecision(3)).toString() : formatEng(v, ""), L + (w * k) / 4, T + h + 13);
+      const v = lo + step * k;
+      ctx.textAlign = k === 0 ? "left" : k === 4 ? "right" : "center";
+      ctx.fillText(tiny && v !== 0 ? formatEng(v, "") : v.toFixed(decimals), L + (w * k) / 4, T + h + 13);
     }
+    ctx.textAlign = "center";
     ctx.fillText(`${label}${unit ? ` (${unit})` : ""}`, L + w / 2, height - 3);
     ctx.textAlign = "right";
     ctx.fillText(String(max), L - 4, T + 9);

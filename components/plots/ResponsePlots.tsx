@@ -107,7 +107,7 @@ export function BodePlot({ title, bode, ghost, magUnit, id, loop, height = 150, 
     ],
     axes: [
       axis({ values: engTicks("Hz"), space: 50 }),
-      axis({ scale, size: 52, values: (_u, vals) => vals.map((v) => (v == null ? "" : scale === "mag" ? `${v}` : `${v}°`)), label: scale === "mag" ? magUnit : "phase", labelSize: 14 }),
+      axis({ scale, size: 52, space: 22, ...(scale === "ph" ? { incrs: [15, 30, 45, 90, 180, 360] } : {}), values: (_u, vals) => vals.map((v) => (v == null ? "" : scale === "mag" ? `${v}` : `${v}°`)), label: scale === "mag" ? magUnit : "phase", labelSize: 14 }),
     ],
   });
   const magOpts = useMemo(() => mk("mag"), [id, title, magUnit]); // eslint-disable-line react-hooks/exhaustive-deps

@@ -1,10 +1,21 @@
 import { flatten, type Scalar } from "./diff";
 import { formatEng } from "@/lib/units/eng";
+import { TEMPLATES } from "@/lib/design/templates";
+
+/** The template's title for its id, or the id itself when it is not one of ours. */
+export function templateTitle(id: unknown): string {
+  return TEMPLATES.find((t) => t.id === id)?.title ?? String(id ?? "");
+}
+
+const SECTION_NAMES: Record<string, string> = {
+  opamp: "Op-amp", pass: "Pass device", load: "Load", supplies: "Supplies", stimulus: "Stimulus",
+  thermal: "Thermal", studies: "Studies", tolerances: "Tolerances", general: "General",
+};
 
 /** Unit of a part value from its name (resistors Ω, capacitors F, inductors H), else none. */
 export function unitFor(path: string): string {
   const leaf = path.split(".").pop() ?? "";
-  if (/resist/i.test(leaf) || /^divider/i.test(leaf)) return "Ω";
+  if (/resist/i.test(leaf) || /^divider/i.test(leaf) || /^howlandR\d/.test(leaf)) return "Ω";
   if (/capacit/i.test(leaf)) return "F";
   if (/inductance/i.test(leaf)) return "H";
   return "";
@@ -22,13 +33,23 @@ export function showValue(path: string, v: Scalar | undefined): string {
 /** A revision's content, read-only: part values first, then everything else grouped by section. */
 export function RevisionView({ body }: { body: unknown }) {
   const flat = [...flatten(body)];
-  const parts = flat.filter(([p]) => p.startsWith("parts."));
+  // The template's parts in its own order and with its own labels; values the template does not use are kept
+  // (they are part of the stored revision) but folded away under "Not used by this template".
+  const templateId = body && typeof body === "object" ? (body as { template?: unknown }).template : undefined;
+  const specs = TEMPLATES.find((t) => t.id === templateId)?.parts ?? [];
+  const byPath = new Map(flat.filter(([p]) => p.startsWith("parts.")).map(([p, v]) => [p, v] as const));
+  const parts: [string, Scalar, string][] = specs.length
+    ? specs.filter((sp) => byPath.has(`parts.${sp.key}`)).map((sp) => [`parts.${sp.key}`, byPath.get(`parts.${sp.key}`)!, sp.label])
+    : [...byPath].map(([p, v]) => [p, v, p.slice(6)]);
+  const shown = new Set(parts.map(([p]) => p));
+  const unused = [...byPath].filter(([p]) => !shown.has(p));
   const rest = flat.filter(([p]) => !p.startsWith("parts."));
   const sections = new Map<string, [string, Scalar][]>();
   for (const [p, v] of rest) {
     const head = p.includes(".") ? p.split(".")[0]! : "general";
     sections.set(head, [...(sections.get(head) ?? []), [p, v]]);
   }
+  if (unused.length) sections.set("unused", unused);
   return (
     <div className="space-y-4">
       <section aria-labelledby="pv-title" className="rounded border border-hairline bg-white">
@@ -38,9 +59,9 @@ export function RevisionView({ body }: { body: unknown }) {
         ) : (
           <table className="w-full text-sm">
             <tbody className="divide-y divide-hairline">
-              {parts.map(([p, v]) => (
+              {parts.map(([p, v, label]) => (
                 <tr key={p}>
-                  <th scope="row" className="px-4 py-1.5 text-left font-normal text-ink-muted">{p.slice(6)}</th>
+                  <th scope="row" className="px-4 py-1.5 text-left font-normal text-ink-muted" title={p}>{label}</th>
                   <td className="num px-4 py-1.5 text-right">{showValue(p, v)}</td>
                 </tr>
               ))}
@@ -50,7 +71,7 @@ export function RevisionView({ body }: { body: unknown }) {
       </section>
       {[...sections].map(([name, rows]) => (
         <details key={name} className="rounded border border-hairline bg-white">
-          <summary className="cursor-pointer px-4 py-2 text-sm font-semibold capitalize">{name}</summary>
+          <summary className="cursor-pointer px-4 py-2 text-sm font-semibold">{name === "unused" ? "Not used by this template" : SECTION_NAMES[name] ?? name}</summary>
           <table className="w-full text-sm">
             <tbody className="divide-y divide-hairline">
               {rows.map(([p, v]) => (

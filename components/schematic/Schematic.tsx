@@ -169,9 +169,10 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
       </Part>
       <Wire d={[[140, 210], [220, 210]]} />
       <Dot x={160} y={210} />
-      <Part id="dividerBottom" label={`Divider bottom ${r(p.dividerBottom)}`} box={[146, 222, 70, 66]} selected={sel} onSelect={on}>
+      <Part id="dividerBottom" label={`Divider bottom ${r(p.dividerBottom)}`} box={[96, 222, 76, 66]} selected={sel} onSelect={on}>
         <Resistor x1={160} y1={210} x2={160} y2={290} />
-        <Label x={170} y={262}>{r(p.dividerBottom)}</Label>
+        {/* left of the resistor: on the right it ran into the compensation capacitor's value */}
+        <Label x={150} y={262} anchor="end">{r(p.dividerBottom)}</Label>
       </Part>
       <Ground x={160} y={290} />
       {/* op-amp */}

@@ -91,7 +91,7 @@ export function HeadlineFigures() {
             <VerdictWordBadge v={h.verdict} />
           </div>
           <div className="num mt-0.5 text-[22px] font-semibold leading-tight text-ink" data-testid={`metric-${h.id}-value`}>{h.value}</div>
-          <div className="mt-0.5 truncate text-[11px] text-ink-muted" title={h.hint}>{h.hint}</div>
+          <div className="mt-0.5 text-[11px] leading-snug text-ink-muted">{h.hint}</div>
         </div>
       ))}
     </div>
@@ -128,8 +128,8 @@ export function ChecksTable() {
                 <p className="mt-0.5 text-[11px] text-ink-muted">{c.detail}</p>
               </details>
             </td>
-            <td className="num py-1 pr-2 text-right">{fmtValue(c)}</td>
-            <td className="num py-1 pr-2 text-right text-ink-muted">{fmtValue({ ...c, value: c.limit })}</td>
+            <td className="num whitespace-nowrap py-1 pr-2 text-right">{fmtValue(c)}</td>
+            <td className="num whitespace-nowrap py-1 pr-2 text-right text-ink-muted">{fmtValue({ ...c, value: c.limit })}</td>
             <td className="py-1"><VerdictWordBadge v={c.verdict} /></td>
           </tr>
         ))}
@@ -152,5 +152,36 @@ export function CautionsList() {
         </li>
       ))}
     </ul>
+  );
+}
+
+/**
+ * A short note when the headline figures seem to disagree: phase margin (small-signal, at one crossover) passes while
+ * the step's overshoot fails, or the other way round. Both are right about what they measure; the note says why.
+ */
+export function VerdictNote() {
+  const current = useWb((s) => s.run.current);
+  const maxOs = useWb((s) => s.scenario.studies.compensate.maxOvershootPct);
+  const list = headlines(current, maxOs);
+  const pm = list.find((h) => h.id === "phase-margin")?.verdict ?? null;
+  const os = list.find((h) => h.id === "overshoot")?.verdict ?? null;
+  if (!pm || !os) return null;
+  let text: string | null = null;
+  if (pm === "pass" && os !== "pass") {
+    text =
+      "Phase margin passes but overshoot does not. Phase margin reads the small-signal loop at one frequency, where |T| = 1. " +
+      "The step is a large signal: the op-amp can slew or reach its rail, the pass device can leave its linear region, " +
+      "and the loop gain can come close to 0 dB again at other frequencies (see Loop gain). The step response is what the load gets — design to it.";
+  } else if (pm === "fail" && os === "pass") {
+    text =
+      "Overshoot passes but phase margin does not. This step may be too small or too slow to excite the loop's resonance, " +
+      "or a rail clips the ringing; another load or command step can ring. Treat the low phase margin as real.";
+  }
+  if (!text) return null;
+  return (
+    <p role="note" className="rounded border border-hairline bg-white px-3 py-2 text-[12px] leading-snug text-ink" data-testid="verdict-note">
+      <span className="font-semibold">Why the figures disagree: </span>
+      {text}
+    </p>
   );
 }

@@ -7,10 +7,11 @@ import Link from "next/link";
 import { useEffect, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
 import { compileNetlistJson } from "@/lib/design/compile";
+import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
 import { LoadSupplyPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
-import { CautionsList, ChecksTable, HeadlineFigures } from "./Verdict";
+import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
 import { downloadText } from "@/components/plots/ExportMenu";
@@ -69,7 +70,7 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
-      <span className="text-[12px] text-ink-muted" data-testid="revision-label">{template}{shownRevision !== null ? ` · revision ${shownRevision}` : " · local draft"}</span>
+      <span className="text-[12px] text-ink-muted" data-testid="revision-label">{TEMPLATES.find((t) => t.id === template)?.title ?? template}{shownRevision !== null ? ` · revision ${shownRevision}` : " · local draft"}</span>
       <span
         className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
         data-testid="dirty-indicator"
@@ -247,6 +248,7 @@ function WorkbenchInner(props: WorkbenchProps) {
         <section aria-label="Verdict" className="min-w-0 space-y-3 md:col-span-2 xl:col-span-1 xl:max-h-[calc(100vh-7rem)] xl:overflow-y-auto">
           <h2 className="sr-only">Verdict</h2>
           <HeadlineFigures />
+          <VerdictNote />
           <div className="rounded border border-hairline bg-white p-2">
             <h3 className="mb-1 text-[13px] font-semibold">Checks</h3>
             <ChecksTable />

@@ -66,7 +66,7 @@ describe("accounts journey: save, share, open, comment", () => {
     // The history lists it with its note, and the diff shows the part values that changed.
     await designer.getByRole("cell", { name: "Sense resistor to 0.47 Ω" }).waitFor();
     const diff = designer.getByTestId("diff");
-    await diff.getByText("parts.senseResistor").waitFor();
+    await diff.getByText("Sense resistor", { exact: true }).waitFor();
     expect(await diff.textContent()).toContain("470 mΩ");
 
     // Copy link: the team link to this revision.
@@ -131,8 +131,8 @@ describe("accounts journey: save, share, open, comment", () => {
     await edit(lead, 0.22, "lead's change, on a stale base");
     await lead.getByRole("alert").getByText(/Revision 2 was saved by Dev Okafor/).waitFor();
     const diff = lead.getByTestId("diff");
-    await diff.getByText("parts.senseResistor").waitFor();
-    const row = await diff.getByRole("row", { name: /parts\.senseResistor/ }).textContent();
+    await diff.getByText("Sense resistor", { exact: true }).waitFor();
+    const row = await diff.getByRole("row", { name: /Sense resistor/ }).textContent();
     expect(row).toContain("330 mΩ"); // theirs (revision 2)
     expect(row).toContain("220 mΩ"); // mine
     // Nothing was overwritten: revision 2 is still the designer's.

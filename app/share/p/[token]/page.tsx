@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { openPublicLink } from "@/lib/db/shareLinks";
 import { RevisionView } from "@/components/scenarios/RevisionView";
+import { templateTitle } from "@/components/scenarios/RevisionView";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shared scenario", robots: { index: false, follow: false }, referrer: "no-referrer" };
@@ -31,7 +32,7 @@ export default async function PublicSharePage({ params }: { params: Promise<{ to
       <h1 className="mt-1 text-2xl font-semibold">
         {r.scenarioTitle} <span className="num text-ink-muted">· revision {r.number}</span>
       </h1>
-      <p className="mt-1 text-sm text-ink-muted">Saved by {r.authorName} on {new Date(r.createdAt).toUTCString()} · {r.template}</p>
+      <p className="mt-1 text-sm text-ink-muted">Saved by {r.authorName} on {new Date(r.createdAt).toUTCString()} · {templateTitle(r.template)}</p>
       {r.note && <p className="mt-3 rounded border border-hairline bg-white px-4 py-2 text-sm">“{r.note}”</p>}
       <div className="mt-6">
         <RevisionView body={r.body} />
