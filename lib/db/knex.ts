@@ -7,8 +7,33 @@ import config from "@/knexfile";
  */
 const globalForDb = globalThis as unknown as { quellKnex?: Knex };
 
+/** Server-side limits of the app's connections, ms: no request waits on a statement or a lock for ever. */
+export const STATEMENT_TIMEOUT_MS = Number(process.env.QUELL_PG_STATEMENT_TIMEOUT_MS ?? 15_000);
+export const LOCK_TIMEOUT_MS = 10_000;
+export const IDLE_IN_TRANSACTION_TIMEOUT_MS = 60_000;
+
+/**
+ * The app's Knex configuration: the shared one plus timeouts PostgreSQL enforces on every connection (a stuck
+ * lock or a runaway query ends in an error the route answers, not in a request that never returns), and a bound
+ * on waiting for a pooled connection. The CLI (migrations, seeds) keeps the plain configuration.
+ */
+export function appDbConfig(): Knex.Config {
+  const base = config.connection;
+  const connection = typeof base === "string" ? { connectionString: base } : (base as object);
+  return {
+    ...config,
+    connection: {
+      ...connection,
+      statement_timeout: STATEMENT_TIMEOUT_MS,
+      lock_timeout: LOCK_TIMEOUT_MS,
+      idle_in_transaction_session_timeout: IDLE_IN_TRANSACTION_TIMEOUT_MS,
+    } as Knex.StaticConnectionConfig,
+    acquireConnectionTimeout: 10_000,
+  };
+}
+
 export function db(): Knex {
-  globalForDb.quellKnex ??= knexFactory(config);
+  globalForDb.quellKnex ??= knexFactory(appDbConfig());
   return globalForDb.quellKnex;
 }
 

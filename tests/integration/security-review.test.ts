@@ -221,3 +221,33 @@ describe("creating an account from an invitation", () => {
     expect(await db()("users").whereRaw("lower(email) = ?", [email]).first()).toBeUndefined();
   });
 });
+
+describe("database connections cannot hang a request", () => {
+  it("every app connection carries a statement, lock and idle-transaction timeout", async () => {
+    const { LOCK_TIMEOUT_MS, STATEMENT_TIMEOUT_MS } = await import("@/lib/db/knex");
+    const show = async (name: string) => ((await db().raw(`show ${name}`)).rows[0] as Record<string, string>)[name];
+    // PostgreSQL reports these in its own units (e.g. "15s", "1min"): compare through pg's interval arithmetic.
+    const ms = async (name: string) => Number((await db().raw(`select extract(epoch from current_setting(?)::interval) * 1000 as ms`, [name])).rows[0].ms);
+    expect(await show("statement_timeout")).not.toBe("0");
+    expect(await ms("statement_timeout")).toBe(STATEMENT_TIMEOUT_MS);
+    expect(await ms("lock_timeout")).toBe(LOCK_TIMEOUT_MS);
+    expect(await ms("idle_in_transaction_session_timeout")).toBeGreaterThan(0);
+  });
+
+  it("a lock held elsewhere ends in an error after the lock timeout instead of waiting for ever", async () => {
+    const knexFactory = (await import("knex")).default;
+    const { appDbConfig } = await import("@/lib/db/knex");
+    const short = knexFactory({ ...appDbConfig(), connection: { ...(appDbConfig().connection as object), lock_timeout: 300 } as never });
+    try {
+      await db().transaction(async (holder) => {
+        await holder.raw("select pg_advisory_xact_lock(hashtext(?))", [`hang-test:${f.tag}`]);
+        const started = Date.now();
+        const e = await short.raw("select pg_advisory_lock(hashtext(?))", [`hang-test:${f.tag}`]).catch((x) => x);
+        expect((e as { code?: string }).code).toBe("55P03"); // lock_not_available (PostgreSQL error codes, appendix A)
+        expect(Date.now() - started).toBeLessThan(5_000);
+      });
+    } finally {
+      await short.destroy();
+    }
+  });
+});
