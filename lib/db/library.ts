@@ -338,7 +338,9 @@ export async function submitForValidation(actor: CurrentUser, scenarioId: string
     const revisionId = input.revisionId ?? s.current_revision_id;
     const rev = revisionId ? await trx("revisions").where({ id: revisionId, scenario_id: s.id }).first() : null;
     if (!rev) throw new DomainError(400, "revisionId: not a revision of this scenario.");
-    const traces = await trx("bench_traces").whereIn("id", input.traceIds).andWhere({ team_id: actor.teamId }).select("id", "revision_id");
+    // FOR SHARE: a trace being deleted right now is waited for (then it is missing, 400), and one attached here
+    // cannot be deleted until this submission commits (then deleteTrace sees it is evidence, 409).
+    const traces = await trx("bench_traces").whereIn("id", input.traceIds).andWhere({ team_id: actor.teamId }).forShare().select("id", "revision_id");
     const missing = input.traceIds.filter((id) => !traces.some((t) => t.id === id));
     if (missing.length) throw new DomainError(400, `traceIds: no such bench trace ${missing[0]}.`);
     const foreign = traces.find((t) => t.revision_id !== rev.id);

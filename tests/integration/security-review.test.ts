@@ -251,3 +251,28 @@ describe("database connections cannot hang a request", () => {
     }
   });
 });
+
+describe("evidence and trace deletion do not cross", () => {
+  it("a submission waits for a trace deletion in progress and then refuses the missing trace (no entry citing a deleted trace)", async () => {
+    const s = await createScenario(f.designer, { title: "Evidence race", template: "sink-npn" });
+    const traceId = ((await (await upload(f.designer, s.id)).json()) as { id: string }).id;
+    const deleting = await db().transaction();
+    try {
+      await deleting("bench_traces").where({ id: traceId }).forUpdate().first("id");
+      let settled = false;
+      const pending = library
+        .POST(await request("POST", "/api/library", f.designer, { scenarioId: s.id, note: "bench", traceIds: [traceId] }), ctx({}))
+        .finally(() => (settled = true));
+      await new Promise((r) => setTimeout(r, 300));
+      expect(settled).toBe(false);
+      await deleting("bench_traces").where({ id: traceId }).delete();
+      await deleting.commit();
+      const r = await pending;
+      expect(r.status).toBe(400);
+      expect(((await r.json()) as { error: string }).error).toMatch(/traceIds/);
+      expect(await db()("library_entries").where({ scenario_id: s.id }).first()).toBeUndefined();
+    } finally {
+      if (!deleting.isCompleted()) await deleting.rollback();
+    }
+  });
+});
