@@ -210,7 +210,7 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
   const xLog = (merged?.values[0] ?? 0) > 0;
   return (
     <div className="grid gap-3 lg:grid-cols-[320px_minmax(0,1fr)]">
-      <div className="space-y-2">
+      <div className="max-w-md space-y-2">
         <AxisEditor base="studies.sweep" label="Sweep axis" />
         <div className="flex items-center gap-2">
           <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.sweep()} data-testid="sweep-run">Run sweep</button>
@@ -273,7 +273,7 @@ function MapTab({ runner }: { runner: StudyRunner | null }) {
   const m = METRICS.find((x) => x.id === (merged?.metric ?? metric))!;
   return (
     <div className="grid gap-3 lg:grid-cols-[320px_minmax(0,1fr)]">
-      <div className="space-y-2">
+      <div className="max-w-md space-y-2">
         <AxisEditor base="studies.map.x" label="Across (x)" />
         <AxisEditor base="studies.map.y" label="Up (y)" />
         <div className="flex items-center gap-2 px-2">
@@ -357,7 +357,7 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
   }, [state.chunks]);
   return (
     <div className="grid gap-3 lg:grid-cols-[320px_minmax(0,1fr)]">
-      <div className="space-y-2">
+      <div className="max-w-md space-y-2">
         <ParamField spec={{ path: "studies.spread.runs", label: "Runs", unit: "", integer: true, min: 1, max: 100000 }} />
         <ParamField spec={{ path: "studies.spread.seed", label: "Seed", unit: "", integer: true }} />
         <ParamField spec={{ path: "tolerances.resistor", label: "Resistor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
@@ -406,7 +406,7 @@ function CompensateTab({ runner }: { runner: StudyRunner | null }) {
   useEffect(() => setApplied(false), [result]);
   return (
     <div className="grid gap-3 lg:grid-cols-[320px_minmax(0,1fr)]">
-      <div className="space-y-2">
+      <div className="max-w-md space-y-2">
         <ParamField spec={{ path: "studies.compensate.targetPhaseMarginDeg", label: "Phase margin at least", unit: "°", min: 0, max: 90 }} />
         <ParamField spec={{ path: "studies.compensate.maxOvershootPct", label: "Overshoot at most", unit: "%", min: 0, max: 100 }} />
         <div className="flex items-center gap-2 px-2">

@@ -236,16 +236,16 @@ function WorkbenchInner(props: WorkbenchProps) {
   return (
     <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
       <Toolbar {...props} />
-      <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_300px]">
-        <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto md:pr-1">
+      <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_340px]">
+        <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-11rem)] xl:max-h-[calc(100vh-9rem)] md:overflow-y-auto md:pr-1">
           <h2 className="sr-only">Circuit</h2>
           <CircuitZone />
         </section>
-        <section aria-label="Response" className="min-w-0 md:max-h-[calc(100vh-7rem)] md:overflow-y-auto">
+        <section aria-label="Response" className="min-w-0 md:max-h-[calc(100vh-11rem)] xl:max-h-[calc(100vh-9rem)] md:overflow-y-auto">
           <h2 className="sr-only">Response</h2>
           <ResponseZone />
         </section>
-        <section aria-label="Verdict" className="min-w-0 space-y-3 md:col-span-2 xl:col-span-1 xl:max-h-[calc(100vh-7rem)] xl:overflow-y-auto">
+        <section aria-label="Verdict" className="min-w-0 space-y-3 md:col-span-2 xl:col-span-1 xl:max-h-[calc(100vh-9rem)] xl:overflow-y-auto">
           <h2 className="sr-only">Verdict</h2>
           <HeadlineFigures />
           <VerdictNote />
