@@ -4,6 +4,7 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { validatedAction, validatedPublicAction, type ActionState } from "@/lib/auth/action";
 import { clientAddressFrom } from "@/lib/auth/client-address";
+import { safeNext } from "@/lib/auth/safe-next";
 import { setSession, destroySession, getSession } from "@/lib/auth/session";
 import { sessionAccount } from "@/lib/auth/current";
 import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createAccountFromInvitation } from "@/lib/auth/accounts";
@@ -15,10 +16,6 @@ import { db } from "@/lib/db/knex";
 const email = z.string().trim().min(1, "Enter your e-mail address.").max(254).email("Enter an e-mail address such as name@example.com.");
 const newPassword = z.string().min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters.");
 
-/** Only same-site paths may be returned to after signing in. */
-function safeNext(next: unknown): string {
-  return typeof next === "string" && next.startsWith("/") && !next.startsWith("//") && !next.startsWith("/\\") ? next : "/scenarios";
-}
 
 async function clientAddress(): Promise<string> {
   return clientAddressFrom(await headers());

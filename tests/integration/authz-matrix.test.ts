@@ -35,7 +35,7 @@ import { changeEntryStatus, submitForValidation } from "@/lib/db/library";
 import { createScenario } from "@/lib/db/scenarios";
 import { createPublicLink } from "@/lib/db/shareLinks";
 import { createInvitation } from "@/lib/db/teams";
-import { closeDb, cookieFor, ctx, makeFixture, request, scenarioBody, type Actor, type Fixture } from "./support/fixtures";
+import { closeDb, cookieFor, ctx, FIXTURE_PASSWORD, makeFixture, request, scenarioBody, type Actor, type Fixture } from "./support/fixtures";
 
 type Who = "anonymous" | "viewer" | "designer" | "lead" | "outsider";
 const WHO: Who[] = ["anonymous", "viewer", "designer", "lead", "outsider"];
@@ -499,5 +499,28 @@ describe("authorization matrix: library server actions", () => {
     jar.cookie = await cookieFor(f.lead);
     const bad = await setTolerancesAction({}, form({ ...good, settleBandPct: "80", ringingPct: "lots" }));
     expect(Object.keys(bad.fieldErrors ?? {}).sort()).toEqual(["ringingPct", "settleBandPct"]);
+  });
+});
+
+describe("signInAction: the return path", () => {
+  async function landing(next: string): Promise<string> {
+    const { signInAction } = await import("@/app/(account)/actions");
+    const fd = new FormData();
+    fd.set("email", f.designer.email);
+    fd.set("password", FIXTURE_PASSWORD);
+    fd.set("next", next);
+    const e = await signInAction({}, fd).then(() => null, (x: unknown) => x);
+    // Next's redirect() throws an error whose digest is "NEXT_REDIRECT;<type>;<url>;<status>;".
+    const digest = String((e as { digest?: string } | null)?.digest ?? "");
+    expect(digest).toMatch(/^NEXT_REDIRECT;/);
+    return digest.split(";")[2]!;
+  }
+
+  it("goes back to a page of this site, never to another site (tab, newline and backslash tricks included)", async () => {
+    expect(await landing("/scenarios/abc?x=1")).toBe("/scenarios/abc?x=1");
+    for (const evil of ["//evil.example", "/\t/evil.example", "/\n/evil.example", "/\\evil.example", "https://evil.example"]) {
+      const to = await landing(evil);
+      expect(new URL(to, "https://quell.example").origin).toBe("https://quell.example");
+    }
   });
 });
