@@ -14,7 +14,14 @@ export function checkScenarioBody(body: unknown): Scenario {
   if (body === null || typeof body !== "object" || Array.isArray(body)) {
     throw new DomainError(400, "body: a scenario must be a JSON object.");
   }
-  const size = Buffer.byteLength(JSON.stringify(body), "utf8");
+  // A server action's argument is decoded by React, which can produce cycles, BigInts and the like: not JSON data.
+  let json: string;
+  try {
+    json = JSON.stringify(body);
+  } catch {
+    throw new DomainError(400, "body: a scenario must be plain JSON data (no cycles, no big integers).");
+  }
+  const size = Buffer.byteLength(json, "utf8");
   if (size > MAX_SCENARIO_BYTES) throw new DomainError(413, `body: the scenario is ${size} bytes, over the ${MAX_SCENARIO_BYTES}-byte limit.`);
   try {
     return upgradeScenario(body);

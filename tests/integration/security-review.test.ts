@@ -276,3 +276,24 @@ describe("evidence and trace deletion do not cross", () => {
     }
   });
 });
+
+describe("scenario bodies that are not JSON data", () => {
+  it("a cyclic or BigInt body (possible through a server action's decoded argument) is a 400 naming body, not a crash", async () => {
+    const { checkScenarioBody } = await import("@/lib/db/scenarioBody");
+    const cyclic: Record<string, unknown> = { template: "sink-npn" };
+    cyclic.self = cyclic;
+    for (const bad of [cyclic, { template: "sink-npn", n: BigInt(1) }]) {
+      const e = (() => {
+        try {
+          checkScenarioBody(bad);
+          return null;
+        } catch (x) {
+          return x;
+        }
+      })();
+      expect(e).toBeInstanceOf(DomainError);
+      expect((e as DomainError).status).toBe(400);
+      expect((e as DomainError).message).toMatch(/^body:/);
+    }
+  });
+});
