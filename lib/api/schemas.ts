@@ -46,6 +46,10 @@ export const patchScenarioBody = z
     path: ["baseRevisionId"],
     message: "baseRevisionId and body go together: a new revision needs the revision it was based on",
   })
+  .refine((v) => !(v.restore && v.body !== undefined), {
+    path: ["restore"],
+    message: "restore the scenario first, then save a revision on it (a save that conflicted would leave it restored)",
+  })
   .refine((v) => v.body !== undefined || v.title !== undefined || v.status !== undefined || v.restore, {
     path: ["_"],
     message: "nothing to change: send body with baseRevisionId, title, status or restore",

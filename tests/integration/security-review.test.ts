@@ -297,3 +297,19 @@ describe("scenario bodies that are not JSON data", () => {
     }
   });
 });
+
+describe("PATCH /api/scenarios/[id]: nothing half-applied", () => {
+  it("refuses restore together with a new revision (400 naming restore) and leaves the scenario deleted", async () => {
+    const scenario = await import("@/app/api/scenarios/[id]/route");
+    const s = await createScenario(f.designer, { title: "Half", template: "sink-npn" });
+    expect((await scenario.DELETE(await request("DELETE", `/api/scenarios/${s.id}`, f.designer), ctx({ id: s.id }))).status).toBe(204);
+    const { scenarioBody } = await import("./support/fixtures");
+    const r = await scenario.PATCH(
+      await request("PATCH", `/api/scenarios/${s.id}`, f.designer, { restore: true, baseRevisionId: "00000000-0000-4000-8000-000000000000", body: scenarioBody(), note: "stale" }),
+      ctx({ id: s.id }),
+    );
+    expect(r.status).toBe(400);
+    expect(Object.keys(((await r.json()) as { fieldErrors: object }).fieldErrors)).toEqual(["restore"]);
+    expect((await db()("scenarios").where({ id: s.id }).first()).deleted_at).not.toBeNull();
+  });
+});
