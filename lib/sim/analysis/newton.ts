@@ -26,16 +26,14 @@ export function checkBudget(c: Circuit): void {
 
 /** One matrix load at c.x into c.mat / c.rhs: the constant stamps are copied in, then the dynamic ones added. */
 export function loadAll(c: Circuit): void {
-  const m = c.mat, st = c.staticMat;
-  const P = c.lu.positions;
+  const m = c.mat;
+  // One block copy of the constant stamps (a memcpy: several times faster than copying only the LU's positions one
+  // by one). Positions the LU does not use get static values too, which nothing reads; fill-in positions are zero in
+  // staticMat, as a factorisation needs them. The spare ground row/column is reset so it cannot grow.
+  m.set(c.staticMat);
   if (c.lu.analysed) {
-    // every other position is either never read by the LU (the spare ground row/column, reset here so it cannot
-    // grow) or holds static values already
-    for (let q = 0; q < P.length; q++) { const p = P[q]; m[p] = st[p]; }
     const T = c.trash;
     for (let q = 0; q < T.length; q++) m[T[q]] = 0;
-  } else {
-    m.set(st);
   }
   c.rhs.fill(0);
   c.noncon = 0;
@@ -52,9 +50,10 @@ export function loadAll(c: Circuit): void {
 export function solveInto(c: Circuit, out: Float64Array): void {
   const lu = c.lu;
   const m = c.mat, bk = c.matBackup;
-  // factor() writes only structural/fill positions, so those are all a retry needs restored
+  // factor() writes only structural/fill positions, so those are all a retry needs restored (the backup is one
+  // block copy, cheaper than copying those positions one by one)
   const P = lu.positions;
-  for (let q = 0; q < P.length; q++) bk[P[q]] = m[P[q]];
+  bk.set(m);
   let r = lu.analysed ? lu.factor(m) : LU_REORDER;
   if (r === LU_REORDER) {
     for (let q = 0; q < P.length; q++) m[P[q]] = bk[P[q]];
