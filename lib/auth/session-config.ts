@@ -44,11 +44,15 @@ function isLoopback(host: string | null): boolean {
 export function sessionOptions(req?: { proto?: string | null; host?: string | null }): SessionOptions {
   const production = process.env.NODE_ENV === "production";
   const plainLoopback = req ? req.proto !== "https" && isLoopback(req.host ?? null) : false;
+  // A TLS proxy that passes the upstream Host (127.0.0.1) and no X-Forwarded-Proto looks like plain loopback http:
+  // QUELL_COOKIE_SECURE=1 makes the cookie Secure whatever the request looks like (0 never, for plain-http setups).
+  const forced = process.env.QUELL_COOKIE_SECURE;
+  const secure = forced === "1" ? true : forced === "0" ? false : production && !plainLoopback;
   return {
     cookieName: SESSION_COOKIE,
     password: sessionPassword(),
     ttl: SESSION_TTL_S,
-    cookieOptions: { httpOnly: true, sameSite: "lax", secure: production && !plainLoopback, path: "/" },
+    cookieOptions: { httpOnly: true, sameSite: "lax", secure, path: "/" },
   };
 }
 

@@ -35,3 +35,18 @@ describe("session cookie parsing", () => {
     await expect(sessionFromCookieHeader(`other=1; ${SESSION_COOKIE}=%`)).resolves.toEqual({});
   });
 });
+
+describe("session cookie Secure flag behind a proxy", () => {
+  it("QUELL_COOKIE_SECURE=1 makes it Secure even when the request looks like plain loopback http", async () => {
+    const { sessionOptions } = await import("@/lib/auth/session-config");
+    vi.stubEnv("NODE_ENV", "production");
+    vi.stubEnv("SESSION_SECRET", "s".repeat(40));
+    // A TLS-terminating proxy passing Host 127.0.0.1 and no X-Forwarded-Proto.
+    const looksLoopback = { proto: null, host: "127.0.0.1:3000" };
+    expect(sessionOptions(looksLoopback).cookieOptions?.secure).toBe(false);
+    vi.stubEnv("QUELL_COOKIE_SECURE", "1");
+    expect(sessionOptions(looksLoopback).cookieOptions).toMatchObject({ secure: true, httpOnly: true, sameSite: "lax" });
+    vi.stubEnv("QUELL_COOKIE_SECURE", "0");
+    expect(sessionOptions({ proto: "http", host: "192.168.1.5:3000" }).cookieOptions?.secure).toBe(false);
+  });
+});
