@@ -9,7 +9,12 @@ export function proxy(request: NextRequest) {
   if (request.nextUrl.pathname === "/favicon.ico") return NextResponse.rewrite(new URL("/icon.svg", request.url));
   const headers = new Headers(request.headers);
   headers.set("x-quell-path", request.nextUrl.pathname + request.nextUrl.search);
-  return NextResponse.next({ request: { headers } });
+  const res = NextResponse.next({ request: { headers } });
+  // Pages are never shown inside another site's frame (clickjacking of Save, Share, Validate, role changes…).
+  res.headers.set("x-frame-options", "DENY");
+  res.headers.set("content-security-policy", "frame-ancestors 'none'");
+  res.headers.set("x-content-type-options", "nosniff");
+  return res;
 }
 
 export const config = {
