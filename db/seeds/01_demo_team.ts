@@ -12,6 +12,10 @@ export const DEMO_USERS = [
 
 /** Idempotent: creates the demo team, its three members and its scenarios once; a second run changes nothing. */
 export async function seed(knex: Knex): Promise<void> {
+  if (process.env.NODE_ENV === "production" && process.env.QUELL_DEMO_SEED !== "1") {
+    console.log("[seed] NODE_ENV=production: the demo team (with its published passwords) is not created");
+    return;
+  }
   const existing = await knex("teams").where({ name: DEMO_TEAM }).first();
   if (existing) return;
   await knex.transaction(async (trx) => {
