@@ -19,6 +19,9 @@ const NODE_WORDS: Record<string, string> = {
   vs: "load supply",
   lw: "load end of the cable",
   lt: "load terminal",
+  lc: "inside the coil, between its resistance and inductance",
+  ld: "between the LED string and the load resistance",
+  lcell: "cell terminal",
 };
 
 const DEVICE_WORDS: Record<string, string> = {

@@ -3,7 +3,7 @@
  * Save the scenario as a new revision with a note. A save on a stale base revision comes back as a conflict: both
  * versions' differing values are shown, and the person chooses to open theirs or to save theirs-plus-mine on top.
  */
-import { useState } from "react";
+import { useRef, useState } from "react";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import type { Scenario } from "@/lib/design/schema";
 import { scenarioDiff } from "@/lib/workbench/diff";
@@ -70,14 +70,16 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
     }
   };
 
+  const openButton = useRef<HTMLButtonElement>(null);
   return (
     <div className="relative">
-      <button type="button" className={`${BTN} ${dirty ? "border-signal text-signal" : ""}`} onClick={() => setOpen((o) => !o)} aria-expanded={open} data-testid="save-open">
+      <button ref={openButton} type="button" className={`${BTN} ${dirty ? "border-signal text-signal" : ""}`} onClick={() => setOpen((o) => !o)} aria-expanded={open} data-testid="save-open">
         Save…
       </button>
       {msg && !open && <span className="ml-2 text-[12px] text-ink-muted" role="status">{msg}</span>}
       {open && (
-        <div className="absolute right-0 z-30 mt-1 w-96 rounded border border-hairline bg-white p-3 shadow-lg" role="dialog" aria-label="Save revision">
+        <div className="absolute right-0 z-30 mt-1 w-96 rounded border border-hairline bg-white p-3 shadow-lg" role="dialog" aria-label="Save revision"
+          onKeyDown={(e) => { if (e.key === "Escape") { e.stopPropagation(); setOpen(false); openButton.current?.focus(); } }}>
           <label htmlFor="save-note" className="text-[12px] font-semibold">Note for this revision</label>
           <textarea id="save-note" className="mt-1 w-full rounded border border-hairline p-1.5 text-[13px]" rows={2} maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} data-testid="save-note" />
           <div className="mt-2 flex justify-end gap-2">
