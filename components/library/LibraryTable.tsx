@@ -4,6 +4,7 @@ import { formatEng } from "@/lib/units/eng";
 import type { LibraryEntrySummary } from "@/lib/db/library";
 import { StatusBadge } from "./StatusBadge";
 import { VerdictBadge } from "@/components/traces/VerdictBadge";
+import { templateTitle } from "@/components/scenarios/RevisionView";
 
 function worst(e: LibraryEntrySummary): "pass" | "warn" | "fail" | null {
   const v = e.evidence.comparisons.map((c) => c.verdict);
@@ -38,7 +39,7 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
                 <span className="block text-xs text-ink-muted">revision {e.revisionNumber}{e.submittedByName ? ` · submitted by ${e.submittedByName}` : ""}</span>
               </td>
               <td className="px-3 py-2"><StatusBadge status={e.status} /></td>
-              <td className="px-3 py-2 text-xs">{e.template} · {e.passElement || "—"} · {e.loadType || "—"}</td>
+              <td className="px-3 py-2 text-xs">{templateTitle(e.template)} · {e.passElement || "—"} · {e.loadType || "—"}</td>
               <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatEng(e.currentMin ?? 0, "A")} – ${formatEng(e.currentMax, "A")}`}</td>
               <td className="num px-3 py-2 text-right">{typeof e.keyFigures.overshootPct === "number" ? `${e.keyFigures.overshootPct.toFixed(1)} %` : "—"}</td>
               <td className="num whitespace-nowrap px-3 py-2 text-right">{typeof e.keyFigures.settlingTime === "number" ? formatEng(e.keyFigures.settlingTime, "s") : "—"}</td>

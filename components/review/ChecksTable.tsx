@@ -5,8 +5,11 @@ import { VerdictBadge } from "@/components/traces/VerdictBadge";
 
 function num(v: number, unit: string): string {
   if (!Number.isFinite(v)) return "—";
-  if (unit === "%") return `${v.toFixed(2)} %`;
-  if (unit === "°C") return `${v.toFixed(1)} °C`;
+  // The same forms as the workbench's checks table: a bare ratio as a plain number (no SI prefix: "0.403", not
+  // "403 m"), percentages with two decimals, temperatures in whole degrees.
+  if (unit === "") return v.toPrecision(3);
+  if (unit === "%" || unit === "% FS") return `${v.toFixed(2)} ${unit}`;
+  if (unit === "°C") return `${v.toFixed(0)} °C`;
   return formatEng(v, unit, 3);
 }
 

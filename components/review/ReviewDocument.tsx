@@ -16,6 +16,7 @@ import type { Tolerances } from "@/lib/traces/compare";
 import { stepFigures } from "@/lib/traces/metrics";
 import { formatEng } from "@/lib/units/eng";
 import { ChecksTable } from "./ChecksTable";
+import { templateTitle } from "@/components/scenarios/RevisionView";
 import { PartList } from "./PartList";
 import { OperatingPoint } from "./OperatingPoint";
 import type { ReactNode } from "react";
@@ -58,7 +59,7 @@ export function ReviewDocument(p: ReviewProps) {
           <p className="text-xs uppercase tracking-wide text-ink-muted">Design review · {p.teamName}</p>
           <h1 className="text-2xl font-semibold">{p.title}</h1>
           <p className="text-sm text-ink-muted">
-            Template {p.template} · revision {p.revision.number}{p.revision.isCurrent ? " (current)" : ""} by {p.revision.authorName}, {when(p.revision.createdAt)}
+            Template {templateTitle(p.template)} · revision {p.revision.number}{p.revision.isCurrent ? " (current)" : ""} by {p.revision.authorName}, {when(p.revision.createdAt)}
           </p>
         </div>
         <div className="flex items-center gap-2 no-print">

@@ -187,10 +187,11 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
         <Label x={290} y={326} anchor="middle">{r(p.feedbackResistor)}</Label>
       </Part>
       <Wire d={[[340, 310], [410, 310]]} />
-      <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[192, 266, 96, 28]} selected={sel} onSelect={on}>
+      <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[192, 266, 96, 35]} selected={sel} onSelect={on}>
         <Wire d={[[190, 280], [220, 280]]} />
         <Capacitor x1={220} y1={280} x2={260} y2={280} />
-        <Label x={238} y={275} anchor="end">{c(p.compCapacitor)}</Label>
+        {/* below the capacitor, between it and the feedback resistor: left of it the text crossed the −in wire */}
+        <Label x={240} y={299} anchor="middle">{c(p.compCapacitor)}</Label>
       </Part>
       <Wire d={[[260, 280], [310, 280], [310, 230]]} />
       <Wire d={[[300, 230], dar ? [310, 230] : [310, 230]]} />
@@ -246,7 +247,8 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
       {V && (
         <g>
           <Tag x={160} y={204} v={V.ref ?? V.cmd} anchor="middle" />
-          <Tag x={306} y={222} v={V.oa} anchor="end" />
+          {/* inside the triangle, near the apex: above the output wire it ran over the symbol's edge */}
+          <Tag x={260} y={234} v={V.oa} anchor="middle" />
           {!dar && <Tag x={372} y={252} v={V.b} anchor="end" />}
           <Tag x={416} y={300} v={V.e} />
           <Tag x={416} y={dar ? 176 : 200} v={V.c} />

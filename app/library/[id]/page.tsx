@@ -10,6 +10,7 @@ import { EntryActions } from "@/components/library/EntryActions";
 import { EntryHistory } from "@/components/library/EntryHistory";
 import { EntryEvidence } from "@/components/library/EntryEvidence";
 import { startFromEntryAction } from "../actions";
+import { templateTitle } from "@/components/scenarios/RevisionView";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Library entry" };
@@ -38,7 +39,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
       <header className="flex flex-wrap items-start justify-between gap-4">
         <div>
           <h1 className="text-2xl font-semibold">{entry.title} <span className="text-base font-normal text-ink-muted">revision {entry.revisionNumber}</span></h1>
-          <p className="mt-1 text-sm"><StatusBadge status={entry.status} testId="entry-status" /> <span className="ml-2 text-ink-muted">{entry.template} · {entry.passElement || "—"} · {entry.loadType || "—"}{entry.currentMax !== null ? ` · ${formatEng(entry.currentMin ?? 0, "A")} – ${formatEng(entry.currentMax, "A")}` : ""}</span></p>
+          <p className="mt-1 text-sm"><StatusBadge status={entry.status} testId="entry-status" /> <span className="ml-2 text-ink-muted">{templateTitle(entry.template)} · {entry.passElement || "—"} · {entry.loadType || "—"}{entry.currentMax !== null ? ` · ${formatEng(entry.currentMin ?? 0, "A")} – ${formatEng(entry.currentMax, "A")}` : ""}</span></p>
           {entry.validatedByName && <p className="mt-1 text-sm" data-testid="entry-validated-by">Validated by {entry.validatedByName}, {entry.validatedAt?.slice(0, 10)}</p>}
         </div>
         <p className="text-sm">
