@@ -2,18 +2,10 @@ import { describe, expect, it } from "vitest";
 import { Matrix, solve } from "ml-matrix";
 import { luFactor, luFactorComplex, luSolve, luSolveComplex } from "@/lib/sim/lu";
 import { LU_OK, LU_REORDER, StaticLU } from "@/lib/sim/sparse";
+import { createRng } from "@/lib/design/stats";
 
-/** Seeded PRNG (mulberry32, common practice) so every run checks the same systems. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+// Seeded PRNG (mulberry32, the project's generator) so every run checks the same systems.
+const rng = createRng;
 
 /** Pack a JS matrix into the engine's row-major storage with stride n+1 (spare ground row/column). */
 function pack(rows: number[][]): { a: Float64Array; stride: number } {
