@@ -78,7 +78,15 @@ export async function listRevisions(actor: CurrentUser, scenarioId: string): Pro
     .where("r.scenario_id", scenarioId)
     .orderBy("r.number", "desc")
     .select("r.id", "r.scenario_id", "r.number", "r.parent_id", "r.author_id", "r.note", "r.created_at", "u.name as author_name");
-  return rows.map((r) => ({
+  return rows.map(toRevisionRow);
+}
+
+/** A revisions row (joined with its author's name) as the app sees it. */
+function toRevisionRow(r: {
+  id: string; scenario_id: string; number: number; parent_id: string | null; author_id: string;
+  author_name: string; note: string; created_at: string | Date;
+}): RevisionRow {
+  return {
     id: r.id,
     scenarioId: r.scenario_id,
     number: r.number,
@@ -87,7 +95,7 @@ export async function listRevisions(actor: CurrentUser, scenarioId: string): Pro
     authorName: r.author_name,
     note: r.note,
     createdAt: new Date(r.created_at).toISOString(),
-  }));
+  };
 }
 
 export interface RevisionView extends RevisionRow {
@@ -108,14 +116,7 @@ async function loadRevision(revisionId: string): Promise<RevisionView | null> {
     .first("r.*", "u.name as author_name", "s.title", "s.template", "s.team_id", "s.current_revision_id", "s.deleted_at");
   if (!r) return null;
   return {
-    id: r.id,
-    scenarioId: r.scenario_id,
-    number: r.number,
-    parentId: r.parent_id,
-    authorId: r.author_id,
-    authorName: r.author_name,
-    note: r.note,
-    createdAt: new Date(r.created_at).toISOString(),
+    ...toRevisionRow(r),
     body: r.body,
     scenarioTitle: r.title,
     template: r.template,

@@ -5,7 +5,7 @@
  */
 import { compile, simulate, type AcResult, type DcSweepResult, type Netlist, type OpResult, type SimOptions, type TranResult } from "../sim";
 import { NAMES, compileNetlistJson, idealTransconductance, operatingCommand, type CompileOptions, type CompilePurpose } from "./compile";
-import { bandwidth3dB, loopMetrics, stepMetrics, unwrapDeg, type StepMetrics } from "./metrics";
+import { bandwidth3dB, loopMetrics, stepMetrics, unwrapDeg, type LoopMetrics, type StepMetrics } from "./metrics";
 import type { Scenario } from "./schema";
 import { fullScaleCurrent } from "./checks";
 
@@ -113,20 +113,11 @@ export function runStep(s: Scenario, options: SimOptions = {}): StepResult {
   };
 }
 
-export interface LoopGainResult {
+export interface LoopGainResult extends LoopMetrics {
   freq: Float64Array;
   /** T(jω), real and imaginary parts */
   re: Float64Array;
   im: Float64Array;
-  magDb: Float64Array;
-  phaseDeg: Float64Array;
-  phaseMarginDeg: number | null;
-  gainMarginDb: number | null;
-  crossoverHz: number | null;
-  phaseCrossoverHz: number | null;
-  /** min |1 + T| and its frequency (see LoopMetrics) */
-  modulusMargin: number;
-  modulusMarginHz: number;
 }
 
 /**
