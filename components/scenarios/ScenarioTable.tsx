@@ -133,7 +133,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
           <Loading what="scenarios" />
         ) : (
           <table className="w-full text-left text-sm" aria-busy={isLoading}>
-            <thead className="border-b border-hairline text-xs uppercase tracking-wide text-ink-muted">
+            <thead className="border-b border-hairline text-xs tracking-wide text-ink-muted">
               <tr>
                 {COLUMNS.map((c) => (
                   <th key={c.key} scope="col" className="px-4 py-2 font-medium" aria-sort={sort === c.key ? (dir === "asc" ? "ascending" : "descending") : "none"}>
@@ -142,7 +142,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
                     </button>
                   </th>
                 ))}
-                <th scope="col" className="px-4 py-2 font-medium">Rev.</th>
+                <th scope="col" className="px-4 py-2 font-medium">Revision</th>
                 {deleted && <th scope="col" className="px-4 py-2"><span className="sr-only">Actions</span></th>}
               </tr>
             </thead>
