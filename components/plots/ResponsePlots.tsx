@@ -53,7 +53,7 @@ export function StepPlot({ step, ghost, height = 230, title = "Step response" }:
     axes: [
       axis({ values: engTicks("s") }),
       axis({ scale: "A", values: engTicks("A"), size: 58 }),
-      axis({ scale: "V", side: 1, values: engTicks("V"), size: 52, grid: { show: false } }),
+      axis({ scale: "V", side: 1, values: engTicks("V"), size: 62, grid: { show: false } }),
     ],
   }), []);
   const data = useMemo<uPlot.AlignedData>(

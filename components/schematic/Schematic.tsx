@@ -124,7 +124,8 @@ function LoadSymbol({ s, x, y1, y2 }: { s: Scenario; x: number; y1: number; y2: 
       return (
         <g>
           <Diode x={x} y1={y1} y2={m + 4} led />
-          <text x={x - 34} y={m - 2} fontSize={10} fill={INK}>×{L.ledCount}</text>
+          {/* right of the string (the load's value label sits on the left) */}
+          <text x={x + 12} y={m + 14} fontSize={10} fill={INK}>×{L.ledCount}</text>
           <Resistor x1={x} y1={m + 4} x2={x} y2={y2} />
         </g>
       );
@@ -276,14 +277,14 @@ function HighSide({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k:
       </Part>
       <Wire d={[[60, 260], [160, 260]]} />
       <Dot x={160} y={40} />
-      <Part id="dividerBottom" label={`Divider (rail side) ${r(p.dividerBottom)}`} box={[146, 52, 70, 96]} selected={sel} onSelect={on}>
+      <Part id="dividerBottom" label={`Divider (rail side) ${r(p.dividerBottom)}`} box={[96, 52, 70, 96]} selected={sel} onSelect={on}>
         <Resistor x1={160} y1={40} x2={160} y2={170} />
-        <Label x={170} y={110}>{r(p.dividerBottom)}</Label>
+        <Label x={150} y={110} anchor="end">{r(p.dividerBottom)}</Label>
       </Part>
       <Dot x={160} y={170} />
-      <Part id="dividerTop" label={`Divider (command side) ${r(p.dividerTop)}`} box={[146, 182, 70, 70]} selected={sel} onSelect={on}>
+      <Part id="dividerTop" label={`Divider (command side) ${r(p.dividerTop)}`} box={[96, 182, 70, 70]} selected={sel} onSelect={on}>
         <Resistor x1={160} y1={170} x2={160} y2={260} />
-        <Label x={170} y={222}>{r(p.dividerTop)}</Label>
+        <Label x={150} y={222} anchor="end">{r(p.dividerTop)}</Label>
       </Part>
       <Wire d={[[160, 170], [220, 170]]} />
       <Part id="opamp" label={`Op-amp: ${s.opamp.preset}`} box={[214, 148, 92, 84]} selected={sel} onSelect={on}>
@@ -299,7 +300,8 @@ function HighSide({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k:
       <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[198, 126, 96, 28]} selected={sel} onSelect={on}>
         <Wire d={[[196, 140], [226, 140]]} />
         <Capacitor x1={226} y1={140} x2={266} y2={140} />
-        <Label x={246} y={160} anchor="middle">{c(p.compCapacitor)}</Label>
+        {/* above and right of the capacitor, clear of the op-amp body */}
+        <Label x={270} y={133}>{c(p.compCapacitor)}</Label>
       </Part>
       <Wire d={[[266, 140], [310, 140], [310, 190]]} />
       <Wire d={[[300, 190], [310, 190]]} />
@@ -368,7 +370,8 @@ function Howland({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: 
       <Dot x={190} y={250} />
       <Part id="howlandR3" label={`R3 ${r(p.howlandR3)}`} box={[116, 262, 70, 64]} selected={sel} onSelect={on}>
         <Resistor x1={130} y1={250} x2={130} y2={330} />
-        <Label x={100} y={296} anchor="middle">R3</Label>
+        <Label x={122} y={290} anchor="end">R3</Label>
+        <Label x={122} y={305} anchor="end">{r(p.howlandR3)}</Label>
       </Part>
       <Ground x={130} y={330} />
       <Wire d={[[190, 250], [190, 340]]} />

@@ -70,7 +70,8 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
       hint: acc ? `worst case; limit ${acc.limit.toFixed(2)} %` : "DC accuracy budget",
     },
     {
-      id: "dissipation", label: "Worst dissipation",
+      // Templates without a pass device (the Howland pump) report the op-amp's junction temperature here instead.
+      id: "dissipation", label: diss?.unit === "°C" ? "Hottest junction" : "Worst dissipation",
       value: diss ? formatEng(diss.value, diss.unit) : "—",
       verdict: diss?.verdict ?? null,
       hint: diss ? `rating ${formatEng(diss.limit, diss.unit)}` : "pass device",

@@ -67,10 +67,11 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
   const showOp = useWb((s) => s.showOperatingPoint);
   const template = useWb((s) => s.scenario.template);
   const [shownRevision, setShownRevision] = useState(revisionNumber);
+  const templateTitle = TEMPLATES.find((t) => t.id === template)?.title ?? template;
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
-      <span className="text-[12px] text-ink-muted" data-testid="revision-label">{TEMPLATES.find((t) => t.id === template)?.title ?? template}{shownRevision !== null ? ` · revision ${shownRevision}` : " · local draft"}</span>
+      <span className="text-[12px] text-ink-muted" data-testid="revision-label">{[templateTitle === title ? null : templateTitle, shownRevision !== null ? `revision ${shownRevision}` : "local draft"].filter(Boolean).join(" · ")}</span>
       <span
         className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
         data-testid="dirty-indicator"
