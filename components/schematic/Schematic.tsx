@@ -199,7 +199,7 @@ function Sink({ s, sel, on, op }: { s: Scenario; sel: string | null; on: (k: str
       <Dot x={310} y={230} />
       <Part id="baseResistor" label={`${mos ? "Gate" : "Base"} resistor ${r(p.baseResistor)}`} box={[312, 216, dar ? 34 : 66, 28]} selected={sel} onSelect={on}>
         <Resistor x1={310} y1={230} x2={dar ? 340 : 380} y2={230} />
-        {dar ? <Label x={318} y={254} anchor="end">{r(p.baseResistor)}</Label> : <Label x={345} y={212} anchor="middle">{r(p.baseResistor)}</Label>}
+        {dar ? <Label x={338} y={219} anchor="end">{r(p.baseResistor)}</Label> : <Label x={345} y={212} anchor="middle">{r(p.baseResistor)}</Label>}
       </Part>
       {/* pass device */}
       <Part id="pass" label={`Pass device: ${s.pass.preset}`} box={dar ? [338, 186, 90, 130] : [378, 186, 54, 88]} selected={sel} onSelect={on}>
