@@ -3,7 +3,7 @@
  * Upload a scope export: the file is parsed in the browser first (so a bad line shows at once), then sent as a
  * multipart form; the server parses it again and stores nothing when it cannot read it.
  */
-import { useMemo, useState, type FormEvent } from "react";
+import { useEffect, useMemo, useState, type FormEvent } from "react";
 import { parseTraceCsv, TraceParseError, type ChannelOption, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 import { formatEng } from "@/lib/units/eng";
 
@@ -32,6 +32,10 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
   const [busy, setBusy] = useState(false);
   const [serverError, setServerError] = useState<{ error: string; problems?: TraceProblem[] } | null>(null);
   const [done, setDone] = useState<string | null>(null);
+  // Set once this form is hydrated (it may hydrate after the layout, inside the page's Suspense boundary): a file
+  // chosen before that would be lost, so tests wait for data-ready.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
 
   const options = useMemo(() => {
     const errors: string[] = [];
@@ -93,7 +97,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
   const field = "rounded border border-hairline bg-white px-2 py-1 text-sm";
   const problems = serverError?.problems ?? (preview && !preview.ok ? preview.problems : []);
   return (
-    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" aria-label="Upload a bench trace">
+    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
       <p className="text-xs text-ink-muted">Oscilloscope export (CSV): a time column and one or more channels; settings lines and a header are recognised. Stored against revision {revisionNumber}.</p>
       <div className="flex flex-wrap gap-4">
         <label className="flex flex-col text-sm">

@@ -86,6 +86,8 @@ describe("library: upload, submit, validate, review", () => {
     const lines = captureCsv(step.time, step.iLoad, scenario.parts.senseResistor).split("\n");
     lines[9] = "12.5,n/a"; // line 10
     writeFileSync(broken, lines.join("\n"));
+    // The upload form hydrates inside the page's Suspense boundary, possibly after the layout: wait for it.
+    await page.locator('[data-testid="trace-upload"][data-ready="1"]').waitFor();
     await page.getByLabel("CSV file").setInputFiles(broken);
     await page.getByTestId("trace-error").waitFor();
     expect(await page.getByTestId("trace-error").textContent()).toContain('line 10: column 2 (CH1): "n/a" is not a number');
