@@ -516,6 +516,15 @@ export function runChecks(s: Scenario, op?: OpLike): { checks: CheckRow[]; cauti
       text: `A laser emitter can blind before anyone sees it; overshoot can destroy the emitter. Eye-safety classification and interlocks apply. ${DEFERENCE}`,
     });
   }
+  // High-power LEDs: from about 350 mA (the common 1 W class; a threshold of common practice, not a standard's),
+  // blue-rich white light is bright enough to harm eyes at close range (photobiological safety, IEC 62471 groups).
+  if (L.kind === "led" && iFs >= 0.35) {
+    cautions.push({
+      id: "led-light",
+      title: "High-power LED light",
+      text: `${L.ledCount} LEDs driven at ${fmt(iFs)} A are bright enough to harm eyes at close range (photobiological safety, IEC 62471 risk groups). Shield or diffuse them on the bench and never look into them. ${DEFERENCE}`,
+    });
+  }
   if (L.kind === "cell" && L.lithium) {
     cautions.push({
       id: "lithium",

@@ -81,6 +81,16 @@ describe("checks table", () => {
     expect(cc.map((c) => c.id)).toContain("lithium");
     for (const c of [...runChecks(s).cautions, ...cc]) expect(c.text).toMatch(/local codes and licensed practice/);
   });
+  it("cautions: a high-power LED string (1.5 A grow-light demo) gets the light caution; a 100 mA one does not", () => {
+    // Threshold 350 mA: the common 1 W LED class (common practice, not a standard's limit).
+    const grow = demoScenarios()[1].body;
+    const caution = runChecks(grow).cautions.find((c) => c.id === "led-light");
+    expect(caution?.text).toMatch(/IEC 62471/);
+    expect(caution?.text).toMatch(/local codes and licensed practice/);
+    const dim = structuredClone(grow);
+    dim.stimulus.commandFullScale = grow.stimulus.commandFullScale * (0.1 / 1.5);
+    expect(runChecks(dim).cautions.map((c) => c.id)).not.toContain("led-light");
+  });
   it("the simulated current of the NPN sink lies inside the worst-case budget (op row passes)", () => {
     const s = defaultScenario("sink-npn");
     const { op } = runOperatingPoint(s);
