@@ -5,55 +5,57 @@ import { useState, useTransition } from "react";
 type Fork = (input: { revisionId: string; title?: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
 type SetDeleted = (input: { scenarioId: string; deleted: boolean }) => Promise<{ ok: true } | { ok: false; message: string }>;
 
-/** "Fork to my drafts": copies a revision into a new scenario of the user and opens it. */
-export function ForkButton({ revisionId, fork, label = "Fork to my drafts" }: { revisionId: string; fork: Fork; label?: string }) {
-  const router = useRouter();
+/** A button that runs a server action in a transition and shows its refusal beside it. */
+function ActionButton({ run, label, busyLabel, className }: {
+  run: () => Promise<string | null>;
+  label: string;
+  busyLabel?: string;
+  className: string;
+}) {
   const [pending, start] = useTransition();
   const [err, setErr] = useState<string | null>(null);
   return (
     <span className="inline-flex items-center gap-2">
-      <button
-        type="button"
-        disabled={pending}
-        onClick={() =>
-          start(async () => {
-            const r = await fork({ revisionId });
-            if (r.ok) router.push(`/scenarios/${r.scenarioId}`);
-            else setErr(r.message);
-          })
-        }
-        className="rounded border border-hairline bg-white px-3 py-1.5 text-sm hover:border-signal disabled:opacity-60"
-      >
-        {pending ? "Forking…" : label}
+      <button type="button" disabled={pending} onClick={() => start(async () => setErr(await run()))} className={`${className} disabled:opacity-60`}>
+        {pending && busyLabel ? busyLabel : label}
       </button>
       {err && <span role="alert" className="text-xs text-verdict-fail">{err}</span>}
     </span>
   );
 }
 
+/** "Fork to my drafts": copies a revision into a new scenario of the user and opens it. */
+export function ForkButton({ revisionId, fork, label = "Fork to my drafts" }: { revisionId: string; fork: Fork; label?: string }) {
+  const router = useRouter();
+  return (
+    <ActionButton
+      label={label}
+      busyLabel="Forking…"
+      className="rounded border border-hairline bg-white px-3 py-1.5 text-sm hover:border-signal"
+      run={async () => {
+        const r = await fork({ revisionId });
+        if (!r.ok) return r.message;
+        router.push(`/scenarios/${r.scenarioId}`);
+        return null;
+      }}
+    />
+  );
+}
+
 /** Soft delete (to the table's Deleted view) or restore; owner or lead. */
 export function DeleteButton({ scenarioId, deleted, setDeleted }: { scenarioId: string; deleted: boolean; setDeleted: SetDeleted }) {
   const router = useRouter();
-  const [pending, start] = useTransition();
-  const [err, setErr] = useState<string | null>(null);
   return (
-    <span className="inline-flex items-center gap-2">
-      <button
-        type="button"
-        disabled={pending}
-        onClick={() =>
-          start(async () => {
-            const r = await setDeleted({ scenarioId, deleted: !deleted });
-            if (!r.ok) setErr(r.message);
-            else if (!deleted) router.push("/scenarios");
-            else router.refresh();
-          })
-        }
-        className={`rounded border px-3 py-1.5 text-sm disabled:opacity-60 ${deleted ? "border-hairline bg-white" : "border-verdict-fail/40 text-verdict-fail"}`}
-      >
-        {deleted ? "Restore" : "Delete"}
-      </button>
-      {err && <span role="alert" className="text-xs text-verdict-fail">{err}</span>}
-    </span>
+    <ActionButton
+      label={deleted ? "Restore" : "Delete"}
+      className={`rounded border px-3 py-1.5 text-sm ${deleted ? "border-hairline bg-white" : "border-verdict-fail/40 text-verdict-fail"}`}
+      run={async () => {
+        const r = await setDeleted({ scenarioId, deleted: !deleted });
+        if (!r.ok) return r.message;
+        if (!deleted) router.push("/scenarios");
+        else router.refresh();
+        return null;
+      }}
+    />
   );
 }

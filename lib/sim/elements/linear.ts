@@ -128,6 +128,18 @@ export class Inductor extends BranchElement {
   }
 }
 
+/** AC excitation of an independent source as (real, imaginary) from its magnitude and phase in degrees. */
+function acPhasor(ac: number, phaseDeg: number): [number, number] {
+  const rad = (phaseDeg * Math.PI) / 180;
+  return [ac * Math.cos(rad), ac * Math.sin(rad)];
+}
+
+/** Present value of an independent source: the DC-sweep value, else its wave in a transient, else its DC value. */
+function sourceValue(sweepValue: number | null, wave: Wave | null, dc: number, c: Circuit): number {
+  if (sweepValue !== null) return sweepValue;
+  return c.useWaves && wave !== null ? waveValue(wave, c.time) : dc;
+}
+
 export class VSource extends BranchElement {
   /** value that replaces `dc` during a DC sweep, or null */
   sweepValue: number | null = null;
@@ -136,12 +148,10 @@ export class VSource extends BranchElement {
   acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "vsource", nodes);
-    this.acRe = ac * Math.cos((acPhaseDeg * Math.PI) / 180);
-    this.acIm = ac * Math.sin((acPhaseDeg * Math.PI) / 180);
+    [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
   }
   value(c: Circuit): number {
-    if (this.sweepValue !== null) return this.sweepValue;
-    return c.useWaves && this.wave !== null ? waveValue(this.wave, c.time) : this.dc;
+    return sourceValue(this.sweepValue, this.wave, this.dc, c);
   }
   load(c: Circuit): void {
     c.rhs[this.k] += this.value(c) * c.srcScale;
@@ -157,12 +167,10 @@ export class ISource extends TwoTerminal {
   acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "isource", nodes);
-    this.acRe = ac * Math.cos((acPhaseDeg * Math.PI) / 180);
-    this.acIm = ac * Math.sin((acPhaseDeg * Math.PI) / 180);
+    [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
   }
   value(c: Circuit): number {
-    if (this.sweepValue !== null) return this.sweepValue;
-    return c.useWaves && this.wave !== null ? waveValue(this.wave, c.time) : this.dc;
+    return sourceValue(this.sweepValue, this.wave, this.dc, c);
   }
   load(c: Circuit): void {
     const i = this.value(c) * c.srcScale;
