@@ -3,10 +3,10 @@
  * layer and shape the results for the plots, and list the buffers to transfer.
  */
 import { upgradeScenario } from "@/lib/design/upgrade";
-import { runClosedLoop, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "@/lib/design/run";
+import { runClosedLoop, runLoopGain, runOperatingPoint, runOutputImpedance, runSmallSignalStep, runStep, type LoopResult } from "@/lib/design/run";
 import { runChecks } from "@/lib/design/checks";
 import type { Scenario } from "@/lib/design/schema";
-import type { BodeView, LiveResult, LoopView, OperatingPointResult, StepView } from "@/lib/workbench/types";
+import type { BodeView, LiveResult, LoopFigures, LoopView, OperatingPointResult, StepView } from "@/lib/workbench/types";
 
 /** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
 export const LIVE_BUDGET_MS = 10_000;
@@ -22,17 +22,25 @@ function toDb(mag: Float64Array): Float64Array {
   return out;
 }
 
+/** The large-signal step and, beside it, the linearised circuit's step (see runSmallSignalStep). */
 export function stepView(s: Scenario, budgetMs = LIVE_BUDGET_MS): StepView {
   const r = runStep(s, { timeBudgetMs: budgetMs });
-  return { time: r.time, ...r.series, metrics: r.metrics };
+  const small = runSmallSignalStep(s, { timeBudgetMs: budgetMs }, r.metrics.initial);
+  return { time: r.time, ...r.series, metrics: r.metrics, small };
 }
 
-export function loopView(s: Scenario, budgetMs = LIVE_BUDGET_MS): LoopView {
-  const r = runLoopGain(s, { timeBudgetMs: budgetMs });
+function loopFigures(r: LoopResult): BodeView & LoopFigures {
   return {
     freq: r.freq, magDb: r.magDb, phaseDeg: r.phaseDeg,
-    phaseMarginDeg: r.phaseMarginDeg, gainMarginDb: r.gainMarginDb, crossoverHz: r.crossoverHz,
+    phaseMarginDeg: r.phaseMarginDeg, gainMarginDb: r.gainMarginDb, crossoverHz: r.crossoverHz, crossovers: r.crossovers,
+    modulusMargin: r.modulusMargin, modulusMarginHz: r.modulusMarginHz,
   };
+}
+
+/** The current loop's gain (the headline) and the op-amp's local loop. */
+export function loopView(s: Scenario, budgetMs = LIVE_BUDGET_MS): LoopView {
+  const r = runLoopGain(s, { timeBudgetMs: budgetMs });
+  return { ...loopFigures(r.loops.current), local: r.loops.local ? loopFigures(r.loops.local) : null };
 }
 
 /** The step half of a live run: its failure fails the run (the page keeps the last good result). */

@@ -25,6 +25,9 @@ const STEP_SERIES = [
   { key: "vPass", label: "Collector/drain", unit: "V", scale: "V", color: OKABE_ITO[3] },
 ] as const;
 
+/** The small-signal step's trace colour (Okabe–Ito sky blue, beside the load current's blue). */
+const SMALL_SIGNAL_COLOR = OKABE_ITO[5];
+
 function PlotHeader({ title, children }: { title: string; children?: React.ReactNode }) {
   return (
     <div className="flex items-center justify-between px-1 pb-1">
@@ -60,15 +63,25 @@ export function StepPlot({ step, ghost, height = 230, title = "Step response" }:
     () => (step ? [step.time, step.iLoad, step.vCommand, step.vOpampOut, step.vPass] : [[], [], [], [], []]),
     [step],
   );
-  const under = useMemo<Overlay[]>(
-    () => (ghost ? STEP_SERIES.map((s) => ({ x: ghost.time, y: ghost[s.key], stroke: s.color, scale: s.scale, dash: GHOST_DASH, alpha: GHOST_ALPHA })) : []),
-    [ghost],
-  );
+  const under = useMemo<Overlay[]>(() => {
+    const list: Overlay[] = ghost
+      ? STEP_SERIES.map((s) => ({ x: ghost.time, y: ghost[s.key], stroke: s.color, scale: s.scale, dash: GHOST_DASH, alpha: GHOST_ALPHA }))
+      : [];
+    // the linearised circuit's step, dotted in the load current's colour
+    if (step?.small) list.push({ x: step.small.time, y: step.small.iLoad, stroke: SMALL_SIGNAL_COLOR, scale: "A", dash: [2, 3], alpha: 0.8, width: 1.4 });
+    return list;
+  }, [ghost, step]);
   const columns = (): CsvColumn[] | null =>
     step ? [{ name: "time", unit: "s", data: step.time }, ...STEP_SERIES.map((s) => ({ name: s.label, unit: s.unit, data: step[s.key] }))] : null;
   return (
     <figure className="rounded border border-hairline bg-white p-2" data-testid="plot-step">
       <PlotHeader title={title}>
+        {step?.small && (
+          <span className="mr-auto pl-3 text-[11px] text-ink-muted" data-testid="small-signal-legend">
+            <span aria-hidden className="mr-1 inline-block w-5 border-t-2 border-dotted align-middle" style={{ borderColor: SMALL_SIGNAL_COLOR }} />
+            small-signal step (linearised circuit): overshoot {step.small.metrics.overshootPct.toFixed(1)} %
+          </span>
+        )}
         <ExportButtons name={title} columns={columns} png={() => ref.current?.toPng() ?? null} testId="export-step" />
       </PlotHeader>
       <UPlotChart ref={ref} options={options} data={data} height={height} under={under} ariaLabel={`${title}: load current, command, op-amp output and collector voltage against time`} testId="uplot-step" />
@@ -84,13 +97,19 @@ export interface BodeProps {
   /** cursor sync key, and a testid stem */
   id: string;
   loop?: LoopView | null;
+  /** a second response on the same frequencies (the loop gain plot's local op-amp loop), drawn thinner */
+  second?: { label: string; bode: BodeView | null } | null;
   height?: number;
   extraMarkers?: Marker[];
 }
 
-export function BodePlot({ title, bode, ghost, magUnit, id, loop, height = 150, extraMarkers }: BodeProps) {
+export function BodePlot({ title, bode, ghost, magUnit, id, loop, second, height = 150, extraMarkers }: BodeProps) {
   const magRef = useRef<UPlotHandle>(null);
   const phRef = useRef<UPlotHandle>(null);
+  const secondLabel = second?.label ?? null;
+  // the second response shares the first one's frequency column (same sweep), else it is left out
+  const secondBode = second?.bode && bode && second.bode.freq.length === bode.freq.length ? second.bode : null;
+  const mainLabel = loop && secondLabel ? "current loop" : title;
   const mk = (scale: "mag" | "ph"): Omit<uPlot.Options, "width" | "height"> => ({
     legend: { live: true },
     cursor: { drag: { x: true, y: false }, sync: { key: id } },
@@ -98,29 +117,54 @@ export function BodePlot({ title, bode, ghost, magUnit, id, loop, height = 150, 
     series: [
       { label: "f", value: (_u, v) => (v == null ? "—" : formatEng(v, "Hz")) },
       {
-        label: scale === "mag" ? `|${title}|` : `∠${title}`,
+        label: scale === "mag" ? `|${mainLabel}|` : `∠${mainLabel}`,
         scale,
         stroke: scale === "mag" ? OKABE_ITO[0] : OKABE_ITO[1],
         width: 1.8,
         value: (_u, v) => (v == null ? "—" : scale === "mag" ? `${v.toFixed(1)} ${magUnit}` : `${v.toFixed(1)}°`),
       },
+      ...(secondLabel
+        ? [{
+          label: scale === "mag" ? `|${secondLabel}|` : `∠${secondLabel}`,
+          scale,
+          stroke: scale === "mag" ? OKABE_ITO[5] : OKABE_ITO[4],
+          width: 1.2,
+          dash: [2, 3],
+          value: (_u: uPlot, v: number | null) => (v == null ? "—" : scale === "mag" ? `${v.toFixed(1)} ${magUnit}` : `${v.toFixed(1)}°`),
+        }]
+        : []),
     ],
     axes: [
       axis({ values: engTicks("Hz"), space: 50 }),
       axis({ scale, size: 52, space: 22, ...(scale === "ph" ? { incrs: [15, 30, 45, 90, 180, 360] } : {}), values: (_u, vals) => vals.map((v) => (v == null ? "" : scale === "mag" ? `${v}` : `${v}°`)), label: scale === "mag" ? magUnit : "phase", labelSize: 14 }),
     ],
   });
-  const magOpts = useMemo(() => mk("mag"), [id, title, magUnit]); // eslint-disable-line react-hooks/exhaustive-deps
-  const phOpts = useMemo(() => mk("ph"), [id, title, magUnit]); // eslint-disable-line react-hooks/exhaustive-deps
-  const magData = useMemo<uPlot.AlignedData>(() => (bode ? [bode.freq, bode.magDb] : [[], []]), [bode]);
-  const phData = useMemo<uPlot.AlignedData>(() => (bode ? [bode.freq, bode.phaseDeg] : [[], []]), [bode]);
+  const magOpts = useMemo(() => mk("mag"), [id, title, magUnit, secondLabel, mainLabel]); // eslint-disable-line react-hooks/exhaustive-deps
+  const phOpts = useMemo(() => mk("ph"), [id, title, magUnit, secondLabel, mainLabel]); // eslint-disable-line react-hooks/exhaustive-deps
+  const magData = useMemo<uPlot.AlignedData>(() => {
+    if (!bode) return secondLabel ? [[], [], []] : [[], []];
+    if (!secondLabel) return [bode.freq, bode.magDb];
+    return [bode.freq, bode.magDb, secondBode ? secondBode.magDb : new Float64Array(bode.freq.length).fill(NaN)];
+  }, [bode, secondBode, secondLabel]);
+  const phData = useMemo<uPlot.AlignedData>(() => {
+    if (!bode) return secondLabel ? [[], [], []] : [[], []];
+    if (!secondLabel) return [bode.freq, bode.phaseDeg];
+    return [bode.freq, bode.phaseDeg, secondBode ? secondBode.phaseDeg : new Float64Array(bode.freq.length).fill(NaN)];
+  }, [bode, secondBode, secondLabel]);
   const magGhost = useMemo<Overlay[]>(() => (ghost ? [{ x: ghost.freq, y: ghost.magDb, stroke: OKABE_ITO[0], scale: "mag", dash: GHOST_DASH, alpha: GHOST_ALPHA }] : []), [ghost]);
   const phGhost = useMemo<Overlay[]>(() => (ghost ? [{ x: ghost.freq, y: ghost.phaseDeg, stroke: OKABE_ITO[1], scale: "ph", dash: GHOST_DASH, alpha: GHOST_ALPHA }] : []), [ghost]);
   const magMarkers = useMemo<Marker[]>(() => {
     const m: Marker[] = [...(extraMarkers ?? [])];
     if (loop) {
       m.push({ y: 0, scale: "mag", label: "0 dB", color: "#5B6472" });
-      if (loop.crossoverHz !== null) m.push({ x: loop.crossoverHz, label: `crossover ${formatEng(loop.crossoverHz, "Hz")}`, color: "#0F766E" });
+      // every 0 dB crossing of the current loop; the one the margin is taken at carries the label
+      for (const f of loop.crossovers) {
+        const main = f === loop.crossoverHz;
+        const label = main
+          ? `crossover ${formatEng(f, "Hz")}${loop.crossovers.length > 1 ? ` (least margin of ${loop.crossovers.length})` : ""}`
+          : formatEng(f, "Hz");
+        m.push({ x: f, label, color: main ? "#0F766E" : "#5B6472" });
+      }
     }
     return m;
   }, [loop, extraMarkers]);
@@ -133,7 +177,16 @@ export function BodePlot({ title, bode, ghost, magUnit, id, loop, height = 150, 
     return m;
   }, [loop]);
   const columns = (): CsvColumn[] | null =>
-    bode ? [{ name: "frequency", unit: "Hz", data: bode.freq }, { name: `${title} magnitude`, unit: magUnit, data: bode.magDb }, { name: `${title} phase`, unit: "deg", data: bode.phaseDeg }] : null;
+    bode
+      ? [
+        { name: "frequency", unit: "Hz", data: bode.freq },
+        { name: `${mainLabel} magnitude`, unit: magUnit, data: bode.magDb },
+        { name: `${mainLabel} phase`, unit: "deg", data: bode.phaseDeg },
+        ...(secondBode && secondLabel
+          ? [{ name: `${secondLabel} magnitude`, unit: magUnit, data: secondBode.magDb }, { name: `${secondLabel} phase`, unit: "deg", data: secondBode.phaseDeg }]
+          : []),
+      ]
+      : null;
   return (
     <figure className="rounded border border-hairline bg-white p-2" data-testid={`plot-${id}`}>
       <PlotHeader title={title}>

@@ -4,6 +4,11 @@
  * Verdict words always accompany the colour.
  */
 import type { CheckRow, Verdict as VerdictWord } from "@/lib/design/checks";
+import { explainFigures } from "@/lib/design/explain";
+import {
+  GAIN_MARGIN_PASS_DB, MODULUS_MARGIN_PASS, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG, gainMarginVerdict, modulusMarginVerdict,
+  overshootVerdict, phaseMarginVerdict, settlingVerdict,
+} from "@/lib/design/verdicts";
 import { formatEng } from "@/lib/units/eng";
 import type { LiveResult } from "@/lib/workbench/types";
 import { useWb } from "./context";
@@ -16,13 +21,6 @@ export function VerdictWordBadge({ v }: { v: VerdictWord | null }) {
   return <span className={`rounded px-1.5 py-0.5 text-[11px] font-semibold uppercase tracking-wide ${COLOR[v]} ${BG[v]}`}>{v}</span>;
 }
 
-/** Phase margin: ≥ 45° pass, 30–45° warn, below fail (common practice for a robust loop). The overshoot target
- * is the Compensate study's; a settled ±1 % but unsettled ±0.1 % response is a warning. */
-export function phaseMarginVerdict(pm: number | null): VerdictWord | null {
-  if (pm === null) return null;
-  return pm >= 45 ? "pass" : pm >= 30 ? "warn" : "fail";
-}
-
 interface Headline {
   id: string;
   label: string;
@@ -31,36 +29,59 @@ interface Headline {
   hint: string;
 }
 
+/**
+ * The headline figures. Stability figures are the current loop's (broken between the op-amp's output and the
+ * base/gate resistor); the step figures are the large-signal step's, the load's real experience.
+ */
 export function headlines(r: LiveResult | null, maxOvershootPct: number): Headline[] {
   const loop = r?.loop ?? null;
   const m = r?.step?.metrics ?? null;
+  const small = r?.step?.small?.metrics ?? null;
   const row = (id: string): CheckRow | undefined => r?.checks.find((c) => c.id === id);
   const acc = row("accuracy");
   const diss = row("dissipation") ?? row("junction-temperature");
   const pm = loop?.phaseMarginDeg ?? null;
   const os = m ? m.overshootPct : null;
+  const nCross = loop?.crossovers.length ?? 0;
   return [
     {
-      id: "phase-margin", label: "Phase margin",
+      id: "phase-margin", label: "Phase margin (current loop)",
       value: pm === null ? (loop ? "no crossover" : "—") : `${pm.toFixed(1)}°`,
-      verdict: phaseMarginVerdict(pm), hint: "pass ≥ 45°, warn ≥ 30°",
+      verdict: phaseMarginVerdict(pm),
+      hint: loop?.local?.phaseMarginDeg != null
+        ? `local op-amp loop ${loop.local.phaseMarginDeg.toFixed(1)}°; pass ≥ ${PHASE_MARGIN_PASS_DEG}°`
+        : `pass ≥ ${PHASE_MARGIN_PASS_DEG}°, warn ≥ ${PHASE_MARGIN_WARN_DEG}°`,
     },
     {
       id: "crossover", label: "Crossover",
       value: loop?.crossoverHz != null ? formatEng(loop.crossoverHz, "Hz") : "—",
-      verdict: loop ? (loop.crossoverHz !== null ? "pass" : "warn") : null,
-      hint: loop?.gainMarginDb != null ? `gain margin ${loop.gainMarginDb.toFixed(1)} dB` : "where |T| = 1",
+      verdict: null,
+      hint: nCross > 1
+        ? `|T| = 1 at ${nCross} frequencies; shown: the one with the least margin`
+        : "where the current loop's |T| = 1",
+    },
+    {
+      id: "gain-margin", label: "Gain margin",
+      value: loop ? (loop.gainMarginDb === null ? "no −180° crossing" : `${loop.gainMarginDb.toFixed(1)} dB`) : "—",
+      verdict: gainMarginVerdict(loop?.gainMarginDb ?? null),
+      hint: `−|T| where ∠T = −180°; pass ≥ ${GAIN_MARGIN_PASS_DB} dB`,
+    },
+    {
+      id: "modulus-margin", label: "Modulus margin",
+      value: loop ? loop.modulusMargin.toFixed(2) : "—",
+      verdict: modulusMarginVerdict(loop?.modulusMargin ?? null),
+      hint: loop ? `min |1 + T| at ${formatEng(loop.modulusMarginHz, "Hz")}; pass ≥ ${MODULUS_MARGIN_PASS}` : "min |1 + T|",
     },
     {
       id: "overshoot", label: "Overshoot",
       value: os === null ? "—" : `${os.toFixed(1)} %`,
-      verdict: os === null ? null : os <= maxOvershootPct ? "pass" : os <= 2 * maxOvershootPct + 5 ? "warn" : "fail",
-      hint: `target ≤ ${maxOvershootPct} %`,
+      verdict: overshootVerdict(os, maxOvershootPct),
+      hint: small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
     },
     {
       id: "settling", label: "Settling (±1 %)",
-      value: m?.settlingTime1pct != null ? formatEng(m.settlingTime1pct, "s") : m ? "not settled" : "—",
-      verdict: m ? (m.settlingTime1pct === null ? "fail" : m.settlingTime01pct === null ? "warn" : "pass") : null,
+      value: m?.settlingTime1pct != null ? formatEng(m.settlingTime1pct, "s") : m ? "not within the record" : "—",
+      verdict: settlingVerdict(m),
       hint: m?.settlingTime01pct != null ? `±0.1 %: ${formatEng(m.settlingTime01pct, "s")}` : "±0.1 %: not within the record",
     },
     {
@@ -157,32 +178,19 @@ export function CautionsList() {
 }
 
 /**
- * A short note when the headline figures seem to disagree: phase margin (small-signal, at one crossover) passes while
- * the step's overshoot fails, or the other way round. Both are right about what they measure; the note says why.
+ * When the figures could be read as disagreeing — several 0 dB crossings, a local loop with less margin than the
+ * current loop, a large-signal step unlike the linearised one — say what was measured (lib/design/explain.ts).
  */
 export function VerdictNote() {
   const current = useWb((s) => s.run.current);
-  const maxOs = useWb((s) => s.scenario.studies.compensate.maxOvershootPct);
-  const list = headlines(current, maxOs);
-  const pm = list.find((h) => h.id === "phase-margin")?.verdict ?? null;
-  const os = list.find((h) => h.id === "overshoot")?.verdict ?? null;
-  if (!pm || !os) return null;
-  let text: string | null = null;
-  if (pm === "pass" && os !== "pass") {
-    text =
-      "Phase margin passes but overshoot does not. Phase margin reads the small-signal loop at one frequency, where |T| = 1. " +
-      "The step is a large signal: the op-amp can slew or reach its rail, the pass device can leave its linear region, " +
-      "and the loop gain can come close to 0 dB again at other frequencies (see Loop gain). The step response is what the load gets — design to it.";
-  } else if (pm === "fail" && os === "pass") {
-    text =
-      "Overshoot passes but phase margin does not. This step may be too small or too slow to excite the loop's resonance, " +
-      "or a rail clips the ringing; another load or command step can ring. Treat the low phase margin as real.";
-  }
-  if (!text) return null;
+  const scenario = useWb((s) => s.scenario);
+  const step = current?.step ?? null;
+  const notes = explainFigures(scenario, current?.loop ?? null, current?.loop?.local ?? null, step);
+  if (notes.length === 0) return null;
   return (
-    <p role="note" className="rounded border border-hairline bg-white px-3 py-2 text-[12px] leading-snug text-ink" data-testid="verdict-note">
-      <span className="font-semibold">Why the figures disagree: </span>
-      {text}
-    </p>
+    <div role="note" className="space-y-1 rounded border border-hairline bg-white px-3 py-2 text-[12px] leading-snug text-ink" data-testid="verdict-note">
+      <p className="font-semibold">Why the figures disagree</p>
+      {notes.map((n) => <p key={n}>{n}</p>)}
+    </div>
   );
 }

@@ -14,6 +14,9 @@ import { LoadSupplyPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } fro
 import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
+import type { Marker } from "@/components/plots/UPlotChart";
+import type { LiveResult } from "@/lib/workbench/types";
+import { formatEng } from "@/lib/units/eng";
 import { downloadText } from "@/components/plots/ExportMenu";
 import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
@@ -132,6 +135,15 @@ function RunError() {
   );
 }
 
+/** Closed-loop markers: the −3 dB bandwidth and, where the response rises above its low-frequency gain, the peak. */
+function closedMarkers(closed: LiveResult["closed"]): Marker[] | undefined {
+  if (!closed) return undefined;
+  const m: Marker[] = [];
+  if (closed.bandwidthHz !== null) m.push({ x: closed.bandwidthHz, label: `−3 dB ${formatEng(closed.bandwidthHz, "Hz")}`, color: "#0F766E" });
+  if (closed.peakingHz !== null && closed.peakingDb >= 0.1) m.push({ x: closed.peakingHz, label: `peaking ${closed.peakingDb.toFixed(1)} dB`, color: "#B45309" });
+  return m;
+}
+
 function ResponseZone() {
   const current = useWb((s) => s.run.current);
   const previous = useWb((s) => s.run.previous);
@@ -140,7 +152,8 @@ function ResponseZone() {
     <div className="space-y-2">
       <RunError />
       <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} />
-      <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB" />
+      <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB"
+        second={current?.loop?.local !== undefined && current?.loop?.local !== null ? { label: "local op-amp loop", bode: current.loop.local } : null} />
       <div>
         <div role="tablist" aria-label="More responses" className="flex gap-1">
           {([["closed", "Closed loop"], ["zout", "Output impedance"]] as const).map(([k, label]) => (
@@ -160,7 +173,7 @@ function ResponseZone() {
         <div role="tabpanel">
           {tab === "closed" ? (
             <BodePlot id="closed" title="Closed loop" bode={current?.closed ?? null} ghost={previous?.closed ?? null} magUnit="dB(A/V)" height={130}
-              extraMarkers={current?.closed?.bandwidthHz != null ? [{ x: current.closed.bandwidthHz, label: "−3 dB", color: "#0F766E" }] : undefined} />
+              extraMarkers={closedMarkers(current?.closed ?? null)} />
           ) : (
             <BodePlot id="zout" title="Output impedance" bode={current?.zout ?? null} ghost={previous?.zout ?? null} magUnit="dBΩ" height={130} />
           )}

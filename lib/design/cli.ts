@@ -9,7 +9,7 @@
 import { readFileSync } from "node:fs";
 import { isSimError } from "../sim";
 import { runChecks } from "./checks";
-import { runClosedLoop, runDcTransfer, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "./run";
+import { runClosedLoop, runDcTransfer, runLoopGain, runOperatingPoint, runOutputImpedance, runSmallSignalStep, runStep } from "./run";
 import { ScenarioError } from "./schema";
 import { compensate, map2d, spread, sweep1d, worstCaseCorners } from "./studies";
 import { upgradeScenario } from "./upgrade";
@@ -77,7 +77,11 @@ export async function main(argv: string[]): Promise<number> {
     switch (study) {
       case "op": result = runOperatingPoint(s, options); break;
       case "loopgain": result = runLoopGain(s, options); break;
-      case "step": result = runStep(s, options); break;
+      case "step": {
+        const step = runStep(s, options);
+        result = { ...step, smallSignal: runSmallSignalStep(s, options, step.metrics.initial) };
+        break;
+      }
       case "checks": {
         let op;
         try { op = runOperatingPoint(s, options).op; } catch (e) { if (!isSimError(e)) throw e; }

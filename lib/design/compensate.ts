@@ -61,7 +61,7 @@ export function compensateScan(s: Scenario, settings: CompensateSettings, opts: 
     let minPm = Infinity;
     for (const corner of corners) {
       try {
-        const pm = runLoopGain(applyCandidate(corner, cands[i]), engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg;
+        const pm = runLoopGain(applyCandidate(corner, cands[i]), engineOptions(opts), { pointsPerDecade: 10 }, false).phaseMarginDeg;
         minPm = Math.min(minPm, pm ?? NaN);
       } catch (e) {
         if (isSimError(e) && e.code === "cancelled") throw e;
@@ -75,6 +75,82 @@ export function compensateScan(s: Scenario, settings: CompensateSettings, opts: 
   return rows;
 }
 
+/**
+ * The smallest index j in [0, n) with meets(j), for a predicate that holds from some index on but may fail again
+ * near the end (overshoot falls with capacitance until the loop gets too slow, then wind-up brings it back): probe
+ * about eight indices spread over the range, then bisect between the last failing probe and the first that meets.
+ * Returns −1 when no probe meets.
+ */
+export function probeAndBisect(n: number, meets: (j: number) => boolean): number {
+  if (n <= 0) return -1;
+  const stride = Math.max(1, Math.ceil(n / 8));
+  const probes: number[] = [];
+  for (let j = 0; j < n; j += stride) probes.push(j);
+  if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
+  let lo = -1, hi = -1;
+  for (let j = 0; j < probes.length; j++) {
+    if (meets(probes[j])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
+  }
+  if (hi < 0) return -1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (meets(mid)) hi = mid; else lo = mid;
+  }
+  return hi;
+}
+
+/** The chosen design's figures re-computed at full resolution (20 points per decade, every load corner). */
+export interface CompensateCheck {
+  minPhaseMarginDeg: number;
+  worstOvershootPct: number;
+  worstSettlingTime1pct: number;
+  /** whether the re-run still meets both targets */
+  meetsTargets: boolean;
+}
+
+/** Re-run the chosen design: the current loop's gain at the full frequency resolution and the step at every corner. */
+export function checkChoice(s: Scenario, c: CompensateCandidate, settings: CompensateSettings, opts: StudyOptions = {}): CompensateCheck {
+  let pm = Infinity, os = 0, ts = 0;
+  for (const corner of loadCorners(s)) {
+    const v = applyCandidate(corner, c);
+    pm = Math.min(pm, runLoopGain(v, engineOptions(opts), {}, false).phaseMarginDeg ?? NaN);
+    const m = runStep(v, engineOptions(opts)).metrics;
+    os = Math.max(os, m.overshootPct);
+    ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
+  }
+  return {
+    minPhaseMarginDeg: pm, worstOvershootPct: os, worstSettlingTime1pct: ts,
+    meetsTargets: pm >= settings.targetPhaseMarginDeg && os <= settings.maxOvershootPct && Number.isFinite(ts),
+  };
+}
+
+function describe(best: NonNullable<CompensateResult["chosen"]>, settings: CompensateSettings, tried: number): string {
+  const what = `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}`;
+  const figures = `current-loop phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${Number.isFinite(best.worstSettlingTime1pct) ? formatEng(best.worstSettlingTime1pct, "s") : "— (not within the record)"}`;
+  const check = best.check
+    ? best.check.meetsTargets
+      ? " Re-run of the chosen design confirms these figures."
+      : ` Re-run of the chosen design at full resolution: phase margin ${best.check.minPhaseMarginDeg.toFixed(1)}°, overshoot ${best.check.worstOvershootPct.toFixed(2)} % — it misses a target; treat the choice as a starting point.`
+    : "";
+  return `${what}: ${figures} (${tried} candidate${tried === 1 ? "" : "s"} tried).${check}`;
+}
+
+/** Fill in `chosen.check` and the figures it confirms (the re-run's, which are at full resolution). */
+function confirm(s: Scenario, best: NonNullable<CompensateResult["chosen"]>, settings: CompensateSettings, opts: StudyOptions): void {
+  try {
+    const check = checkChoice(s, best, settings, opts);
+    best.check = check;
+    best.minPhaseMarginDeg = check.minPhaseMarginDeg;
+    best.worstOvershootPct = check.worstOvershootPct;
+    best.worstSettlingTime1pct = check.worstSettlingTime1pct;
+    best.phaseMarginToSpareDeg = check.minPhaseMarginDeg - settings.targetPhaseMarginDeg;
+    best.overshootToSparePct = settings.maxOvershootPct - check.worstOvershootPct;
+  } catch (e) {
+    if (!isSimError(e) || e.code === "cancelled") throw e;
+    best.check = null;
+  }
+}
+
 export interface CompensateResult {
   chosen: (CompensateCandidate & {
     minPhaseMarginDeg: number;
@@ -82,6 +158,8 @@ export interface CompensateResult {
     worstSettlingTime1pct: number;
     phaseMarginToSpareDeg: number;
     overshootToSparePct: number;
+    /** the re-run of the chosen design (null when it could not be re-run); the figures above are the re-run's */
+    check: CompensateCheck | null;
   }) | null;
   /** every candidate's phase margin, and the step metrics of those that were simulated */
   scanned: CompensateScanRow[];
@@ -128,22 +206,8 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
   };
   let best: CompensateResult["chosen"] = null;
   if (passing.length > 0) {
-    // Overshoot falls with capacitance until the loop gets too slow (then wind-up brings it back), so first probe
-    // about eight values spread over the list, then bisect between the last failing probe and the first that meets.
-    const n = passing.length;
-    const stride = Math.max(1, Math.ceil(n / 8));
-    const probes: number[] = [];
-    for (let k = 0; k < n; k += stride) probes.push(k);
-    if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
-    let lo = -1, hi = -1;
-    for (let j = 0; j < probes.length; j++) {
-      if (meets(probes[j])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
-    }
+    const hi = probeAndBisect(passing.length, meets);
     if (hi >= 0) {
-      while (hi - lo > 1) {
-        const mid = (lo + hi) >> 1;
-        if (meets(mid)) hi = mid; else lo = mid;
-      }
       for (let k = hi; k < Math.min(passing.length, hi + 1 + extra); k++) {
         const m = measure(k);
         if (!m || m.os > settings.maxOvershootPct) continue;
@@ -157,14 +221,16 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
             worstSettlingTime1pct: m.ts,
             phaseMarginToSpareDeg: cand.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
             overshootToSparePct: settings.maxOvershootPct - m.os,
+            check: null,
           };
         }
       }
     }
   }
   stepped.sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
+  if (best) confirm(s, best, settings, opts);
   const message = best
-    ? `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${formatEng(best.worstSettlingTime1pct, "s")}.`
+    ? describe(best, settings, rows.length)
     : passing.length === 0
       ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
       : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
@@ -229,19 +295,8 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
   cands.forEach((c, k) => groups.set(c.baseResistor, [...(groups.get(c.baseResistor) ?? []), k]));
   for (const idx of groups.values()) {
     const n = idx.length;
-    const stride = Math.max(1, Math.ceil(n / 8));
-    const probes: number[] = [];
-    for (let j = 0; j < n; j += stride) probes.push(j);
-    if (probes[probes.length - 1] !== n - 1) probes.push(n - 1);
-    let lo = -1, hi = -1;
-    for (let j = 0; j < probes.length; j++) {
-      if (meets(idx[probes[j]])) { hi = probes[j]; lo = j > 0 ? probes[j - 1] : -1; break; }
-    }
+    const hi = probeAndBisect(n, (j) => meets(idx[j]));
     if (hi < 0) continue;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (meets(idx[mid])) hi = mid; else lo = mid;
-    }
     for (let j = hi; j < Math.min(n, hi + 1 + extra); j++) {
       const k = idx[j];
       if (!meets(k)) continue;
@@ -256,6 +311,7 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
           worstSettlingTime1pct: m.ts,
           phaseMarginToSpareDeg: row.minPhaseMarginDeg - settings.targetPhaseMarginDeg,
           overshootToSparePct: settings.maxOvershootPct - m.os,
+          check: null,
         };
       }
     }
@@ -267,8 +323,9 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
     .map(([k, m]) => ({ compCapacitor: cands[k].compCapacitor, baseResistor: cands[k].baseResistor, worstOvershootPct: m.os, worstSettlingTime1pct: m.ts }))
     .sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   const anyPm = rows.some((r) => Number.isFinite(r.minPhaseMarginDeg) && r.minPhaseMarginDeg >= settings.targetPhaseMarginDeg);
+  if (best) confirm(s, best, settings, opts);
   const message = best
-    ? `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}: phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range; settles to ±1 % in ${formatEng(best.worstSettlingTime1pct, "s")}.`
+    ? describe(best, settings, rows.length)
     : !anyPm
       ? `No ${settings.series} value from 10 pF to 100 nF that was tried reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
       : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;

@@ -20,7 +20,19 @@ export interface CompileOptions {
   sweepPoints?: number;
   /** transient: suggested output step, s */
   tStep?: number;
+  /** transient: largest internal step, s (default stopTime/200) */
+  maxStep?: number;
+  /**
+   * loop gain: which loop the probe breaks. "current" (default) cuts the wire from the op-amp's output node to the
+   * base/gate resistor, which only the current loop passes through (the compensation capacitor's local loop around
+   * the op-amp stays closed); "local" cuts the op-amp's output pin, which every loop passes through. For the
+   * improved Howland pump every loop passes through the output pin, so both name that break.
+   */
+  loop?: LoopName;
 }
+
+/** The loops a loop-gain probe can break (see CompileOptions.loop). */
+export type LoopName = "current" | "local";
 
 export const NAMES = {
   command: "VCMD",
@@ -34,6 +46,8 @@ export const NAMES = {
   sense: "RSENSE",
   nodeOpampOut: "oa",
   nodeOpampPin: "oa_i",
+  /** the base/gate resistor's op-amp-side end when the current loop is probed */
+  nodeDrive: "oa_r",
   nodePass: "c",
   nodeCommand: "cmd",
 } as const;
@@ -159,7 +173,7 @@ function opamp(b: Builder, inp: string, inn: string): void {
     supplySource(b, "VEE", "vee", s.supplies.opampNegative, false);
     vee = "vee";
   }
-  const probed = purpose === "loopgain-v" || purpose === "loopgain-i";
+  const probed = probedLoop(b) === "local";
   const pin = probed ? NAMES.nodeOpampPin : NAMES.nodeOpampOut;
   add(b, {
     kind: "opamp",
@@ -170,11 +184,38 @@ function opamp(b: Builder, inp: string, inn: string): void {
       swingHigh: o.swingHigh, swingLow: o.swingLow, Iout: o.Iout,
     },
   });
-  if (probed) {
-    // Series voltage probe: v(oa) = v(oa_i) + Vi; shunt current probe injects into "oa".
-    add(b, { kind: "vsource", name: NAMES.probeV, nodes: [NAMES.nodeOpampOut, NAMES.nodeOpampPin], dc: 0, ac: purpose === "loopgain-v" ? 1 : 0 });
-    add(b, { kind: "isource", name: NAMES.probeI, nodes: ["0", NAMES.nodeOpampOut], dc: 0, ac: purpose === "loopgain-i" ? 1 : 0 });
+  if (probed) probe(b, NAMES.nodeOpampPin, NAMES.nodeOpampOut);
+}
+
+/** Which loop this netlist probes (null: no probe). The Howland pump's loops all pass through the output pin. */
+function probedLoop(b: Builder): LoopName | null {
+  if (b.purpose !== "loopgain-v" && b.purpose !== "loopgain-i") return null;
+  if (b.s.template === "howland") return "local";
+  return b.opts.loop ?? "current";
+}
+
+/**
+ * Two-injection probe in the wire from `driver` to `driven`: a series voltage source, v(driven) = v(driver) + Vi,
+ * and a shunt current source injecting into `driven`.
+ */
+function probe(b: Builder, driver: string, driven: string): void {
+  add(b, { kind: "vsource", name: NAMES.probeV, nodes: [driven, driver], dc: 0, ac: b.purpose === "loopgain-v" ? 1 : 0 });
+  add(b, { kind: "isource", name: NAMES.probeI, nodes: ["0", driven], dc: 0, ac: b.purpose === "loopgain-i" ? 1 : 0 });
+}
+
+/** Node where the probe's injections are read: the driven side of the break. */
+export function probeNode(s: Scenario, loop: LoopName): string {
+  return s.template !== "howland" && loop === "current" ? NAMES.nodeDrive : NAMES.nodeOpampOut;
+}
+
+/** The base/gate resistor from the op-amp's output; with the current loop probed, the probe sits in front of it. */
+function driveResistor(b: Builder): void {
+  let from: string = NAMES.nodeOpampOut;
+  if (probedLoop(b) === "current") {
+    probe(b, NAMES.nodeOpampOut, NAMES.nodeDrive);
+    from = NAMES.nodeDrive;
   }
+  res(b, "RBASE", from, "b", b.s.parts.baseResistor);
 }
 
 function bjtModel(s: Scenario, scale = 1): Record<string, number | null> {
@@ -272,7 +313,7 @@ function buildSink(b: Builder): void {
   if (p.dividerTop > 0) res(b, "RDIVT", NAMES.nodeCommand, "ref", p.dividerTop);
   res(b, "RDIVB", ref, "0", p.dividerBottom);
   opamp(b, ref, "inv");
-  res(b, "RBASE", NAMES.nodeOpampOut, "b", p.baseResistor);
+  driveResistor(b);
   if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
   res(b, "RFB", "e", "inv", p.feedbackResistor);
   res(b, NAMES.sense, "e", "0", p.senseResistor);
@@ -301,7 +342,7 @@ function buildHighSide(b: Builder): void {
   res(b, "RDIVB", "vs", ref, p.dividerBottom);
   res(b, "RDIVT", ref, NAMES.nodeCommand, Math.max(p.dividerTop, 1e-3));
   opamp(b, ref, "inv");
-  res(b, "RBASE", NAMES.nodeOpampOut, "b", p.baseResistor);
+  driveResistor(b);
   if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
   res(b, "RFB", "e", "inv", p.feedbackResistor);
   res(b, NAMES.sense, "vs", "e", p.senseResistor);
@@ -342,7 +383,7 @@ function analysisFor(s: Scenario, purpose: CompilePurpose, opts: CompileOptions)
       // At most tStop/200 per step: enough points for the plot; the truncation-error control refines edges and ringing
       // (against tStop/500 on the templates and demos: rise, overshoot and ±1 % settling within 0.5 %, ±0.1 %
       // settling within 5 %, at about half the steps).
-      return { kind: "tran", tStop: t, tStep: opts.tStep ?? t / 2000, maxStep: t / 200, start: "op" };
+      return { kind: "tran", tStop: t, tStep: opts.tStep ?? t / 2000, maxStep: opts.maxStep ?? t / 200, start: "op" };
     }
     default: {
       const fStop = opts.fStop ?? Math.max(AC_DEFAULT.fStop, 10 * s.opamp.GBW);

@@ -18,10 +18,15 @@ export interface StepMetrics {
   /** time from the step after which the response stays within ±1 % / ±0.1 % of the step around the final value, s */
   settlingTime1pct: number | null;
   settlingTime01pct: number | null;
+  /** false when the response has not settled within ±1 % by the end of the record (settlingTime1pct is then null) */
+  settled: boolean;
   /** final minus target, as a fraction of the target (null without a target) */
   steadyStateError: number | null;
   ringing: RingingEstimate;
 }
+
+/** Largest lift of an interpolated peak above the computed sample, as a fraction of the step (the engine's reltol). */
+const PEAK_LIFT_LIMIT = 1e-3;
 
 function crossing(t: ArrayLike<number>, y: ArrayLike<number>, from: number, level: number, rising: boolean): number | null {
   for (let i = Math.max(1, from); i < y.length; i++) {
@@ -80,7 +85,10 @@ export function stepMetrics(
     frequencyHz: null, dampingRatio: null, peakSpacingHz: null, logDecrementDamping: null, fftHz: null, pencilHz: null, pencilDamping: null,
   };
   if (step === 0 || !Number.isFinite(step)) {
-    return { initial, final, riseTime: null, overshootPct: 0, peakTime: null, settlingTime1pct: 0, settlingTime01pct: 0, steadyStateError, ringing: emptyRinging };
+    return {
+      initial, final, riseTime: null, overshootPct: 0, peakTime: null, settlingTime1pct: 0, settlingTime01pct: 0, settled: true, steadyStateError,
+      ringing: emptyRinging,
+    };
   }
   const t10 = crossing(t, y, i0, initial + 0.1 * step, rising);
   const t90 = crossing(t, y, i0, initial + 0.9 * step, rising);
@@ -101,7 +109,11 @@ export function stepMetrics(
       const tv = (ta + tb) / 2 - d1 / (2 * curv);
       if (tv > ta && tv < tc) {
         peakT = tv;
-        peakValue = a + d1 * (tv - ta) + curv * (tv - ta) * (tv - tb);
+        // The parabola may not raise the peak above the computed sample by more than the integrator's own relative
+        // tolerance (1e-3 of the step): a larger lift would be invented, not measured.
+        const lift = a + d1 * (tv - ta) + curv * (tv - ta) * (tv - tb) - b;
+        const cap = PEAK_LIFT_LIMIT * Math.abs(step);
+        peakValue = b + Math.max(-cap, Math.min(cap, lift));
       }
     }
   }
@@ -111,7 +123,10 @@ export function stepMetrics(
   const settlingTime1pct = settleTime(t, y, i0, final, 0.01 * band, tStep);
   const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * band, tStep);
   const ringing = overshootPct > 0.05 ? estimateRinging(t, y, final, peakT) : emptyRinging;
-  return { initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, steadyStateError, ringing };
+  return {
+    initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, settled: settlingTime1pct !== null, steadyStateError,
+    ringing,
+  };
 }
 
 /**
@@ -126,7 +141,7 @@ export function disturbanceMetrics(
   opts: { initial?: number; final?: number; target?: number } = {},
 ): StepMetrics {
   const n = t.length;
-  if (n < 3 || y.length !== n) throw new RangeError("stepMetrics needs matching time and value arrays of 3 or more samples");
+  if (n < 3 || y.length !== n) throw new RangeError("disturbanceMetrics needs matching time and value arrays of 3 or more samples");
   let i0 = 0;
   while (i0 < n - 1 && t[i0] < tStep) i0++;
   const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
@@ -154,6 +169,7 @@ export function disturbanceMetrics(
     peakTime: deviation > 0 ? t[ip] - tStep : null,
     settlingTime1pct,
     settlingTime01pct,
+    settled: settlingTime1pct !== null,
     steadyStateError: opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null,
     ringing,
   };
@@ -179,9 +195,14 @@ export interface LoopMetrics {
   phaseDeg: Float64Array;
   phaseMarginDeg: number | null;
   gainMarginDb: number | null;
+  /** the gain crossover the phase margin is taken at (the one with the smallest margin), Hz */
   crossoverHz: number | null;
-  /** frequency where the phase reaches −180°, Hz */
+  /** every |T| = 1 crossing, Hz, in rising frequency (more than one: the magnitude dips back through 0 dB) */
+  crossovers: number[];
+  /** frequency of the −180° crossing the gain margin is taken at, Hz */
   phaseCrossoverHz: number | null;
+  /** every frequency where ∠T passes through −180° (mod 360°), Hz */
+  phaseCrossovers: number[];
   /**
    * modulus (stability) margin: the smallest distance of T(jω) from −1, min |1 + T| (1 = far, 0 = oscillating),
    * and where it occurs. It catches what a single crossover misses, e.g. a notch that almost touches 0 dB.
@@ -196,8 +217,10 @@ function logInterp(f: Float64Array, i: number, frac: number): number {
 
 /**
  * Margins of a loop gain T(jω) (T > 0 at low frequency for negative feedback; the closed loop is 1/(1+T)-shaped).
- * PM = 180° + ∠T (wrapped to (−180°, 180°]) at the |T| = 1 crossing where it is smallest; GM = −|T|dB where ∠T
- * first reaches −180°.
+ * Every |T| = 1 crossing is a gain crossover: PM = 180° + ∠T (wrapped to [−180°, 180°)) at each, the smallest
+ * reported with the crossover it occurs at. Every passage of ∠T through −180° (mod 360°) is a phase crossover:
+ * GM = −|T|dB at each, the one nearest 0 dB reported (a negative value: the gain would have to fall that much for
+ * the loop to oscillate — a conditionally stable loop). Modulus margin: min |1 + T| over the sweep.
  */
 export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Array): LoopMetrics {
   const n = freq.length;
@@ -217,26 +240,36 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
   // the margin that matters is the smallest one, and the crossover reported is where it occurs (common practice).
   let crossoverHz: number | null = null;
   let phaseMarginDeg: number | null = null;
+  const crossovers: number[] = [];
   for (let i = 1; i < n; i++) {
     if ((magDb[i - 1] >= 0) === (magDb[i] >= 0)) continue;
     const frac = magDb[i - 1] / (magDb[i - 1] - magDb[i]);
     const ph = phaseDeg[i - 1] + frac * (phaseDeg[i] - phaseDeg[i - 1]);
+    const f = logInterp(freq, i, frac);
+    crossovers.push(f);
     // Margin from the nearest −180° (mod 360°), so an unwrapped phase below −180° gives a negative margin.
     // 180° + ∠T wrapped into [−180°, 180°): an unwrapping jump of 360° across a notch must not inflate the margin.
     const margin = ((((180 + ph) % 360) + 540) % 360) - 180;
     if (phaseMarginDeg === null || margin < phaseMarginDeg) {
       phaseMarginDeg = margin;
-      crossoverHz = logInterp(freq, i, frac);
+      crossoverHz = f;
     }
   }
   let gainMarginDb: number | null = null;
   let phaseCrossoverHz: number | null = null;
+  const phaseCrossovers: number[] = [];
   for (let i = 1; i < n; i++) {
-    if (phaseDeg[i - 1] > -180 && phaseDeg[i] <= -180) {
-      const frac = (phaseDeg[i - 1] + 180) / (phaseDeg[i - 1] - phaseDeg[i]);
-      phaseCrossoverHz = logInterp(freq, i, frac);
-      gainMarginDb = -(magDb[i - 1] + frac * (magDb[i] - magDb[i - 1]));
-      break;
+    // the odd multiple of 180° between the two samples, if any: ∠T passes through −180° (mod 360°) there
+    const lo = Math.min(phaseDeg[i - 1], phaseDeg[i]), hi = Math.max(phaseDeg[i - 1], phaseDeg[i]);
+    const level = 360 * Math.ceil((lo - 180) / 360) + 180;
+    if (!(level > lo && level <= hi) || phaseDeg[i - 1] === phaseDeg[i]) continue;
+    const frac = (phaseDeg[i - 1] - level) / (phaseDeg[i - 1] - phaseDeg[i]);
+    const f = logInterp(freq, i, frac);
+    const gm = -(magDb[i - 1] + frac * (magDb[i] - magDb[i - 1]));
+    phaseCrossovers.push(f);
+    if (gainMarginDb === null || Math.abs(gm) < Math.abs(gainMarginDb)) {
+      gainMarginDb = gm;
+      phaseCrossoverHz = f;
     }
   }
   let modulusMargin = Infinity, modulusMarginHz = NaN;
@@ -244,7 +277,9 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
     const d = Math.hypot(1 + re[i], im[i]);
     if (d < modulusMargin) { modulusMargin = d; modulusMarginHz = freq[i]; }
   }
-  return { magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, phaseCrossoverHz, modulusMargin, modulusMarginHz };
+  return {
+    magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, crossovers, phaseCrossoverHz, phaseCrossovers, modulusMargin, modulusMarginHz,
+  };
 }
 
 /** −3 dB bandwidth relative to the first (lowest-frequency) point, Hz; null if it never drops that far. */

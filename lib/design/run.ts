@@ -4,7 +4,9 @@
  * (time budget, shouldStop, onProgress) and throws the engine's SimError when a run fails.
  */
 import { compile, simulate, type AcResult, type DcSweepResult, type Netlist, type OpResult, type SimOptions, type TranResult } from "../sim";
-import { NAMES, compileNetlistJson, idealTransconductance, operatingCommand, type CompileOptions, type CompilePurpose } from "./compile";
+import {
+  NAMES, compileNetlistJson, idealTransconductance, operatingCommand, probeNode, type CompileOptions, type CompilePurpose, type LoopName,
+} from "./compile";
 import { bandwidth3dB, loopMetrics, stepMetrics, unwrapDeg, type LoopMetrics, type StepMetrics } from "./metrics";
 import type { Scenario } from "./schema";
 import { fullScaleCurrent } from "./checks";
@@ -94,26 +96,100 @@ function commandSeries(s: Scenario, r: TranResult): Float64Array {
   return out;
 }
 
-/** Transient of the scenario's stimulus; metrics of the load current around the step. */
-export function runStep(s: Scenario, options: SimOptions = {}): StepResult {
-  const r = simulate(compileNetlist(s, "step"), options);
-  expect(r, "tran");
-  const tr = r as TranResult;
-  const iLoad = tr.currents[NAMES.ammeter];
+/** Samples per ringing period the step's peak is resolved with (a peak between samples is then within ~0.2 %). */
+const PEAK_SAMPLES_PER_PERIOD = 60;
+
+function stepSeries(s: Scenario, tr: TranResult): StepResult["series"] {
+  return {
+    iLoad: tr.currents[NAMES.ammeter], vCommand: commandSeries(s, tr), vOpampOut: tr.nodes[NAMES.nodeOpampOut], vPass: tr.nodes[NAMES.nodePass],
+  };
+}
+
+function metricsOf(s: Scenario, time: Float64Array, iLoad: Float64Array): StepMetrics {
   const st = s.stimulus;
   // Every stimulus ends at the high command: the ideal final current is the same for all of them.
   const target = idealTransconductance(s) * st.commandHigh;
   const disturbance = st.kind === "load-step" || st.kind === "supply-step";
-  const metrics = stepMetrics(tr.time, iLoad, st.stepTime, { target, disturbance });
-  return {
-    time: tr.time,
-    series: { iLoad, vCommand: commandSeries(s, tr), vOpampOut: tr.nodes[NAMES.nodeOpampOut], vPass: tr.nodes[NAMES.nodePass] },
-    metrics,
-    stats: tr.stats,
-  };
+  return stepMetrics(time, iLoad, st.stepTime, { target, disturbance });
 }
 
-export interface LoopGainResult extends LoopMetrics {
+/**
+ * The record's steps follow the truncation-error control, which may leave a ringing peak only a few samples per
+ * period: the sampled maximum then sits below the true peak and a parabola through it can overshoot it. Where the
+ * samples around the peak are coarser than 1/PEAK_SAMPLES_PER_PERIOD of the ringing period (taken from the ringing
+ * estimate, else as twice the peak time), the window from the step to one period past the peak is simulated again
+ * with the step limited to that fraction (the circuit is time-invariant and starts from its operating point, so the
+ * step is moved close to t = 0 to save the quiet lead-in), and those samples replace the coarse ones.
+ */
+function refinePeak(s: Scenario, tr: TranResult, m: StepMetrics, options: SimOptions): { time: Float64Array; series: StepResult["series"] } | null {
+  if (m.peakTime === null || m.peakTime <= 0) return null;
+  const st = s.stimulus;
+  const period = m.ringing.frequencyHz ? 1 / m.ringing.frequencyHz : 2 * m.peakTime;
+  const tPeak = st.stepTime + m.peakTime;
+  const t = tr.time;
+  let ip = 0;
+  while (ip < t.length - 1 && t[ip] < tPeak) ip++;
+  const spacing = Math.max(t[Math.min(ip + 1, t.length - 1)] - t[ip], t[ip] - t[Math.max(ip - 1, 0)]);
+  const fine = period / PEAK_SAMPLES_PER_PERIOD;
+  if (!(spacing > 1.5 * fine)) return null;
+  const lead = Math.min(st.stepTime, Math.max(10 * st.edgeTime, period / 4));
+  const shift = st.stepTime - lead;
+  const end = Math.min(st.stopTime, tPeak + period) - shift;
+  const w: Scenario = { ...s, stimulus: { ...st, stepTime: lead, stopTime: end } };
+  const r = simulate(compileNetlist(w, "step", { maxStep: fine, tStep: fine }), options);
+  expect(r, "tran");
+  const fineTr = r as TranResult;
+  const fineSeries = stepSeries(w, fineTr);
+  // Splice: coarse samples before the step and after the window, the fine ones (shifted back) in between.
+  const tFrom = st.stepTime, tTo = end + shift;
+  let a = 0;
+  while (a < t.length && t[a] < tFrom) a++;
+  let b = a;
+  while (b < t.length && t[b] <= tTo) b++;
+  let f0 = 0;
+  while (f0 < fineTr.time.length && fineTr.time[f0] + shift < tFrom) f0++;
+  const nf = fineTr.time.length - f0;
+  const n = a + nf + (t.length - b);
+  const time = new Float64Array(n);
+  const splice = (coarse: Float64Array, fineCol: Float64Array, out: Float64Array, offset: number) => {
+    out.set(coarse.subarray(0, a), 0);
+    for (let k = 0; k < nf; k++) out[a + k] = fineCol[f0 + k] + offset;
+    out.set(coarse.subarray(b), a + nf);
+  };
+  splice(t, fineTr.time, time, shift);
+  const coarse = stepSeries(s, tr);
+  const series = {} as StepResult["series"];
+  for (const key of Object.keys(coarse) as (keyof StepResult["series"])[]) {
+    series[key] = new Float64Array(n);
+    splice(coarse[key], fineSeries[key], series[key], 0);
+  }
+  return { time, series };
+}
+
+/**
+ * Transient of the scenario's stimulus; metrics of the load current around the step, with the peak resolved to a
+ * fraction of the ringing period (see refinePeak).
+ */
+export function runStep(s: Scenario, options: SimOptions = {}): StepResult {
+  const r = simulate(compileNetlist(s, "step"), options);
+  expect(r, "tran");
+  const tr = r as TranResult;
+  let time = tr.time;
+  let series = stepSeries(s, tr);
+  let metrics = metricsOf(s, time, series.iLoad);
+  const refined = refinePeak(s, tr, metrics, options);
+  if (refined) {
+    time = refined.time;
+    series = refined.series;
+    metrics = metricsOf(s, time, series.iLoad);
+  }
+  return { time, series, metrics, stats: tr.stats };
+}
+
+/** One loop's gain T(jω) and its margins. */
+export interface LoopResult extends LoopMetrics {
+  /** which loop the probe broke (see CompileOptions.loop) */
+  loop: LoopName;
   freq: Float64Array;
   /** T(jω), real and imaginary parts */
   re: Float64Array;
@@ -121,10 +197,21 @@ export interface LoopGainResult extends LoopMetrics {
 }
 
 /**
- * Loop gain by the two-injection method (Tian et al. 2001; derivation in REFERENCES §4.2) at the op-amp's output
- * pin, the one wire every loop passes through. Probe: VPROBE in series (v(oa) = v(oa_i) + Vi) and IPROBE into
- * "oa". Run 1 (Vi = 1): v1 = v(oa). Run 2 (Ii = 1): i2 = current through VPROBE from oa_i to oa, which is minus
- * the engine's current (the engine counts it from nodes[0] = oa). Then T = −(v1 + i2)/(1 + v1 + i2).
+ * The loop gain result: the top-level figures are the current loop's (the loop that sets the load current's step
+ * response); `loops.local` is the op-amp's local loop (compensation capacitor, output pin break), null for the
+ * improved Howland pump (whose loops all pass through the output pin, so its one break is the current loop) or when
+ * it was not asked for.
+ */
+export interface LoopGainResult extends LoopResult {
+  loops: { current: LoopResult; local: LoopResult | null };
+}
+
+/**
+ * Loop gain by the two-injection method (Tian et al., IEEE Trans. CAS-I 48(9), 2001; derivation in
+ * docs/references.md §4.2). Probe: a series voltage source in the broken wire, v(driven) = v(driver) + Vi, and a
+ * current source into the driven side. Run 1 (Vi = 1): v1 = v(driven). Run 2 (Ii = 1): i2 = the current through the
+ * series source from the driver to the driven side, which is minus the engine's current (the engine counts it from
+ * nodes[0] = driven). Then T = −(v1 + i2)/(1 + v1 + i2).
  */
 export function tianLoopGain(v1re: number, v1im: number, i2re: number, i2im: number): [number, number] {
   const nr = v1re + i2re, ni = v1im + i2im;
@@ -140,8 +227,8 @@ export function tianLoopGain(v1re: number, v1im: number, i2re: number, i2im: num
  * Ii = 1 (IPROBE) — share the linearisation and each frequency's factorisation (engine runAcMulti). Same numbers as
  * two separate AC runs of the "loopgain-v" and "loopgain-i" netlists.
  */
-function loopGainRuns(s: Scenario, options: SimOptions, compileOpts: CompileOptions): { op: OpResult; a: AcResult; b: AcResult } {
-  const c = compile(compileNetlist(s, "loopgain-v", compileOpts));
+function loopGainRuns(s: Scenario, options: SimOptions, compileOpts: CompileOptions, loop: LoopName): { op: OpResult; a: AcResult; b: AcResult } {
+  const c = compile(compileNetlist(s, "loopgain-v", { ...compileOpts, loop }));
   const { op, results } = c.runAcMulti(
     [{ [NAMES.probeV]: { ac: 1 }, [NAMES.probeI]: { ac: 0 } }, { [NAMES.probeV]: { ac: 0 }, [NAMES.probeI]: { ac: 1 } }],
     options,
@@ -149,9 +236,9 @@ function loopGainRuns(s: Scenario, options: SimOptions, compileOpts: CompileOpti
   return { op, a: results[0], b: results[1] };
 }
 
-function loopGainFrom(a: AcResult, b: AcResult): LoopGainResult {
+function loopGainFrom(s: Scenario, loop: LoopName, a: AcResult, b: AcResult): LoopResult {
   const n = a.freq.length;
-  const v1 = a.nodes[NAMES.nodeOpampOut];
+  const v1 = a.nodes[probeNode(s, loop)];
   const ip = b.currents[NAMES.probeV];
   const re = new Float64Array(n), im = new Float64Array(n);
   for (let k = 0; k < n; k++) {
@@ -159,28 +246,43 @@ function loopGainFrom(a: AcResult, b: AcResult): LoopGainResult {
     re[k] = tr;
     im[k] = ti;
   }
-  const m = loopMetrics(a.freq, re, im);
-  return {
-    freq: a.freq, re, im, magDb: m.magDb, phaseDeg: m.phaseDeg,
-    phaseMarginDeg: m.phaseMarginDeg, gainMarginDb: m.gainMarginDb, crossoverHz: m.crossoverHz, phaseCrossoverHz: m.phaseCrossoverHz,
-    modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz,
-  };
+  return { loop, freq: a.freq, re, im, ...loopMetrics(a.freq, re, im) };
 }
 
-export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): LoopGainResult {
-  const { a, b } = loopGainRuns(s, options, compileOpts);
-  return loopGainFrom(a, b);
+/** Whether a template has a local op-amp loop distinct from the current loop. */
+export function hasLocalLoop(s: Scenario): boolean {
+  return s.template !== "howland";
+}
+
+function combine(current: LoopResult, local: LoopResult | null): LoopGainResult {
+  return { ...current, loops: { current, local } };
 }
 
 /**
- * Operating point and loop gain from one compile and one OP solve (what a Spread run needs). The OP is taken on the
- * probe netlist, whose probes carry nothing at DC; the summary reads the same nodes and devices as runOperatingPoint.
+ * Loop gain of the current loop (the headline) and, when `withLocal` (default), of the op-amp's local loop too.
+ * Studies that judge only the current loop pass `withLocal = false`.
+ */
+export function runLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}, withLocal = true): LoopGainResult {
+  const { a, b } = loopGainRuns(s, options, compileOpts, "current");
+  const current = loopGainFrom(s, "current", a, b);
+  let local: LoopResult | null = null;
+  if (withLocal && hasLocalLoop(s)) {
+    const l = loopGainRuns(s, options, compileOpts, "local");
+    local = loopGainFrom(s, "local", l.a, l.b);
+  }
+  return combine(current, local);
+}
+
+/**
+ * Operating point and the current loop's gain from one compile and one OP solve (what a Spread run needs). The OP is
+ * taken on the probe netlist, whose probes carry nothing at DC; the summary reads the same nodes and devices as
+ * runOperatingPoint.
  */
 export function runOperatingPointAndLoopGain(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): {
   op: OpResult; summary: OperatingPointSummary; loop: LoopGainResult;
 } {
-  const { op, a, b } = loopGainRuns(s, options, compileOpts);
-  return { op, summary: summarizeOp(s, op), loop: loopGainFrom(a, b) };
+  const { op, a, b } = loopGainRuns(s, options, compileOpts, "current");
+  return { op, summary: summarizeOp(s, op), loop: combine(loopGainFrom(s, "current", a, b), null) };
 }
 
 function magPhase(re: Float64Array, im: Float64Array, db: boolean): { mag: Float64Array; phaseDeg: Float64Array } {
@@ -194,16 +296,63 @@ function magPhase(re: Float64Array, im: Float64Array, db: boolean): { mag: Float
   return { mag, phaseDeg: unwrapDeg(ph) };
 }
 
-/** Closed-loop transconductance Iload/Vcommand(f), dB re 1 A/V, and its −3 dB bandwidth. */
+/**
+ * Closed-loop transconductance Iload/Vcommand(f), dB re 1 A/V; its −3 dB bandwidth and its peaking (the highest
+ * point above the low-frequency gain, dB, 0 when the response never rises above it).
+ */
 export function runClosedLoop(s: Scenario, options: SimOptions = {}, compileOpts: CompileOptions = {}): {
-  freq: Float64Array; magDb: Float64Array; phaseDeg: Float64Array; bandwidthHz: number | null;
+  freq: Float64Array; magDb: Float64Array; phaseDeg: Float64Array; bandwidthHz: number | null; peakingDb: number; peakingHz: number | null;
 } {
   const r = simulate(compileNetlist(s, "closedloop", compileOpts), options);
   expect(r, "ac");
   const ac = r as AcResult;
   const i = ac.currents[NAMES.ammeter];
   const { mag, phaseDeg } = magPhase(i.re, i.im, true);
-  return { freq: ac.freq, magDb: mag, phaseDeg, bandwidthHz: bandwidth3dB(ac.freq, mag) };
+  let top = 0;
+  for (let k = 1; k < mag.length; k++) if (mag[k] > mag[top]) top = k;
+  const peakingDb = Math.max(0, mag[top] - mag[0]);
+  return { freq: ac.freq, magDb: mag, phaseDeg, bandwidthHz: bandwidth3dB(ac.freq, mag), peakingDb, peakingHz: peakingDb > 0 ? ac.freq[top] : null };
+}
+
+/** Steps of the small-signal step's record (fixed step, trapezoidal; see the engine's runLinearStep). */
+const SMALL_SIGNAL_STEPS = 6000;
+
+export interface SmallSignalStep {
+  /** time from the start of the record (the step at the stimulus' step time), s */
+  time: Float64Array;
+  /** load current: the large-signal record's initial value plus the linear response to the command's change, A */
+  iLoad: Float64Array;
+  metrics: StepMetrics;
+}
+
+/**
+ * The small-signal step: the circuit linearised at the operating point (the final command, as for the loop gain and
+ * the closed loop) driven by the stimulus' command change through the same edge. Its overshoot and ringing are the
+ * ones the current loop's margins predict; where the large-signal step differs, slewing, swing or current limits or
+ * a clamp are at work. `initial` places it on the large-signal record's pre-step current (default: the ideal
+ * current at the low command). Null for stimuli that do not move the command (load, supply steps).
+ */
+export function runSmallSignalStep(s: Scenario, options: SimOptions = {}, initial?: number): SmallSignalStep | null {
+  const st = s.stimulus;
+  if (st.kind !== "command-step" && st.kind !== "command-ramp") return null;
+  const dv = st.commandHigh - st.commandLow;
+  if (dv === 0) return null;
+  const span = st.stopTime - st.stepTime;
+  const edge = st.kind === "command-ramp" ? st.rampTime : st.edgeTime;
+  const c = compile(compileNetlist(s, "closedloop"));
+  const r = c.runLinearStep(NAMES.command, span, SMALL_SIGNAL_STEPS, edge, options);
+  const di = r.currents[NAMES.ammeter];
+  const i0 = initial ?? idealTransconductance(s) * st.commandLow;
+  const n = r.time.length + 1;
+  const time = new Float64Array(n), iLoad = new Float64Array(n);
+  // one point at t = 0 before the step, then the response from the step time on
+  time[0] = 0;
+  iLoad[0] = i0;
+  for (let k = 0; k < r.time.length; k++) {
+    time[k + 1] = st.stepTime + r.time[k];
+    iLoad[k + 1] = i0 + dv * di[k];
+  }
+  return { time, iLoad, metrics: stepMetrics(time, iLoad, st.stepTime, { initial: i0 }) };
 }
 
 /**

@@ -58,7 +58,7 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
     const v = withParameter(s, axis.path, values[i]);
     const point: SweepPoint = { index: i, value: values[i], step: null, loop: null };
     try {
-      const lg = runLoopGain(v, engineOptions(opts));
+      const lg = runLoopGain(v, engineOptions(opts), {}, false);
       out.phaseMarginDeg[i] = lg.phaseMarginDeg ?? NaN;
       out.gainMarginDb[i] = lg.gainMarginDb ?? NaN;
       out.crossoverHz[i] = lg.crossoverHz ?? NaN;
@@ -95,10 +95,10 @@ export interface MapResult {
   failures: { index: number; message: string }[];
 }
 
-/** Evaluate one metric for one scenario (PM from the loop gain; overshoot and settling from the step). */
+/** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step). */
 export function evaluateMetric(s: Scenario, metric: MapMetric, opts: StudyOptions = {}): number {
   // 10 points per decade locate the crossover well enough for a map (the margin is interpolated).
-  if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts), { pointsPerDecade: 10 }).phaseMarginDeg ?? NaN;
+  if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts), { pointsPerDecade: 10 }, false).phaseMarginDeg ?? NaN;
   const m = runStep(s, engineOptions(opts)).metrics;
   return metric === "overshootPct" ? m.overshootPct : m.settlingTime1pct ?? NaN;
 }

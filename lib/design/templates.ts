@@ -163,7 +163,7 @@ function referenceSink(): Scenario {
       map: {
         x: { path: "parts.compCapacitor", from: 100e-12, to: 22e-9, points: 16, scale: "log", values: [] },
         y: { path: "load.cable.length", from: 0.5, to: 20, points: 16, scale: "log", values: [] },
-        metric: "phaseMarginDeg",
+        metric: "overshootPct",
       },
       spread: { runs: 200, seed: 1, },
       compensate: { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false },

@@ -21,6 +21,7 @@ import type { Circuit } from "./circuit";
 import { runDcSweep, runOp } from "./analysis/dc";
 import { runAc, runAcMulti, type AcExcitation } from "./analysis/ac";
 import { runTran } from "./analysis/tran";
+import { runLinearStep, type LinearStepResult } from "./analysis/linstep";
 import { SimError } from "./errors";
 import type { SimResult } from "./results";
 
@@ -31,6 +32,7 @@ export { SimError, isSimError, type SimErrorCode } from "./errors";
 export { resultToJSON } from "./results";
 export type { SimResult, OpResult, DcSweepResult, AcResult, TranResult, ComplexColumn, DeviceInfo } from "./results";
 export type { AcExcitation } from "./analysis/ac";
+export type { LinearStepResult } from "./analysis/linstep";
 import type { AcResult, OpResult } from "./results";
 export { transportCurrents } from "./elements/bjt";
 export { logFrequencies } from "./analysis/ac";
@@ -62,6 +64,12 @@ export interface CompiledNetlist {
    * than one AC run. `op` is the operating point the small-signal model was taken at.
    */
   runAcMulti(excitations: readonly AcExcitation[], options?: SimOptions, analysis?: Analysis): { op: OpResult; results: AcResult[] };
+  /**
+   * Small-signal step: the circuit linearised at its operating point (as for AC) driven by a unit step of `source`'s
+   * AC excitation rising over `edge` s, in `steps` equal steps to `tStop`. Node voltages and voltage-source currents
+   * are deviations from the operating point per unit of input.
+   */
+  runLinearStep(source: string, tStop: number, steps: number, edge: number, options?: SimOptions): LinearStepResult;
 }
 
 function prepare(c: Circuit, options: SimOptions): void {
@@ -110,6 +118,10 @@ export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
       const op = runOp(c);
       const results = runAcMulti(c, a.fStart, a.fStop, a.pointsPerDecade, excitations, options.onProgress, true);
       return { op, results };
+    },
+    runLinearStep(source: string, tStop: number, steps: number, edge: number, options: SimOptions = {}) {
+      prepare(c, options);
+      return runLinearStep(c, source, tStop, steps, edge);
     },
   };
 }

@@ -19,6 +19,14 @@ export interface StepView {
   /** collector/drain voltage, V */
   vPass: Float64Array;
   metrics: StepMetrics;
+  /** the linearised circuit's step (same edge, same command change), null for load and supply steps */
+  small: SmallSignalStepView | null;
+}
+
+export interface SmallSignalStepView {
+  time: Float64Array;
+  iLoad: Float64Array;
+  metrics: StepMetrics;
 }
 
 export interface BodeView {
@@ -27,10 +35,20 @@ export interface BodeView {
   phaseDeg: Float64Array;
 }
 
-export interface LoopView extends BodeView {
+/** One loop's margins (see lib/design/metrics.ts loopMetrics). */
+export interface LoopFigures {
   phaseMarginDeg: number | null;
   gainMarginDb: number | null;
   crossoverHz: number | null;
+  /** every 0 dB crossing, Hz */
+  crossovers: number[];
+  modulusMargin: number;
+  modulusMarginHz: number;
+}
+
+/** The current loop (the headline) with the op-amp's local loop beside it (null for the Howland pump). */
+export interface LoopView extends BodeView, LoopFigures {
+  local: (BodeView & LoopFigures) | null;
 }
 
 export interface OperatingPointResult {
@@ -43,7 +61,7 @@ export interface LiveResult {
   step: StepView | null;
   loop: LoopView | null;
   /** closed-loop transconductance Iload/Vcommand, magnitude in dB(A/V) */
-  closed: (BodeView & { bandwidthHz: number | null }) | null;
+  closed: (BodeView & { bandwidthHz: number | null; peakingDb: number; peakingHz: number | null }) | null;
   /** output impedance seen by the load, magnitude in dBΩ */
   zout: BodeView | null;
   op: OperatingPointResult | null;

@@ -1,0 +1,97 @@
+/**
+ * "Why the figures disagree": plain-language notes for the places where Quell's stability and step figures could be
+ * read as contradicting each other. Each note states a measured fact (the large-signal step's op-amp output reached
+ * its rail, the current loop crosses 0 dB three times…), never a guess offered as an excuse.
+ */
+import { formatEng } from "../units/eng";
+import { idealTransconductance } from "./compile";
+import type { StepMetrics } from "./metrics";
+import type { Scenario } from "./schema";
+
+/** The loop figures a note reads (the workbench's loop view and the design layer's loop result both fit). */
+export interface LoopFiguresLike {
+  phaseMarginDeg: number | null;
+  crossoverHz: number | null;
+  crossovers: number[];
+}
+
+export interface StepLike {
+  time: ArrayLike<number>;
+  vOpampOut: ArrayLike<number>;
+  vPass: ArrayLike<number>;
+  metrics: StepMetrics;
+  small: { metrics: StepMetrics } | null;
+}
+
+/** Volts within which the op-amp output counts as at its swing limit. */
+const AT_LIMIT_V = 0.05;
+
+function range(a: ArrayLike<number>, from: number): [number, number] {
+  let lo = Infinity, hi = -Infinity;
+  for (let i = from; i < a.length; i++) { if (a[i] < lo) lo = a[i]; if (a[i] > hi) hi = a[i]; }
+  return [lo, hi];
+}
+
+/** What the large-signal record shows limiting the response (empty when nothing measurable did). */
+export function largeSignalLimits(s: Scenario, step: StepLike): string[] {
+  const out: string[] = [];
+  const t = step.time;
+  let i0 = 0;
+  while (i0 < t.length - 1 && t[i0] < s.stimulus.stepTime) i0++;
+  const [oLo, oHi] = range(step.vOpampOut, i0);
+  const o = s.opamp;
+  const top = s.supplies.opampPositive - (o.swingHigh ?? 0);
+  const bottom = s.supplies.opampNegative + (o.swingLow ?? 0);
+  if (o.swingHigh !== null && oHi >= top - AT_LIMIT_V) out.push(`the op-amp's output reached its upper swing limit (${formatEng(top, "V")})`);
+  if (o.swingLow !== null && oLo <= bottom + AT_LIMIT_V) out.push(`the op-amp's output reached its lower swing limit (${formatEng(bottom, "V")})`);
+  if (o.slewRate !== null) {
+    let fastest = 0;
+    for (let i = i0 + 1; i < t.length; i++) {
+      const dt = t[i] - t[i - 1];
+      if (dt > 0) fastest = Math.max(fastest, Math.abs(step.vOpampOut[i] - step.vOpampOut[i - 1]) / dt);
+    }
+    if (fastest >= 0.8 * o.slewRate) out.push(`the op-amp's output slewed at up to ${formatEng(fastest, "V/s")} (its limit is ${formatEng(o.slewRate, "V/s")})`);
+  }
+  const sink = s.template === "sink-npn" || s.template === "sink-darlington" || s.template === "sink-nmos";
+  if (sink) {
+    const [pLo, pHi] = range(step.vPass, i0);
+    const iHigh = idealTransconductance(s) * s.stimulus.commandHigh;
+    const floor = iHigh * s.parts.senseResistor + s.pass.vSat;
+    if (pLo <= floor) out.push(`the pass device ran out of headroom (its ${s.pass.kind === "nmos" ? "drain" : "collector"} fell to ${formatEng(pLo, "V")})`);
+    if (s.load.kind === "coil" && s.load.clampDiode && pHi > s.supplies.load + 0.3) out.push("the coil's clamp diode conducted");
+  }
+  return out;
+}
+
+/**
+ * Notes for the verdict zone. `maxOvershootPct` is the scenario's overshoot target. Returns plain sentences, most
+ * important first; an empty list when the figures tell one story.
+ */
+export function explainFigures(s: Scenario, loop: LoopFiguresLike | null, local: LoopFiguresLike | null, step: StepLike | null): string[] {
+  const notes: string[] = [];
+  if (loop && loop.crossovers.length > 1) {
+    notes.push(
+      `The current loop's gain crosses 0 dB ${loop.crossovers.length} times (at ${loop.crossovers.map((f) => formatEng(f, "Hz")).join(", ")}); ` +
+        "the phase margin shown is the smallest over all of them, at the crossover named on the card.",
+    );
+  }
+  if (local && local.phaseMarginDeg !== null && loop?.phaseMarginDeg != null && local.phaseMarginDeg < loop.phaseMarginDeg) {
+    notes.push(
+      `The op-amp's local loop (through the compensation capacitor, broken at the op-amp's output pin) has ${local.phaseMarginDeg.toFixed(1)}° ` +
+        `at ${local.crossoverHz !== null ? formatEng(local.crossoverHz, "Hz") : "its crossover"}, less than the current loop's ${loop.phaseMarginDeg.toFixed(1)}°: it is the limiting loop.`,
+    );
+  }
+  if (step?.small) {
+    const big = step.metrics.overshootPct, small = step.small.metrics.overshootPct;
+    if (Math.abs(big - small) > Math.max(3, 0.2 * Math.max(big, small))) {
+      const why = largeSignalLimits(s, step);
+      notes.push(
+        `The step overshoots ${big.toFixed(1)} %, the linearised circuit's step (what the loop's margins describe) ${small.toFixed(1)} %. ` +
+          (why.length
+            ? `The step is a large signal: ${why.join("; ")}.`
+            : "Nothing hit a limit, so the difference comes from the circuit's gain changing over the step's range (the pass device's transconductance, the load's nonlinearity): try a smaller step to see the small-signal figure."),
+      );
+    }
+  }
+  return notes;
+}

@@ -1,0 +1,59 @@
+/**
+ * The thresholds the headline figures are judged by, in one place so the workbench, the review page, the share page
+ * and the CLI judge alike. Every one is common practice for a robust analogue loop, not a standard: a team that
+ * needs other limits sets its own targets (the overshoot target is the scenario's).
+ */
+import type { Verdict } from "./checks";
+import type { StepMetrics } from "./metrics";
+
+export type { Verdict };
+
+/** Phase margin of the current loop: ≥ 45° pass, ≥ 30° warn, below fail (common practice). */
+export const PHASE_MARGIN_PASS_DEG = 45;
+export const PHASE_MARGIN_WARN_DEG = 30;
+/** Gain margin: ≥ 10 dB pass, ≥ 6 dB warn (common practice). */
+export const GAIN_MARGIN_PASS_DB = 10;
+export const GAIN_MARGIN_WARN_DB = 6;
+/**
+ * Modulus margin min |1 + T|: ≥ 0.5 pass (sensitivity peak ≤ 2, i.e. ≤ 6 dB), ≥ 0.33 warn (≤ 3); common practice
+ * in control texts (e.g. Åström & Murray, Feedback Systems, ch. on loop shaping — from memory).
+ */
+export const MODULUS_MARGIN_PASS = 0.5;
+export const MODULUS_MARGIN_WARN = 1 / 3;
+
+export function phaseMarginVerdict(pm: number | null): Verdict | null {
+  if (pm === null) return null;
+  return pm >= PHASE_MARGIN_PASS_DEG ? "pass" : pm >= PHASE_MARGIN_WARN_DEG ? "warn" : "fail";
+}
+
+/** Null when there is no −180° crossing (no gain margin to judge). A negative margin (conditionally stable) warns. */
+export function gainMarginVerdict(gm: number | null): Verdict | null {
+  if (gm === null) return null;
+  if (gm < 0) return "warn";
+  return gm >= GAIN_MARGIN_PASS_DB ? "pass" : gm >= GAIN_MARGIN_WARN_DB ? "warn" : "fail";
+}
+
+export function modulusMarginVerdict(mm: number | null): Verdict | null {
+  if (mm === null || !Number.isFinite(mm)) return null;
+  return mm >= MODULUS_MARGIN_PASS ? "pass" : mm >= MODULUS_MARGIN_WARN ? "warn" : "fail";
+}
+
+/** Overshoot against the scenario's target: pass within it, warn up to twice it plus 5 points, fail beyond. */
+export function overshootVerdict(os: number | null, maxOvershootPct: number): Verdict | null {
+  if (os === null) return null;
+  return os <= maxOvershootPct ? "pass" : os <= 2 * maxOvershootPct + 5 ? "warn" : "fail";
+}
+
+/** Settled within ±1 % and ±0.1 %: pass; ±1 % only: warn; not even ±1 % within the record: fail. */
+export function settlingVerdict(m: StepMetrics | null): Verdict | null {
+  if (!m) return null;
+  return m.settlingTime1pct === null ? "fail" : m.settlingTime01pct === null ? "warn" : "pass";
+}
+
+/** The worse of two verdicts (null counts as nothing to judge). */
+export function worse(a: Verdict | null, b: Verdict | null): Verdict | null {
+  const rank = { pass: 0, warn: 1, fail: 2 } as const;
+  if (a === null) return b;
+  if (b === null) return a;
+  return rank[a] >= rank[b] ? a : b;
+}
