@@ -39,6 +39,13 @@ function crossing(t: ArrayLike<number>, y: ArrayLike<number>, from: number, leve
   return null;
 }
 
+/**
+ * Fraction of the record after the step that the response must spend inside the band, at the end, to count as
+ * settled. The final value is estimated from the record's last 2 %, so a response still moving at the end would
+ * otherwise look "settled" around wherever it happened to stop.
+ */
+const SETTLED_DWELL = 0.05;
+
 function settleTime(t: ArrayLike<number>, y: ArrayLike<number>, from: number, final: number, band: number, tStep: number): number | null {
   // The last sample outside the band; settled if it is not the last sample of the record.
   let last = -1;
@@ -51,7 +58,9 @@ function settleTime(t: ArrayLike<number>, y: ArrayLike<number>, from: number, fi
   const a = y[last] - final, b = y[last + 1] - final;
   const edge = a > 0 ? band : -band;
   const f = b !== a ? (edge - a) / (b - a) : 0;
-  return Math.max(0, t[last] + Math.min(1, Math.max(0, f)) * (t[last + 1] - t[last]) - tStep);
+  const settled = Math.max(0, t[last] + Math.min(1, Math.max(0, f)) * (t[last + 1] - t[last]) - tStep);
+  const tEnd = t[t.length - 1] - tStep;
+  return settled <= (1 - SETTLED_DWELL) * tEnd ? settled : null;
 }
 
 /**

@@ -144,7 +144,7 @@ function referenceSink(): Scenario {
       rampTime: 0.5e-3,
       edgeTime: 1e-6,
       supplyStep: -5,
-      stopTime: 2e-3,
+      stopTime: 10e-3,
       sourceResistance: 0,
       sourceCurrentLimit: 5e-3,
     },
