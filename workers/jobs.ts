@@ -3,30 +3,19 @@
  * layer and shape the results for the plots, and list the buffers to transfer.
  */
 import { upgradeScenario } from "@/lib/design/upgrade";
-import { runClosedLoop, runLoopGain, runOperatingPoint, runOutputImpedance, runSmallSignalStep, runStep, type LoopResult } from "@/lib/design/run";
-import { runChecks } from "@/lib/design/checks";
-import type { Scenario } from "@/lib/design/schema";
-import type { BodeView, LiveResult, LoopFigures, LoopView, OperatingPointResult, StepView } from "@/lib/workbench/types";
+import type { LoopGainResult, LoopResult } from "@/lib/design/run";
+import { POLICIES, runScenario } from "@/lib/design/scenario-run";
+import { toReviewSimulation, type ReviewSimulation } from "@/lib/traces/simulate";
+import type { BodeView, LiveResult, LoopFigures, LoopView, StepView } from "@/lib/workbench/types";
 
 /** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
 export const LIVE_BUDGET_MS = 10_000;
-
-function message(e: unknown): string {
-  return e instanceof Error ? e.message : String(e);
-}
 
 /** dB of a magnitude column, in place of a copy (20·log10). */
 function toDb(mag: Float64Array): Float64Array {
   const out = new Float64Array(mag.length);
   for (let i = 0; i < mag.length; i++) out[i] = 20 * Math.log10(mag[i]!);
   return out;
-}
-
-/** The large-signal step and, beside it, the linearised circuit's step (see runSmallSignalStep). */
-export function stepView(s: Scenario, budgetMs = LIVE_BUDGET_MS): StepView {
-  const r = runStep(s, { timeBudgetMs: budgetMs });
-  const small = runSmallSignalStep(s, { timeBudgetMs: budgetMs }, r.metrics.initial);
-  return { time: r.time, ...r.series, metrics: r.metrics, small };
 }
 
 function loopFigures(r: LoopResult): BodeView & LoopFigures {
@@ -37,64 +26,37 @@ function loopFigures(r: LoopResult): BodeView & LoopFigures {
   };
 }
 
-/** The current loop's gain (the headline) and the op-amp's local loop. */
-export function loopView(s: Scenario, budgetMs = LIVE_BUDGET_MS): LoopView {
-  const r = runLoopGain(s, { timeBudgetMs: budgetMs });
+/** The current loop's gain (the headline) and the op-amp's local loop, as the plots want them. */
+export function loopView(r: LoopGainResult): LoopView {
   return { ...loopFigures(r.loops.current), local: r.loops.local ? loopFigures(r.loops.local) : null };
 }
 
-/** The step half of a live run: its failure fails the run (the page keeps the last good result). */
-export function liveStep(json: unknown, budgetMs = LIVE_BUDGET_MS): StepView {
+/** The step half of a live run (workbench-step policy: its failure fails the run; the page keeps the last good result). */
+export function liveStep(json: unknown, budgetMs = LIVE_BUDGET_MS, shouldStop?: () => boolean): StepView {
   const s = upgradeScenario(json);
-  try {
-    return stepView(s, budgetMs);
-  } catch (e) {
-    throw new Error(`Step response: ${message(e)}`);
-  }
+  const r = runScenario(s, { ...POLICIES.workbenchStep, budgetMs, shouldStop }).step!;
+  return { time: r.time, ...r.series, metrics: r.metrics, small: r.small };
 }
 
 /**
- * The other half: loop gain (its failure fails the run), then closed loop, output impedance and the operating point,
- * which may fail alone — their messages travel in `failures` — and the checks.
+ * The other half (workbench-rest policy): loop gain (its failure fails the run), then operating point, closed loop and
+ * output impedance, which may fail alone — their messages travel in `failures` — and the checks.
  */
-export function liveRest(json: unknown, budgetMs = LIVE_BUDGET_MS): Omit<LiveResult, "step"> {
+export function liveRest(json: unknown, budgetMs = LIVE_BUDGET_MS, shouldStop?: () => boolean): Omit<LiveResult, "step"> {
   const s = upgradeScenario(json);
-  const failures: LiveResult["failures"] = [];
-  let loop: LoopView;
-  try {
-    loop = loopView(s, budgetMs);
-  } catch (e) {
-    throw new Error(`Loop gain: ${message(e)}`);
-  }
-  let op: OperatingPointResult | null = null;
-  try {
-    op = runOperatingPoint(s, { timeBudgetMs: budgetMs }).op;
-  } catch (e) {
-    failures.push({ analysis: "Operating point", message: message(e) });
-  }
-  let closed: LiveResult["closed"] = null;
-  try {
-    closed = runClosedLoop(s, { timeBudgetMs: budgetMs });
-  } catch (e) {
-    failures.push({ analysis: "Closed loop", message: message(e) });
-  }
-  let zout: BodeView | null = null;
-  try {
-    const z = runOutputImpedance(s, { timeBudgetMs: budgetMs });
-    zout = { freq: z.freq, magDb: toDb(z.magOhm), phaseDeg: z.phaseDeg };
-  } catch (e) {
-    failures.push({ analysis: "Output impedance", message: message(e) });
-  }
-  const checks = runChecks(s, op ?? undefined);
-  const acc = checks.checks.find((c) => c.id === "accuracy");
-  const diss = checks.checks.find((c) => c.id === "dissipation");
+  const r = runScenario(s, { ...POLICIES.workbenchRest, budgetMs, shouldStop });
+  const acc = r.checks.find((c) => c.id === "accuracy");
+  const diss = r.checks.find((c) => c.id === "dissipation");
   return {
-    loop, closed, zout, op,
-    checks: checks.checks,
-    cautions: checks.cautions,
+    loop: loopView(r.loop!),
+    closed: r.closed,
+    zout: r.zout ? { freq: r.zout.freq, magDb: toDb(r.zout.magOhm), phaseDeg: r.zout.phaseDeg } : null,
+    op: r.op,
+    checks: r.checks,
+    cautions: r.cautions,
     fullScaleErrorPct: acc ? acc.value : null,
     worstDissipationW: diss ? diss.value : null,
-    failures,
+    failures: r.failures,
   };
 }
 
@@ -102,6 +64,12 @@ export function liveRest(json: unknown, budgetMs = LIVE_BUDGET_MS): Omit<LiveRes
 export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
   const step = liveStep(json, budgetMs);
   return { step, ...liveRest(json, budgetMs) };
+}
+
+/** What the review, the bench comparison and the library evidence show (review policy). */
+export function reviewRun(json: unknown, budgetMs = LIVE_BUDGET_MS): ReviewSimulation {
+  const s = upgradeScenario(json);
+  return toReviewSimulation(s, runScenario(s, { ...POLICIES.review, budgetMs }));
 }
 
 /** Every distinct ArrayBuffer under `value` (typed arrays in objects and arrays), for comlink's transfer list. */

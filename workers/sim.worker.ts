@@ -7,7 +7,7 @@ import { expose, transfer } from "comlink";
 import type { Scenario, SweepAxis } from "@/lib/design/schema";
 import type { CompensateScanRow, CompensateSettings, MapMetric } from "@/lib/design/studies";
 import { upgradeScenario } from "@/lib/design/upgrade";
-import { collectBuffers, compensatePick, compensateScan, liveRest, liveRun, liveStep, map2d, spread, sweep1d } from "./jobs";
+import { collectBuffers, compensatePick, compensateScan, liveRest, liveRun, liveStep, map2d, reviewRun, spread, sweep1d } from "./jobs";
 
 /** Engine budget of one study run, ms. */
 const STUDY_RUN_BUDGET_MS = 20_000;
@@ -28,6 +28,10 @@ const api = {
   /** Loop gain, closed loop, output impedance, operating point and checks. */
   liveRest(scenario: unknown) {
     return moved(liveRest(scenario));
+  },
+  /** What the review, the bench comparison and the library evidence show (operating point, step, loop gain, checks). */
+  review(scenario: unknown) {
+    return moved(reviewRun(scenario));
   },
   /** Points [start, end) of a 1D sweep. */
   sweep(scenario: Scenario, axis: SweepAxis, start: number, end: number) {

@@ -9,11 +9,11 @@ import { WavePlot } from "@/components/traces/WavePlot";
 import { BenchComparison, type TraceMeta } from "@/components/traces/BenchComparison";
 import { ComparisonTable } from "@/components/traces/ComparisonTable";
 import { useSimulation } from "@/components/traces/useSimulation";
+import { explainFigures } from "@/lib/design/explain";
 import { StatusBadge } from "@/components/library/StatusBadge";
 import { EntryHistory } from "@/components/library/EntryHistory";
 import type { LibraryEntryDetail } from "@/lib/db/library";
 import type { Tolerances } from "@/lib/traces/compare";
-import { stepFigures } from "@/lib/traces/metrics";
 import { formatEng } from "@/lib/units/eng";
 import { ChecksTable } from "./ChecksTable";
 import { templateTitle } from "@/components/scenarios/RevisionView";
@@ -49,7 +49,11 @@ const when = (iso: string | null | undefined) => (iso ? `${new Date(iso).toLocal
 export function ReviewDocument(p: ReviewProps) {
   const sim = useSimulation(p.body);
   const scenario = sim.scenario;
-  const figures = sim.status === "done" ? stepFigures(sim.sim.step.time, sim.sim.step.iLoad, { edgeTime: sim.sim.step.stepTime, settleBand: p.tolerances.settleBandPct / 100 }) : null;
+  // the workbench's figures: design-layer step metrics and the current loop's margins, with the same notes
+  const figures = sim.status === "done" ? sim.sim.step.metrics : null;
+  const notes = sim.status === "done" && scenario
+    ? explainFigures(scenario, sim.sim.loop, sim.sim.loop?.loops.local ?? null, { ...sim.sim.step, vOpampOut: sim.sim.step.vOpampOut ?? [], vPass: sim.sim.step.vPass ?? [] })
+    : [];
   const entry = p.entry;
   const validated = entry?.status === "validated";
   return (
@@ -67,7 +71,12 @@ export function ReviewDocument(p: ReviewProps) {
         </div>
       </header>
 
-      {sim.status === "running" && <p role="status" className="text-sm text-ink-muted">Simulating revision {p.revision.number}…</p>}
+      {sim.status === "running" && (
+        <p role="status" className="flex items-center gap-3 text-sm text-ink-muted">
+          Simulating revision {p.revision.number} in the background…
+          <button type="button" onClick={sim.cancel} className="rounded border border-hairline px-2 py-0.5 text-xs text-ink no-print">Stop</button>
+        </p>
+      )}
       {sim.status === "error" && <p role="alert" className="text-sm text-verdict-fail">{sim.error}</p>}
 
       <Section id="schematic" title="Schematic">
@@ -102,8 +111,15 @@ export function ReviewDocument(p: ReviewProps) {
               ]} />
             {figures && (
               <p className="num text-sm" data-testid="review-step-figures">
-                Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} % · settling (±{p.tolerances.settleBandPct} %) {figures.settlingTime === null ? "not settled" : formatEng(figures.settlingTime, "s")} · ringing {figures.ringingHz === null ? "none" : formatEng(figures.ringingHz, "Hz")}
+                Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} %
+                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}
               </p>
+            )}
+            {notes.length > 0 && (
+              <div className="rounded border border-hairline px-3 py-2 text-sm" data-testid="review-notes">
+                <p className="font-semibold">Why the figures disagree</p>
+                {notes.map((n) => <p key={n}>{n}</p>)}
+              </div>
             )}
           </div>
         ) : <p className="text-sm text-ink-muted">{sim.status === "running" ? "Computing…" : "Not available."}</p>}
@@ -113,12 +129,19 @@ export function ReviewDocument(p: ReviewProps) {
         {sim.status === "done" && sim.sim.loop ? (
           <div className="space-y-2">
             <WavePlot testId="review-loop-plot" title="Loop gain magnitude" yUnit="dB" xUnit="Hz" logX height={180}
-              markers={sim.sim.loop.crossoverHz ? [{ t: sim.sim.loop.crossoverHz, label: "crossover" }] : []}
-              series={[{ label: "|T|, dB", time: sim.sim.loop.freq, values: sim.sim.loop.magDb, color: "#0072B2" }]} />
+              markers={sim.sim.loop.crossovers.map((f) => ({ t: f, label: f === sim.sim.loop!.crossoverHz ? "crossover" : "0 dB" }))}
+              series={[
+                { label: "|T| current loop, dB", time: sim.sim.loop.freq, values: sim.sim.loop.magDb, color: "#0072B2" },
+                ...(sim.sim.loop.loops.local ? [{ label: "|T| local op-amp loop, dB", time: sim.sim.loop.loops.local.freq, values: sim.sim.loop.loops.local.magDb, color: "#56B4E9" }] : []),
+              ]} />
             <WavePlot title="Loop gain phase" yUnit="°" xUnit="Hz" logX height={160}
-              series={[{ label: "∠T, degrees", time: sim.sim.loop.freq, values: sim.sim.loop.phaseDeg, color: "#D55E00" }]} />
+              series={[
+                { label: "∠T current loop, degrees", time: sim.sim.loop.freq, values: sim.sim.loop.phaseDeg, color: "#D55E00" },
+                ...(sim.sim.loop.loops.local ? [{ label: "∠T local op-amp loop, degrees", time: sim.sim.loop.loops.local.freq, values: sim.sim.loop.loops.local.phaseDeg, color: "#E69F00" }] : []),
+              ]} />
             <p className="num text-sm" data-testid="review-loop-figures">
-              Phase margin {sim.sim.loop.phaseMarginDeg === null ? "—" : `${sim.sim.loop.phaseMarginDeg.toFixed(1)}°`} · crossover {sim.sim.loop.crossoverHz === null ? "—" : formatEng(sim.sim.loop.crossoverHz, "Hz")} · gain margin {sim.sim.loop.gainMarginDb === null ? "—" : `${sim.sim.loop.gainMarginDb.toFixed(1)} dB`}
+              Current loop (broken between the op-amp's output and the base/gate resistor): phase margin {sim.sim.loop.phaseMarginDeg === null ? "—" : `${sim.sim.loop.phaseMarginDeg.toFixed(1)}°`} · crossover {sim.sim.loop.crossoverHz === null ? "—" : formatEng(sim.sim.loop.crossoverHz, "Hz")}{sim.sim.loop.crossovers.length > 1 ? ` (least margin of ${sim.sim.loop.crossovers.length} crossings)` : ""} · gain margin {sim.sim.loop.gainMarginDb === null ? "—" : `${sim.sim.loop.gainMarginDb.toFixed(1)} dB`} · modulus margin {sim.sim.loop.modulusMargin.toFixed(2)}
+              {sim.sim.loop.loops.local && sim.sim.loop.loops.local.phaseMarginDeg !== null ? ` · local op-amp loop: phase margin ${sim.sim.loop.loops.local.phaseMarginDeg.toFixed(1)}°` : ""}
             </p>
           </div>
         ) : <p className="text-sm text-ink-muted">{sim.status === "running" ? "Computing…" : sim.status === "done" ? `Not available: ${sim.sim.loopError}` : "Not available."}</p>}

@@ -6,7 +6,6 @@
 import { useCallback, useMemo, useState } from "react";
 import { useRouter } from "next/navigation";
 import type { Tolerances } from "@/lib/traces/compare";
-import { stepFigures } from "@/lib/traces/metrics";
 import { fullScaleCurrent } from "@/lib/design/checks";
 import { formatEng } from "@/lib/units/eng";
 import { TraceUpload } from "./TraceUpload";
@@ -59,18 +58,19 @@ export function TracesWorkspace(p: WorkspaceProps) {
 
   const keyFigures = useMemo(() => {
     if (sim.status !== "done") return {};
-    const f = stepFigures(sim.sim.step.time, sim.sim.step.iLoad, { edgeTime: sim.sim.step.stepTime, settleBand: p.tolerances.settleBandPct / 100 });
+    // the workbench's figures (design-layer step metrics, current loop), so the library shows what the designer saw
+    const m = sim.sim.step.metrics;
     const diss = sim.sim.checks.find((c) => c.id === "dissipation");
     return {
       fullScaleCurrent: fullScaleCurrent(sim.scenario),
-      overshootPct: f.overshootPct,
-      settlingTime: f.settlingTime,
-      riseTime: f.riseTime,
+      overshootPct: m.overshootPct,
+      settlingTime: m.settlingTime1pct,
+      riseTime: m.riseTime,
       worstDissipation: diss ? diss.value : null,
       phaseMarginDeg: sim.sim.loop?.phaseMarginDeg ?? null,
       crossoverHz: sim.sim.loop?.crossoverHz ?? null,
     };
-  }, [sim, p.tolerances.settleBandPct]);
+  }, [sim]);
 
   async function deleteTrace(id: string) {
     const r = await fetch(`/api/traces/${id}`, { method: "DELETE" });

@@ -1,10 +1,12 @@
 /**
- * The simulation a bench capture is compared with, and what the review shows: operating point, step response,
- * loop gain and checks of one scenario, through lib/design's runners. Runs in the browser (client components call
- * it; the server stays stateless).
+ * What the review, the bench-trace comparison and the library evidence show of one scenario: operating point, step
+ * response (with the design layer's metrics and the small-signal step), loop gain and checks — shaped from the one
+ * scenario run of lib/design (runScenario with the review policy), which the worker computes.
  */
-import { runLoopGain, runOperatingPoint, runStep, type LoopGainResult } from "@/lib/design/run";
-import { runChecks, type CheckRow, type Caution, type AccuracyBudget } from "@/lib/design/checks";
+import type { AccuracyBudget, Caution, CheckRow } from "@/lib/design/checks";
+import type { StepMetrics } from "@/lib/design/metrics";
+import type { LoopGainResult, SmallSignalStep } from "@/lib/design/run";
+import type { ScenarioRun } from "@/lib/design/scenario-run";
 import type { Scenario } from "@/lib/design/schema";
 import type { OpResult } from "@/lib/sim";
 
@@ -21,6 +23,10 @@ export interface SimulatedStep {
   vPass: Float64Array | null;
   /** when the stimulus steps, s */
   stepTime: number;
+  /** the design layer's step metrics (the workbench's figures) */
+  metrics: StepMetrics;
+  /** the linearised circuit's step, null for load and supply steps */
+  small: SmallSignalStep | null;
 }
 
 export interface ReviewSimulation {
@@ -34,30 +40,20 @@ export interface ReviewSimulation {
   budget: AccuracyBudget;
 }
 
-/** The step response the scenario's stimulus asks for. Throws the engine's SimError on failure. */
-export function simulateStep(s: Scenario): SimulatedStep {
-  const r = runStep(s);
+/** Shape a review-policy run (operating point and step required, so both are there). */
+export function toReviewSimulation(s: Scenario, run: ScenarioRun): ReviewSimulation {
+  if (!run.op || !run.step || !run.budget) throw new Error("A review needs the operating point, the step and the checks");
+  const r = run.step;
   return {
-    time: r.time,
-    iLoad: r.series.iLoad,
-    vCommand: r.series.vCommand ?? null,
-    vOpampOut: r.series.vOpampOut ?? null,
-    vPass: r.series.vPass ?? null,
-    stepTime: s.stimulus.stepTime,
+    op: run.op,
+    step: {
+      time: r.time, iLoad: r.series.iLoad, vCommand: r.series.vCommand, vOpampOut: r.series.vOpampOut, vPass: r.series.vPass,
+      stepTime: s.stimulus.stepTime, metrics: r.metrics, small: r.small,
+    },
+    loop: run.loop,
+    loopError: run.failures.find((f) => f.analysis === "Loop gain")?.message ?? null,
+    checks: run.checks,
+    cautions: run.cautions,
+    budget: run.budget,
   };
-}
-
-/** Everything the review and the lead's comparison need, in one call. */
-export function simulateForReview(s: Scenario): ReviewSimulation {
-  const { op } = runOperatingPoint(s);
-  const step = simulateStep(s);
-  let loop: LoopGainResult | null = null;
-  let loopError: string | null = null;
-  try {
-    loop = runLoopGain(s);
-  } catch (e) {
-    loopError = e instanceof Error ? e.message : String(e);
-  }
-  const { checks, cautions, budget } = runChecks(s, op);
-  return { op, step, loop, loopError, checks, cautions, budget };
 }

@@ -7,7 +7,7 @@ import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { demoUser, signIn } from "./auth";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import { db } from "@/lib/db/knex";
-import { simulateStep } from "@/lib/traces/simulate";
+import { runStep } from "@/lib/design/run";
 
 /**
  * The library journey: the designer uploads a bench capture of the valve-coil demo and submits revision N for
@@ -76,7 +76,8 @@ describe("library: upload, submit, validate, review", () => {
     scenarioId = valve.id;
     const detail = await (await page.request.get(`${BASE_URL}/api/scenarios/${scenarioId}`)).json();
     const scenario = upgradeScenario(detail.body);
-    const step = simulateStep(scenario);
+    const { time, series } = runStep(scenario);
+    const step = { time, iLoad: series.iLoad };
     csvPath = join(mkdtempSync(join(tmpdir(), "quell-e2e-")), "valve-step.csv");
     writeFileSync(csvPath, captureCsv(step.time, step.iLoad, scenario.parts.senseResistor));
 

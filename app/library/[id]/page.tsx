@@ -17,11 +17,11 @@ export const metadata = { title: "Library entry" };
 
 const FIGURES: [string, string, (v: number) => string][] = [
   ["fullScaleCurrent", "Full-scale current", (v) => formatEng(v, "A")],
-  ["phaseMarginDeg", "Phase margin", (v) => `${v.toFixed(1)}°`],
+  ["phaseMarginDeg", "Phase margin (current loop)", (v) => `${v.toFixed(1)}°`],
   ["crossoverHz", "Crossover", (v) => formatEng(v, "Hz")],
   ["overshootPct", "Overshoot", (v) => `${v.toFixed(1)} %`],
   ["riseTime", "Rise time", (v) => formatEng(v, "s")],
-  ["settlingTime", "Settling time", (v) => formatEng(v, "s")],
+  ["settlingTime", "Settling (±1 %)", (v) => formatEng(v, "s")],
   ["worstDissipation", "Worst dissipation", (v) => formatEng(v, "W")],
 ];
 

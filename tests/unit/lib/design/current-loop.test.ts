@@ -1,6 +1,6 @@
 import { Matrix, solve } from "ml-matrix";
 import { describe, expect, it } from "vitest";
-import { compile, simulate, type AcResult, type TranResult } from "@/lib/sim";
+import { compile, simulate, type AcResult, type Netlist, type TranResult } from "@/lib/sim";
 import { defaultScenario, runLoopGain, runOperatingPoint, thermalVoltage, type Scenario } from "@/lib/design";
 import { valveCoilDemo } from "@/lib/design/demos";
 import { dampingFromPhaseMargin, loopMetrics, overshootFromDamping, stepMetrics } from "@/lib/design/metrics";
@@ -107,17 +107,17 @@ describe("two-pole loop with a closed-form phase margin (a follower of a two-pol
   for (let k = 0; k < 200; k++) { const mid = Math.sqrt(lo * hi); if (magAt(mid) > 1) lo = mid; else hi = mid; }
   const fc = Math.sqrt(lo * hi);
   const pmExact = 180 - (Math.atan(fc / fp) * 180) / Math.PI - (Math.atan(fc / fp2) * 180) / Math.PI;
-  const netlist = (kind: "ac" | "tran", probe: boolean) => ({
+  const netlist = (kind: "ac" | "tran", probe: boolean): Netlist => ({
     elements: [
-      { kind: "vsource" as const, name: "in", nodes: ["in", "gnd"], dc: 0, ac: probe ? 0 : 1,
+      { kind: "vsource" as const, name: "in", nodes: ["in", "gnd"] as [string, string], dc: 0, ac: probe ? 0 : 1,
         wave: { shape: "pulse" as const, low: 0, high: 1e-3, delay: 1e-6, rise: 1e-9, fall: 1e-9, width: 1, period: null } },
-      { kind: "opamp" as const, name: "amp", nodes: ["in", "fb", probe ? "o_pin" : "out", "vcc", "vee"],
+      { kind: "opamp" as const, name: "amp", nodes: ["in", "fb", probe ? "o_pin" : "out", "vcc", "vee"] as [string, string, string, string, string],
         model: { Aol, GBW, fp2, Rout: 0 } },
-      { kind: "vsource" as const, name: "vcc", nodes: ["vcc", "gnd"], dc: 15 },
-      { kind: "vsource" as const, name: "vee", nodes: ["vee", "gnd"], dc: -15 },
-      ...(probe ? [{ kind: "vsource" as const, name: "probe", nodes: ["out", "o_pin"], dc: 0, ac: 1 }] : []),
-      { kind: "resistor" as const, name: "feedback", nodes: ["out", "fb"], value: 1 },
-      { kind: "resistor" as const, name: "load", nodes: ["out", "gnd"], value: 10e3 },
+      { kind: "vsource" as const, name: "vcc", nodes: ["vcc", "gnd"] as [string, string], dc: 15 },
+      { kind: "vsource" as const, name: "vee", nodes: ["vee", "gnd"] as [string, string], dc: -15 },
+      ...(probe ? [{ kind: "vsource" as const, name: "probe", nodes: ["out", "o_pin"] as [string, string], dc: 0, ac: 1 }] : []),
+      { kind: "resistor" as const, name: "feedback", nodes: ["out", "fb"] as [string, string], value: 1 },
+      { kind: "resistor" as const, name: "load", nodes: ["out", "gnd"] as [string, string], value: 10e3 },
     ],
     analysis: kind === "ac"
       ? { kind: "ac" as const, fStart: 1, fStop: 1e8, pointsPerDecade: 200 }
