@@ -74,6 +74,39 @@ describe("workbench", () => {
     await expect.poll(() => field.inputValue(), { timeout: 5_000 }).toBe(next);
   });
 
+  it("the current loop's margin and the overshoot move together as the compensation capacitor grows", async () => {
+    // Second-order relation (docs/references.md §5a): more phase margin, less overshoot. Checked as a user would see
+    // it: the headline cards after each edit, and the Loop gain plot naming both loops.
+    const field = page.locator("#field-parts-compCapacitor");
+    const readings: { pm: number; os: number }[] = [];
+    const setAndRead = async (value: string) => {
+      const pm0 = await text("metric-phase-margin-value");
+      await field.fill(value);
+      await field.press("Enter");
+      await page.waitForFunction(
+        (a) => document.querySelector('[data-testid="metric-phase-margin-value"]')?.textContent?.trim() !== a,
+        pm0,
+        { timeout: 30_000 },
+      );
+      // both halves of the run arrive together; the overshoot card carries the small-signal figure beside it
+      await page.getByTestId("metric-overshoot").filter({ hasText: "small-signal" }).waitFor({ timeout: 30_000 });
+      return { pm: Number.parseFloat(await text("metric-phase-margin-value")), os: Number.parseFloat(await text("metric-overshoot-value")) };
+    };
+    if ((await field.inputValue()) === "100p") await setAndRead("47p"); // the first value below must be a change
+    for (const value of ["100p", "2.2n", "10n"]) readings.push(await setAndRead(value));
+    for (let i = 1; i < readings.length; i++) {
+      expect(readings[i].pm).toBeGreaterThan(readings[i - 1].pm);
+      expect(readings[i].os).toBeLessThan(readings[i - 1].os);
+    }
+    // the ringing design fails on both counts, the well-damped one passes on both
+    expect(readings[0].pm).toBeLessThan(30);
+    expect(readings[0].os).toBeGreaterThan(20);
+    expect(readings[2].pm).toBeGreaterThan(60);
+    expect(readings[2].os).toBeLessThan(5);
+    expect(await page.getByTestId("metric-phase-margin").textContent()).toContain("local op-amp loop");
+    expect(await page.getByTestId("plot-loop").textContent()).toContain("local op-amp loop");
+  });
+
   it("exports the step response as CSV and the netlist as JSON", async () => {
     const [csv] = await Promise.all([page.waitForEvent("download"), page.getByTestId("export-step-csv").click()]);
     expect(csv.suggestedFilename()).toBe("Step-response.csv");
