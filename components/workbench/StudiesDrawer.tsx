@@ -235,7 +235,7 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
             <div className="grid gap-2 xl:grid-cols-2">
               <OverlayChart title="Load current, one curve per value" overlays={stepOverlays} xLog={false} xUnit="s" yUnit="A" scale="y" testId="sweep-step" />
               <OverlayChart title="Loop gain magnitude" overlays={bodeOverlays} xLog xUnit="Hz" yUnit="dB" scale="y" testId="sweep-bode" />
-              <OverlayChart title={`Phase margin against ${info.label.toLowerCase()}`} overlays={metricOverlays} xLog={xLog} xUnit={info.unit} yUnit="°" scale="y" testId="sweep-pm" />
+              <OverlayChart title={`Current-loop phase margin against ${info.label.toLowerCase()}`} overlays={metricOverlays} xLog={xLog} xUnit={info.unit} yUnit="°" scale="y" testId="sweep-pm" />
               <OverlayChart title={`Overshoot against ${info.label.toLowerCase()}`} overlays={osOverlays} xLog={xLog} xUnit={info.unit} yUnit="%" scale="y" testId="sweep-os" />
             </div>
           </>
@@ -248,8 +248,8 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
 }
 
 const METRICS: { id: MapMetric; label: string; unit: string }[] = [
-  { id: "phaseMarginDeg", label: "Phase margin", unit: "°" },
   { id: "overshootPct", label: "Overshoot", unit: "%" },
+  { id: "phaseMarginDeg", label: "Phase margin (current loop)", unit: "°" },
   { id: "settlingTime1pct", label: "Settling time (±1 %)", unit: "s" },
 ];
 
