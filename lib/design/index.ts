@@ -14,7 +14,7 @@ export { OPAMP_PRESETS, PASS_PRESETS, opampPreset, passPreset } from "./presets"
 export {
   compileNetlistJson, NAMES, idealTransconductance, dividerRatio, cableResistance, operatingCommand, loadDrop, thermalVoltage,
 } from "./compile";
-export type { CompilePurpose, CompileOptions } from "./compile";
+export type { CompilePurpose, CompileOptions, LoopName } from "./compile";
 export type { NetlistJson, NetlistElementJson } from "./netlist";
 export {
   stepMetrics, loopMetrics, bandwidth3dB, unwrapDeg, phaseMarginFromDamping, overshootFromDamping, dampingFromOvershoot,
@@ -35,9 +35,17 @@ export type { Summary } from "./stats";
 export { demoScenarios } from "./demos";
 export type { DemoScenario } from "./demos";
 export {
-  compileNetlist, runOperatingPoint, runStep, runLoopGain, runClosedLoop, runOutputImpedance, runDcTransfer, summarizeOp, tianLoopGain,
+  compileNetlist, runOperatingPoint, runStep, runSmallSignalStep, runLoopGain, runClosedLoop, runOutputImpedance, runDcTransfer, summarizeOp,
+  tianLoopGain, hasLocalLoop,
 } from "./run";
-export type { OperatingPointSummary, StepResult, LoopGainResult, SimOptions } from "./run";
+export type { OperatingPointSummary, StepResult, SmallSignalStep, LoopGainResult, LoopResult, SimOptions } from "./run";
+export { runScenario, POLICIES, ANALYSIS_LABELS, AnalysisError } from "./scenario-run";
+export type { ScenarioRun, RunPolicy, AnalysisName } from "./scenario-run";
+export {
+  phaseMarginVerdict, gainMarginVerdict, modulusMarginVerdict, overshootVerdict, settlingVerdict, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG,
+  GAIN_MARGIN_PASS_DB, GAIN_MARGIN_WARN_DB, MODULUS_MARGIN_PASS, MODULUS_MARGIN_WARN,
+} from "./verdicts";
+export { explainFigures, largeSignalLimits } from "./explain";
 export {
   SWEEPABLE_PARAMETERS, getParameter, withParameter, axisValues, sweep1d, map2d, evaluateMetric, spread, spreadScenario, mergeSpread,
   summarizeSpread, worstCaseCorners, compensate, compensateScan, compensatePick, compensateCandidates, loadCorners,

@@ -49,11 +49,3 @@ export function settlingVerdict(m: StepMetrics | null): Verdict | null {
   if (!m) return null;
   return m.settlingTime1pct === null ? "fail" : m.settlingTime01pct === null ? "warn" : "pass";
 }
-
-/** The worse of two verdicts (null counts as nothing to judge). */
-export function worse(a: Verdict | null, b: Verdict | null): Verdict | null {
-  const rank = { pass: 0, warn: 1, fail: 2 } as const;
-  if (a === null) return b;
-  if (b === null) return a;
-  return rank[a] >= rank[b] ? a : b;
-}
