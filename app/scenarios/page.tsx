@@ -1,5 +1,5 @@
 import { requirePageUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
+import { roleAtLeast } from "@/lib/shared/roles";
 import { TEMPLATE_CHOICES } from "@/lib/db/scenarioBody";
 import { ScenarioTable } from "@/components/scenarios/ScenarioTable";
 

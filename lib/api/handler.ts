@@ -2,10 +2,10 @@ import "server-only";
 import { z, type ZodType } from "zod";
 import { ApiError } from "./errors";
 import { readLimitedBytes } from "./body";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { sessionFromCookieHeader } from "@/lib/auth/session-config";
 import { resolveCurrentUser } from "@/lib/db/users";
-import { roleAtLeast, type CurrentUser, type Role } from "@/lib/auth/roles";
+import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 
 export { ApiError };
 

@@ -1,10 +1,10 @@
 import "server-only";
 import type { z, ZodType } from "zod";
 import { currentUser } from "./current";
-import { roleAtLeast, type CurrentUser, type Role } from "./roles";
+import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 import type { ActionState } from "./action-state";
 import { fieldErrors } from "@/lib/api/handler";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 
 export type { ActionState };
 

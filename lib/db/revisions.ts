@@ -1,11 +1,11 @@
 import "server-only";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { checkScenarioBody } from "./scenarioBody";
 import { scenarioRowInTeam } from "./scenarios";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 
 export interface RevisionInfo {
   revisionId: string;

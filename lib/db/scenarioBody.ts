@@ -1,4 +1,4 @@
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import { TEMPLATES, defaultScenario } from "@/lib/design/templates";
 import { ScenarioError, TEMPLATE_IDS, type Scenario, type TemplateId } from "@/lib/design/schema";

@@ -2,10 +2,10 @@ import "server-only";
 import type { Knex } from "knex";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { checkScenarioBody, starterBody } from "./scenarioBody";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 
 export interface ScenarioWithRevision {
   id: string;

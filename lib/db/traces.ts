@@ -2,9 +2,9 @@ import "server-only";
 import type { Knex } from "knex";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 import type { ParsedTrace } from "@/lib/traces/parse";
 
 /** Float64Array → little-endian bytes (the stored form, independent of the server's byte order). */

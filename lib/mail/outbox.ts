@@ -1,7 +1,7 @@
 import "server-only";
 import { db } from "@/lib/db/knex";
 import { mailSettings } from "./transport";
-import { hashToken } from "@/lib/auth/tokens";
+import { hashToken } from "@/lib/shared/tokens";
 
 /**
  * The development outbox shows what the local SMTP fake received. On only while mail goes to a loopback host

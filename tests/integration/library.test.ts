@@ -4,7 +4,7 @@ vi.mock("server-only", () => ({}));
 
 import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";
-import type { CurrentUser, Role } from "@/lib/auth/roles";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 import { storeTrace, deleteTrace } from "@/lib/db/traces";
 import {
   changeEntryStatus, commentOnEntry, getEntry, getTeamTolerances, listEntries, scenarioFacets, setTeamTolerances,

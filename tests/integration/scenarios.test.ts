@@ -15,7 +15,7 @@ import { forkRevision, getRevision, listRevisions, saveRevision } from "@/lib/db
 import { addComment, listComments } from "@/lib/db/comments";
 import { createPublicLink, listShareLinks, openPublicLink, revokePublicLink } from "@/lib/db/shareLinks";
 import { listAudit } from "@/lib/db/audit";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { MAX_SCENARIO_BYTES } from "@/lib/db/scenarioBody";
 import { defaultScenario } from "@/lib/design/templates";
 import { closeDb, makeFixture, scenarioBody, type Fixture } from "./support/fixtures";

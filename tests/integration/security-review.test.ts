@@ -16,7 +16,7 @@ import { MAX_FAILURES_PER_ACCOUNT } from "@/lib/db/signInAttempts";
 import { changeRole, createInvitation, removeMember, revokeInvitation } from "@/lib/db/teams";
 import { createScenario } from "@/lib/db/scenarios";
 import { createPasswordReset, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordResets";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { teamOutbox } from "@/lib/mail/outbox";
 import { invitationMail, passwordResetMail } from "@/lib/mail/messages";
 import { libraryMail } from "@/lib/db/library";

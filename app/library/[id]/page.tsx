@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
 import { getEntry } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { formatEng } from "@/lib/units/eng";
 import { DEFAULT_TOLERANCES } from "@/lib/traces/compare";
 import { StatusBadge } from "@/components/library/StatusBadge";

@@ -2,11 +2,11 @@
 import { z } from "zod";
 import { revalidatePath } from "next/cache";
 import { currentUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
+import { roleAtLeast } from "@/lib/shared/roles";
 import { saveRevision, forkRevision, type SaveResult } from "@/lib/db/revisions";
 import { softDeleteScenario, restoreScenario } from "@/lib/db/scenarios";
 import { addComment } from "@/lib/db/comments";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 
 const saveInput = z.object({
   scenarioId: z.string().uuid("scenarioId must be a scenario id"),

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
 import { getScenarioDetail } from "@/lib/db/scenarios";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { RevisionHistory } from "@/components/scenarios/RevisionHistory";
 import { ShareDialog } from "@/components/scenarios/ShareDialog";
 import { Comments } from "@/components/scenarios/Comments";

@@ -5,7 +5,7 @@ import { getScenarioDetail } from "@/lib/db/scenarios";
 import { getRevision } from "@/lib/db/revisions";
 import { listTraces } from "@/lib/db/traces";
 import { entryForRevision, getTeamTolerances } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { ReviewDocument } from "@/components/review/ReviewDocument";
 import "./print.css";
 

@@ -4,7 +4,7 @@ import { requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { getScenarioDetail } from "@/lib/db/scenarios";
 import { listTraces } from "@/lib/db/traces";
 import { entryForRevision, getTeamTolerances } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { TracesWorkspace } from "@/components/traces/TracesWorkspace";
 
 export const dynamic = "force-dynamic";

@@ -1,9 +1,9 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
+import { roleAtLeast } from "@/lib/shared/roles";
 import { getRevision } from "@/lib/db/revisions";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { RevisionView } from "@/components/scenarios/RevisionView";
 import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton } from "@/components/scenarios/ScenarioButtons";
