@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { SCENARIO_STATUSES } from "@/lib/db/scenarioBody";
+import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { ROLES } from "@/lib/shared/roles";
 import { TEMPLATE_IDS } from "@/lib/design/schema";
 

@@ -5,7 +5,6 @@ import { audit } from "./audit";
 import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
-import type { ParsedTrace } from "@/lib/traces/parse";
 
 /** Float64Array → little-endian bytes (the stored form, independent of the server's byte order). */
 export function encodeFloat64(values: Float64Array): Buffer {
@@ -103,7 +102,8 @@ export interface StoreTraceInput {
   revisionId?: string | null;
   label: string;
   fileName: string;
-  parsed: ParsedTrace;
+  /** The parsed capture (lib/traces/parse: ParsedTrace has this shape): time in s, one column per channel. */
+  parsed: { time: Float64Array; channels: (TraceChannelMeta & { values: Float64Array })[] };
   /** Instrument settings and parsing options as the uploader entered them. */
   settings: Record<string, unknown>;
 }

@@ -32,7 +32,7 @@ import * as libraryEntry from "@/app/api/library/[id]/route";
 import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenario } from "@/app/scenarios/[id]/actions";
 import { startFromEntryAction, setTolerancesAction } from "@/app/library/actions";
 import { changeEntryStatus, submitForValidation } from "@/lib/db/library";
-import { createScenario } from "@/lib/db/scenarios";
+import { createScenario } from "@/lib/scenarios/save";
 import { createPublicLink } from "@/lib/db/shareLinks";
 import { createInvitation } from "@/lib/db/teams";
 import { closeDb, cookieFor, ctx, FIXTURE_PASSWORD, makeFixture, request, scenarioBody, type Actor, type Fixture } from "./support/fixtures";

@@ -9,7 +9,8 @@ import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton, DeleteButton } from "@/components/scenarios/ScenarioButtons";
 import { SaveRevisionForm } from "@/components/scenarios/SaveRevisionForm";
 import { StatusSelect } from "@/components/scenarios/StatusSelect";
-import { SCENARIO_STATUSES, TEMPLATE_CHOICES } from "@/lib/db/scenarioBody";
+import { TEMPLATE_CHOICES } from "@/lib/design/scenarioBody";
+import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 
