@@ -1,5 +1,6 @@
 import { requirePageUser } from "@/lib/auth/current";
-import { libraryFacets, libraryFiltersSchema, listEntries, getTeamTolerances } from "@/lib/db/library";
+import { libraryFacets, libraryFiltersSchema, listEntries } from "@/lib/db/library";
+import { getTeamTolerances } from "@/lib/library/tolerances";
 import { LibraryFilters, type FilterValues } from "@/components/library/LibraryFilters";
 import { LibraryTable } from "@/components/library/LibraryTable";
 import { TolerancesForm } from "@/components/library/TolerancesForm";

@@ -1,5 +1,5 @@
 /** The library's filters: a plain GET form, so a filtered view is a link that can be shared and works without scripts. */
-import { LIBRARY_STATUSES } from "@/lib/db/library";
+import { LIBRARY_STATUSES } from "@/lib/shared/statuses";
 
 export interface FilterValues {
   q?: string; template?: string; status?: string; loadType?: string; passElement?: string; currentMin?: string; currentMax?: string;

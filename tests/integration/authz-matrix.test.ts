@@ -31,7 +31,7 @@ import * as library from "@/app/api/library/route";
 import * as libraryEntry from "@/app/api/library/[id]/route";
 import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenario } from "@/app/scenarios/[id]/actions";
 import { startFromEntryAction, setTolerancesAction } from "@/app/library/actions";
-import { changeEntryStatus, submitForValidation } from "@/lib/db/library";
+import { changeEntryStatus, submitForValidation } from "@/lib/library/workflow";
 import { createScenario } from "@/lib/scenarios/save";
 import { createPublicLink } from "@/lib/db/shareLinks";
 import { createInvitation } from "@/lib/db/teams";

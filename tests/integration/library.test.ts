@@ -6,10 +6,10 @@ import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";
 import type { CurrentUser, Role } from "@/lib/shared/roles";
 import { storeTrace, deleteTrace } from "@/lib/db/traces";
-import {
-  changeEntryStatus, commentOnEntry, getEntry, getTeamTolerances, listEntries, scenarioFacets, setTeamTolerances,
-  startFromEntry, submitForValidation, submitSchema,
-} from "@/lib/db/library";
+import { getEntry, listEntries, submitSchema } from "@/lib/db/library";
+import { changeEntryStatus, commentOnEntry, startFromEntry, submitForValidation } from "@/lib/library/workflow";
+import { getTeamTolerances, setTeamTolerances } from "@/lib/library/tolerances";
+import { scenarioFacets } from "@/lib/library/facets";
 import { parseTraceCsv, DEFAULT_TOLERANCES } from "@/lib/traces";
 import { defaultScenario } from "@/lib/design/templates";
 import { idealTransconductance } from "@/lib/design/compile";

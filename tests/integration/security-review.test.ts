@@ -19,7 +19,7 @@ import { createPasswordReset, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordReset
 import { DomainError } from "@/lib/errors";
 import { teamOutbox } from "@/lib/db/outbox";
 import { invitationMail, passwordResetMail } from "@/lib/mail/messages";
-import { libraryMail } from "@/lib/db/library";
+import { libraryMail } from "@/lib/library/mail";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { closeDb, cookieFor, ctx, makeFixture, ORIGIN, request, type Actor, type Fixture } from "./support/fixtures";
 
