@@ -1,3 +1,5 @@
+import type { z } from "zod";
+
 /** Thrown by query modules for expected refusals; route handlers and actions map `status` to HTTP or to a message. */
 export class DomainError extends Error {
   constructor(
@@ -7,4 +9,14 @@ export class DomainError extends Error {
     super(message);
     this.name = "DomainError";
   }
+}
+
+/** zod issues as `{ "field.path": ["message"] }`; the root is "_". */
+export function fieldErrors(error: z.ZodError): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.map(String).join(".") : "_";
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
 }

@@ -6,7 +6,7 @@ import { upgradeScenario } from "@/lib/design/upgrade";
 import { runClosedLoop, runLoopGain, runOperatingPoint, runOutputImpedance, runStep } from "@/lib/design/run";
 import { runChecks } from "@/lib/design/checks";
 import type { Scenario } from "@/lib/design/schema";
-import type { BodeView, LiveResult, LoopView, OperatingPointResult, StepView } from "@/lib/workbench/types";
+import type { BodeView, LiveResult, LoopView, OperatingPointResult, StepView } from "./results";
 
 /** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
 export const LIVE_BUDGET_MS = 10_000;

@@ -3,8 +3,7 @@ import type { z, ZodType } from "zod";
 import { currentUser } from "./current";
 import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 import type { ActionState } from "./action-state";
-import { fieldErrors } from "@/lib/api/handler";
-import { DomainError } from "@/lib/errors";
+import { DomainError, fieldErrors } from "@/lib/errors";
 
 export type { ActionState };
 
