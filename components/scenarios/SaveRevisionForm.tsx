@@ -1,25 +1,19 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { diffBodies } from "./diff";
-import { DiffTable } from "./DiffTable";
-
-type Save = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<
-  | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string }
->;
+import { SaveConflict, type ConflictingRevision, type SaveFn } from "./SaveConflict";
 
 /**
  * Save a revision by editing the scenario as JSON (the workbench saves through the same server action). A stale
  * base shows both versions side by side and lets the user save theirs on top of the newer one deliberately.
  */
-export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body, save }: { scenarioId: string; baseRevisionId: string; baseNumber: number; body: unknown; save: Save }) {
+export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body, save }: { scenarioId: string; baseRevisionId: string; baseNumber: number; body: unknown; save: SaveFn }) {
   const router = useRouter();
   const [text, setText] = useState(() => JSON.stringify(body, null, 2));
   const [note, setNote] = useState("");
   const [base, setBase] = useState({ id: baseRevisionId, number: baseNumber });
   const [err, setErr] = useState<{ field?: "body" | "note"; message: string } | null>(null);
-  const [conflict, setConflict] = useState<{ number: number; author: string; body: unknown; revisionId: string } | null>(null);
+  const [conflict, setConflict] = useState<ConflictingRevision | null>(null);
   const [saved, setSaved] = useState<number | null>(null);
   const [pending, start] = useTransition();
 
@@ -80,20 +74,14 @@ export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body,
       </div>
       {err && !err.field && <p role="alert" className="mt-2 text-sm text-verdict-fail">Not saved: {err.message}</p>}
       {conflict && (
-        <div className="mt-4 rounded border border-verdict-warn/40">
-          <p className="px-4 py-2 text-sm">
-            Conflict: revision {conflict.number} by {conflict.author} is newer than the one you edited. Differences from it to yours:
-          </p>
-          <DiffTable rows={diffBodies(conflict.body, mine)} beforeLabel={`Revision ${conflict.number}`} afterLabel="Yours" />
-          <div className="flex gap-2 p-3">
-            <button type="button" onClick={() => { setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
-              Keep mine, save on top of revision {conflict.number}
-            </button>
-            <button type="button" onClick={() => { setText(JSON.stringify(conflict.body, null, 2)); setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
-              Take theirs
-            </button>
-          </div>
-        </div>
+        <SaveConflict current={conflict} mine={mine}>
+          <button type="button" onClick={() => { setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
+            Keep mine, save on top of revision {conflict.number}
+          </button>
+          <button type="button" onClick={() => { setText(JSON.stringify(conflict.body, null, 2)); setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
+            Take theirs
+          </button>
+        </SaveConflict>
       )}
     </form>
   );
