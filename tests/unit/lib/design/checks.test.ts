@@ -4,7 +4,7 @@ import {
   worstDissipation,
 } from "@/lib/design";
 
-describe("dissipation maximum (REFERENCES §7.2)", () => {
+describe("dissipation maximum (docs/references.md §7.2)", () => {
   it("fixed current: P = I·(Vs − I·(RL + Rs)), the table for I = 0.1 A, Vs = 12 V, Rs = 10 Ω", () => {
     const P = (rl: number) => 0.1 * (12 - 0.1 * (rl + 10));
     expect(P(0)).toBeCloseTo(1.1, 12);
@@ -29,7 +29,7 @@ describe("dissipation maximum (REFERENCES §7.2)", () => {
   });
 });
 
-describe("junction temperature (REFERENCES §7.1 worked example)", () => {
+describe("junction temperature (docs/references.md §7.1 worked example)", () => {
   it("5 W, θjc 3, θcs 1, θsa 8 °C/W at 25 °C gives 85 °C", () => {
     const s = defaultScenario("sink-npn");
     s.pass.thetaJC = 3;
