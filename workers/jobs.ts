@@ -15,7 +15,7 @@ function message(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
-/** dB of a magnitude column, in place of a copy (20·log10). */
+/** A magnitude column in dB (20·log10), as a new array; the input column is left as it is. */
 function toDb(mag: Float64Array): Float64Array {
   const out = new Float64Array(mag.length);
   for (let i = 0; i < mag.length; i++) out[i] = 20 * Math.log10(mag[i]!);
