@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { SaveConflict, type ConflictingRevision, type SaveFn } from "./SaveConflict";
+import { BUTTON_PRIMARY } from "@/components/shell/classes";
 
 /**
  * Save a revision by editing the scenario as JSON (the workbench saves through the same server action). A stale
@@ -67,7 +68,7 @@ export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body,
       <label htmlFor="rev-note" className="mt-3 block text-xs font-medium text-ink-muted">Note</label>
       <input id="rev-note" value={note} onChange={(e) => setNote(e.target.value)} maxLength={2000} placeholder="What changed and why" className="mt-1 w-full rounded border border-hairline px-2 py-1.5 text-sm" />
       <div className="mt-3 flex items-center gap-3">
-        <button type="submit" disabled={pending} className="rounded bg-signal px-4 py-1.5 text-sm font-medium text-white hover:bg-signal-dark disabled:opacity-60">
+        <button type="submit" disabled={pending} className={BUTTON_PRIMARY}>
           {pending ? "Saving…" : "Save revision"}
         </button>
         {saved !== null && !err && <p role="status" className="text-sm text-verdict-pass">Saved as revision {saved}.</p>}

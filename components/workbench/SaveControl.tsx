@@ -8,10 +8,11 @@ import { upgradeScenario } from "@/lib/design/upgrade";
 import type { Scenario } from "@/lib/design/schema";
 import { SaveConflict, type ConflictingRevision, type SaveFn } from "@/components/scenarios/SaveConflict";
 import { useWb, useWbStore } from "./context";
+import { TOOL_BUTTON } from "@/components/shell/classes";
 
 export type { SaveFn };
 
-const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] hover:bg-paper focus-visible:outline-2 focus-visible:outline-signal disabled:opacity-40";
+const BTN = TOOL_BUTTON;
 
 export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   scenarioId: string | null; revisionId: string | null; save: SaveFn | null; onSaved?: (revisionNumber: number) => void;
