@@ -5,13 +5,13 @@
 import { upgradeScenario } from "@/lib/design/upgrade";
 import type { LoopGainResult, LoopResult } from "@/lib/design/run";
 import { POLICIES, runScenario } from "@/lib/design/scenario-run";
-import { toReviewSimulation, type ReviewSimulation } from "@/lib/traces/simulate";
-import type { BodeView, LiveResult, LoopFigures, LoopView, StepView } from "@/lib/workbench/types";
+import { toReviewSimulation, type ReviewSimulation } from "@/lib/design/review";
+import type { BodeView, LiveResult, LoopFigures, LoopView, StepView } from "./results";
 
 /** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
 export const LIVE_BUDGET_MS = 10_000;
 
-/** dB of a magnitude column, in place of a copy (20·log10). */
+/** A magnitude column in dB (20·log10), as a new array; the input column is left as it is. */
 function toDb(mag: Float64Array): Float64Array {
   const out = new Float64Array(mag.length);
   for (let i = 0; i < mag.length; i++) out[i] = 20 * Math.log10(mag[i]!);

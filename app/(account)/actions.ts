@@ -10,7 +10,7 @@ import { sessionAccount } from "@/lib/auth/current";
 import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createAccountFromInvitation } from "@/lib/auth/accounts";
 import { resolveCurrentUser, findUserById, teamsOfUser, setCurrentTeam } from "@/lib/db/users";
 import { acceptInvitation, createTeam, findInvitationByToken } from "@/lib/db/teams";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { db } from "@/lib/db/knex";
 
 const email = z.string().trim().min(1, "Enter your e-mail address.").max(254).email("Enter an e-mail address such as name@example.com.");

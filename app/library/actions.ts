@@ -3,7 +3,8 @@ import { z } from "zod";
 import { redirect } from "next/navigation";
 import { revalidatePath } from "next/cache";
 import { validatedAction } from "@/lib/auth/action";
-import { setTeamTolerances, startFromEntry } from "@/lib/db/library";
+import { setTeamTolerances } from "@/lib/library/tolerances";
+import { startFromEntry } from "@/lib/library/workflow";
 
 const num = (label: string) => z.coerce.number({ error: `${label} must be a number` }).finite(`${label} must be a number`).positive(`${label} must be above zero`).max(1000, `${label}: at most 1000`);
 

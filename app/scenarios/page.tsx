@@ -1,6 +1,6 @@
 import { requirePageUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
-import { TEMPLATE_CHOICES } from "@/lib/db/scenarioBody";
+import { roleAtLeast } from "@/lib/shared/roles";
+import { TEMPLATE_CHOICES } from "@/lib/design/scenarioBody";
 import { ScenarioTable } from "@/components/scenarios/ScenarioTable";
 
 export const dynamic = "force-dynamic";

@@ -1,16 +1,16 @@
 /** The library's filters: a plain GET form, so a filtered view is a link that can be shared and works without scripts. */
-import { LIBRARY_STATUSES } from "@/lib/db/library";
+import { LIBRARY_STATUSES } from "@/lib/shared/statuses";
+import { FIELD } from "@/components/shell/classes";
 
 export interface FilterValues {
   q?: string; template?: string; status?: string; loadType?: string; passElement?: string; currentMin?: string; currentMax?: string;
 }
 
 export function LibraryFilters({ values, facets }: { values: FilterValues; facets: { templates: string[]; loadTypes: string[]; passElements: string[] } }) {
-  const field = "rounded border border-hairline bg-white px-2 py-1 text-sm";
   const select = (name: keyof FilterValues, label: string, options: readonly string[]) => (
     <label className="flex flex-col">
       <span className="text-xs text-ink-muted">{label}</span>
-      <select name={name} defaultValue={values[name] ?? ""} className={field} aria-label={label}>
+      <select name={name} defaultValue={values[name] ?? ""} className={FIELD} aria-label={label}>
         <option value="">any</option>
         {options.map((o) => <option key={o} value={o}>{o}</option>)}
       </select>
@@ -20,7 +20,7 @@ export function LibraryFilters({ values, facets }: { values: FilterValues; facet
     <form method="get" className="flex flex-wrap items-end gap-3 rounded border border-hairline bg-white p-3" role="search" aria-label="Filter the library">
       <label className="flex flex-col">
         <span className="text-xs text-ink-muted">Search</span>
-        <input name="q" defaultValue={values.q ?? ""} className={`${field} w-56`} placeholder="title, note, template" aria-label="Search" />
+        <input name="q" defaultValue={values.q ?? ""} className={`${FIELD} w-56`} placeholder="title, note, template" aria-label="Search" />
       </label>
       {select("status", "Status", LIBRARY_STATUSES)}
       {select("template", "Template", facets.templates)}
@@ -28,11 +28,11 @@ export function LibraryFilters({ values, facets }: { values: FilterValues; facet
       {select("passElement", "Pass element", facets.passElements)}
       <label className="flex flex-col">
         <span className="text-xs text-ink-muted">Full scale from, A</span>
-        <input name="currentMin" defaultValue={values.currentMin ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Full-scale current from (A)" />
+        <input name="currentMin" defaultValue={values.currentMin ?? ""} className={`${FIELD} num w-24`} inputMode="decimal" aria-label="Full-scale current from (A)" />
       </label>
       <label className="flex flex-col">
         <span className="text-xs text-ink-muted">to, A</span>
-        <input name="currentMax" defaultValue={values.currentMax ?? ""} className={`${field} num w-24`} inputMode="decimal" aria-label="Full-scale current to (A)" />
+        <input name="currentMax" defaultValue={values.currentMax ?? ""} className={`${FIELD} num w-24`} inputMode="decimal" aria-label="Full-scale current to (A)" />
       </label>
       <button type="submit" className="rounded bg-signal px-3 py-1.5 text-sm font-medium text-white">Filter</button>
       <a href="/library" className="text-sm text-ink-muted underline">Clear</a>

@@ -1,6 +1,6 @@
 /** The library's entries: each row points to an immutable revision and shows its key figures and evidence. */
 import Link from "next/link";
-import { formatEng } from "@/lib/units/eng";
+import { formatQuantity } from "@/lib/units/quantity";
 import type { LibraryEntrySummary } from "@/lib/db/library";
 import { StatusBadge } from "./StatusBadge";
 import { VerdictBadge } from "@/components/traces/VerdictBadge";
@@ -40,9 +40,9 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
               </td>
               <td className="px-3 py-2"><StatusBadge status={e.status} /></td>
               <td className="px-3 py-2 text-xs">{templateTitle(e.template)} · {e.passElement || "—"} · {e.loadType || "—"}</td>
-              <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatEng(e.currentMin ?? 0, "A")} – ${formatEng(e.currentMax, "A")}`}</td>
-              <td className="num px-3 py-2 text-right">{typeof e.keyFigures.overshootPct === "number" ? `${e.keyFigures.overshootPct.toFixed(1)} %` : "—"}</td>
-              <td className="num whitespace-nowrap px-3 py-2 text-right">{typeof e.keyFigures.settlingTime === "number" ? formatEng(e.keyFigures.settlingTime, "s") : "—"}</td>
+              <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatQuantity(e.currentMin ?? 0, "A")} – ${formatQuantity(e.currentMax, "A")}`}</td>
+              <td className="num px-3 py-2 text-right">{formatQuantity(e.keyFigures.overshootPct, "%")}</td>
+              <td className="num whitespace-nowrap px-3 py-2 text-right">{formatQuantity(e.keyFigures.settlingTime, "s")}</td>
               <td className="px-3 py-2 text-xs">{e.evidence.traceIds.length} trace{e.evidence.traceIds.length === 1 ? "" : "s"} <VerdictBadge verdict={worst(e)} /></td>
               <td className="px-3 py-2 text-xs">{e.validatedByName ? `${e.validatedByName}, ${e.validatedAt?.slice(0, 10)}` : "—"}</td>
             </tr>

@@ -1,17 +1,7 @@
 /** Design checks with pass/warn/fail, the numbers and the formula used; then the cautions. */
 import type { CheckRow, Caution } from "@/lib/design/checks";
-import { formatEng } from "@/lib/units/eng";
+import { formatQuantity } from "@/lib/units/quantity";
 import { VerdictBadge } from "@/components/traces/VerdictBadge";
-
-function num(v: number, unit: string): string {
-  if (!Number.isFinite(v)) return "—";
-  // The same forms as the workbench's checks table: a bare ratio as a plain number (no SI prefix: "0.403", not
-  // "403 m"), percentages with two decimals, temperatures in whole degrees.
-  if (unit === "") return v.toPrecision(3);
-  if (unit === "%" || unit === "% FS") return `${v.toFixed(2)} ${unit}`;
-  if (unit === "°C") return `${v.toFixed(0)} °C`;
-  return formatEng(v, unit, 3);
-}
 
 export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions: Caution[] }) {
   return (
@@ -31,8 +21,8 @@ export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions
             <tr key={c.id} className="border-b border-hairline/60 align-top">
               <td className="py-1 pr-2">{c.label}{c.detail && <span className="block text-xs text-ink-muted">{c.detail}</span>}</td>
               <td className="py-1 pr-2"><VerdictBadge verdict={c.verdict} /></td>
-              <td className="num whitespace-nowrap py-1 pr-2 text-right">{num(c.value, c.unit)}</td>
-              <td className="num whitespace-nowrap py-1 pr-2 text-right">{num(c.limit, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatQuantity(c.value, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatQuantity(c.limit, c.unit)}</td>
               <td className="num py-1 text-xs">{c.formula}</td>
             </tr>
           ))}

@@ -1,6 +1,7 @@
 /** The operating point: node voltages and the devices' currents, voltages and dissipation. */
 import type { OpResult } from "@/lib/sim";
 import { formatEng } from "@/lib/units/eng";
+import { formatQuantity } from "@/lib/units/quantity";
 
 /** What each netlist node is, in words (node names from lib/design/compile.ts); unknown nodes are left blank. */
 const NODE_WORDS: Record<string, string> = {
@@ -36,7 +37,7 @@ export function OperatingPoint({ op }: { op: OpResult }) {
         <thead><tr className="border-b border-hairline text-left text-xs text-ink-muted"><th className="py-1 font-medium">Node</th><th className="py-1 font-medium">What it is</th><th className="py-1 text-right font-medium">Voltage</th></tr></thead>
         <tbody>
           {nodes.map(([n, v]) => (
-            <tr key={n} className="border-b border-hairline/60"><td className="num py-0.5">{n}</td><td className="py-0.5 pr-2 text-xs text-ink-muted">{NODE_WORDS[n] ?? ""}</td><td className="num whitespace-nowrap py-0.5 text-right">{formatEng(v, "V", 4)}</td></tr>
+            <tr key={n} className="border-b border-hairline/60"><td className="num py-0.5">{n}</td><td className="py-0.5 pr-2 text-xs text-ink-muted">{NODE_WORDS[n] ?? ""}</td><td className="num whitespace-nowrap py-0.5 text-right">{formatQuantity(v, "V", 4)}</td></tr>
           ))}
         </tbody>
       </table>

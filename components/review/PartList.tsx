@@ -6,6 +6,7 @@ import type { Scenario } from "@/lib/design/schema";
 import { TEMPLATES } from "@/lib/design/templates";
 import { nearestE, type ESeriesName } from "@/lib/design/eseries";
 import { formatEng } from "@/lib/units/eng";
+import { formatQuantity } from "@/lib/units/quantity";
 
 /** The series whose tolerance covers a part's tolerance (IEC 60063: E192 0.5 %, E96 1 %, E48 2 %, E24 5 %, E12 10 %, E6 20 %). */
 export function seriesForTolerance(tol: number): ESeriesName {
@@ -47,7 +48,7 @@ export function PartList({ scenario }: { scenario: Scenario }) {
           {rows.map((r) => (
             <tr key={r.key} className="border-b border-hairline/60">
               <td className="py-1 pr-2">{r.label}</td>
-              <td className="num py-1 pr-2 text-right">{r.value === null ? "none" : formatEng(r.value, r.unit)}</td>
+              <td className="num py-1 pr-2 text-right">{r.value === null ? "none" : formatQuantity(r.value, r.unit)}</td>
               <td className="num py-1 pr-2 text-right">± {(r.tol * 100).toFixed(r.tol < 0.01 ? 2 : 1)} %</td>
               <td className="py-1 text-xs">{r.eText}</td>
             </tr>

@@ -1,4 +1,4 @@
-import type { DiffRow } from "./diff";
+import type { DiffRow } from "@/lib/design/diff";
 import { showValue } from "./RevisionView";
 import { SWEEPABLE_PARAMETERS } from "@/lib/design/parameters";
 import { TEMPLATES } from "@/lib/design/templates";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { useState } from "react";
 import useSWR from "swr";
 import { ago, fetcher, type FetchError } from "./fetcher";
-import { diffBodies } from "./diff";
+import { diffBodies } from "@/lib/design/diff";
 import { DiffTable } from "./DiffTable";
 import { Loading, LoadError } from "./Status";
 

@@ -1,4 +1,4 @@
-import { flatten, type Scalar } from "./diff";
+import { flatten, type Scalar } from "@/lib/design/diff";
 import { formatEng } from "@/lib/units/eng";
 import { TEMPLATES } from "@/lib/design/templates";
 

@@ -1,25 +1,20 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { diffBodies } from "./diff";
-import { DiffTable } from "./DiffTable";
-
-type Save = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<
-  | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string }
->;
+import { SaveConflict, type ConflictingRevision, type SaveFn } from "./SaveConflict";
+import { BUTTON_PRIMARY } from "@/components/shell/classes";
 
 /**
  * Save a revision by editing the scenario as JSON (the workbench saves through the same server action). A stale
  * base shows both versions side by side and lets the user save theirs on top of the newer one deliberately.
  */
-export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body, save }: { scenarioId: string; baseRevisionId: string; baseNumber: number; body: unknown; save: Save }) {
+export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body, save }: { scenarioId: string; baseRevisionId: string; baseNumber: number; body: unknown; save: SaveFn }) {
   const router = useRouter();
   const [text, setText] = useState(() => JSON.stringify(body, null, 2));
   const [note, setNote] = useState("");
   const [base, setBase] = useState({ id: baseRevisionId, number: baseNumber });
   const [err, setErr] = useState<{ field?: "body" | "note"; message: string } | null>(null);
-  const [conflict, setConflict] = useState<{ number: number; author: string; body: unknown; revisionId: string } | null>(null);
+  const [conflict, setConflict] = useState<ConflictingRevision | null>(null);
   const [saved, setSaved] = useState<number | null>(null);
   const [pending, start] = useTransition();
 
@@ -73,27 +68,21 @@ export function SaveRevisionForm({ scenarioId, baseRevisionId, baseNumber, body,
       <label htmlFor="rev-note" className="mt-3 block text-xs font-medium text-ink-muted">Note</label>
       <input id="rev-note" value={note} onChange={(e) => setNote(e.target.value)} maxLength={2000} placeholder="What changed and why" className="mt-1 w-full rounded border border-hairline px-2 py-1.5 text-sm" />
       <div className="mt-3 flex items-center gap-3">
-        <button type="submit" disabled={pending} className="rounded bg-signal px-4 py-1.5 text-sm font-medium text-white hover:bg-signal-dark disabled:opacity-60">
+        <button type="submit" disabled={pending} className={BUTTON_PRIMARY}>
           {pending ? "Saving…" : "Save revision"}
         </button>
         {saved !== null && !err && <p role="status" className="text-sm text-verdict-pass">Saved as revision {saved}.</p>}
       </div>
       {err && !err.field && <p role="alert" className="mt-2 text-sm text-verdict-fail">Not saved: {err.message}</p>}
       {conflict && (
-        <div className="mt-4 rounded border border-verdict-warn/40">
-          <p className="px-4 py-2 text-sm">
-            Conflict: revision {conflict.number} by {conflict.author} is newer than the one you edited. Differences from it to yours:
-          </p>
-          <DiffTable rows={diffBodies(conflict.body, mine)} beforeLabel={`Revision ${conflict.number}`} afterLabel="Yours" />
-          <div className="flex gap-2 p-3">
-            <button type="button" onClick={() => { setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
-              Keep mine, save on top of revision {conflict.number}
-            </button>
-            <button type="button" onClick={() => { setText(JSON.stringify(conflict.body, null, 2)); setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
-              Take theirs
-            </button>
-          </div>
-        </div>
+        <SaveConflict current={conflict} mine={mine}>
+          <button type="button" onClick={() => { setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
+            Keep mine, save on top of revision {conflict.number}
+          </button>
+          <button type="button" onClick={() => { setText(JSON.stringify(conflict.body, null, 2)); setBase({ id: conflict.revisionId, number: conflict.number }); setConflict(null); setErr(null); }} className="rounded border border-hairline px-3 py-1 text-sm">
+            Take theirs
+          </button>
+        </SaveConflict>
       )}
     </form>
   );

@@ -1,6 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
+import { BUTTON } from "@/components/shell/classes";
 
 type Fork = (input: { revisionId: string; title?: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
 type SetDeleted = (input: { scenarioId: string; deleted: boolean }) => Promise<{ ok: true } | { ok: false; message: string }>;
@@ -31,7 +32,7 @@ export function ForkButton({ revisionId, fork, label = "Fork to my drafts" }: { 
     <ActionButton
       label={label}
       busyLabel="Forking…"
-      className="rounded border border-hairline bg-white px-3 py-1.5 text-sm hover:border-signal"
+      className={BUTTON}
       run={async () => {
         const r = await fork({ revisionId });
         if (!r.ok) return r.message;

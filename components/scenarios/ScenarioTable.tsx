@@ -5,6 +5,7 @@ import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
+import { BUTTON_PRIMARY } from "@/components/shell/classes";
 
 interface Row {
   id: string;
@@ -238,7 +239,7 @@ function NewScenario({ templates, onCreated }: { templates: { id: string; title:
           {templates.map((t) => <option key={t.id} value={t.id}>{t.title}</option>)}
         </select>
       </div>
-      <button type="submit" disabled={busy} className="rounded bg-signal px-4 py-1.5 text-sm font-medium text-white hover:bg-signal-dark disabled:opacity-60">
+      <button type="submit" disabled={busy} className={BUTTON_PRIMARY}>
         {busy ? "Creating…" : "Create"}
       </button>
       {message && !errors.title && <p role="alert" className="w-full text-sm text-verdict-fail">Not done: {message}</p>}

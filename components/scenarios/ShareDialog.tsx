@@ -3,6 +3,7 @@ import { useRef, useState } from "react";
 import useSWR from "swr";
 import { fetcher, send, type FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
+import { BUTTON, FIELD } from "@/components/shell/classes";
 
 interface Link {
   id: string;
@@ -64,7 +65,7 @@ export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish
           setOpen(true);
           dialog.current?.showModal();
         }}
-        className="rounded border border-hairline bg-white px-3 py-1.5 text-sm hover:border-signal"
+        className={BUTTON}
       >
         Share link
       </button>
@@ -83,7 +84,7 @@ export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish
             <div className="mt-2 flex items-end gap-2">
               <div className="flex flex-col gap-1">
                 <label htmlFor="link-days" className="text-xs text-ink-muted">Expires after</label>
-                <select id="link-days" value={days} onChange={(e) => setDays(e.target.value)} className="rounded border border-hairline bg-white px-2 py-1 text-sm">
+                <select id="link-days" value={days} onChange={(e) => setDays(e.target.value)} className={FIELD}>
                   {["1", "7", "14", "30", "90"].map((d) => <option key={d} value={d}>{d} day{d === "1" ? "" : "s"}</option>)}
                 </select>
               </div>

@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { send } from "./fetcher";
+import { FIELD } from "@/components/shell/classes";
 
 /** Designers set a scenario's status (draft, review, final) through PATCH /api/scenarios/:id. */
 export function StatusSelect({ scenarioId, status, statuses }: { scenarioId: string; status: string; statuses: readonly string[] }) {
@@ -27,7 +28,7 @@ export function StatusSelect({ scenarioId, status, statuses }: { scenarioId: str
   return (
     <span className="inline-flex items-center gap-2">
       <label htmlFor="scenario-status" className="text-sm text-ink-muted">Status</label>
-      <select id="scenario-status" value={value} disabled={busy} onChange={(e) => change(e.target.value)} className="rounded border border-hairline bg-white px-2 py-1 text-sm">
+      <select id="scenario-status" value={value} disabled={busy} onChange={(e) => change(e.target.value)} className={FIELD}>
         {statuses.map((s) => <option key={s} value={s}>{s}</option>)}
       </select>
       {err && <span role="alert" className="text-xs text-verdict-fail">Not changed: {err}</span>}

@@ -1,21 +1,19 @@
 import Link from "next/link";
-import { currentUser } from "@/lib/auth/current";
-import { teamsOfUser } from "@/lib/db/users";
+import type { ComponentProps } from "react";
 import { UserMenu } from "@/components/account/UserMenu";
-import { signOutAction, switchTeamAction } from "@/app/(account)/actions";
 
-async function signedIn() {
-  try {
-    const user = await currentUser();
-    return user ? { user, teams: await teamsOfUser(user.id) } : null;
-  } catch {
-    return null; // the database is down: the page (and its health badge) still renders
-  }
+type Action = ComponentProps<typeof UserMenu>["switchTeam"];
+
+/** Who is signed in, their teams, and the actions of the user menu (the root layout reads them on the server). */
+export interface TopBarAccount {
+  user: { name: string; role: string; teamId: string };
+  teams: { teamId: string; teamName: string; role: string }[];
+  switchTeam: Action;
+  signOut: () => Promise<void>;
 }
 
-/** The quiet bar above every page: the product name, the main places, and who is signed in. */
-export async function TopBar() {
-  const me = await signedIn();
+/** The quiet bar above every page: the product name, the main places, and who is signed in (`me`, null when nobody is). */
+export function TopBar({ me }: { me: TopBarAccount | null }) {
   return (
     <header className="no-print border-b border-hairline bg-white">
       <nav className="mx-auto flex h-12 max-w-screen-2xl items-center gap-6 px-4 text-sm" aria-label="Main">
@@ -35,8 +33,8 @@ export async function TopBar() {
             role={me.user.role}
             teamId={me.user.teamId}
             teams={me.teams}
-            switchTeam={switchTeamAction}
-            signOut={signOutAction}
+            switchTeam={me.switchTeam}
+            signOut={me.signOut}
           />
         ) : (
           <Link href="/sign-in" className="ml-auto rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>

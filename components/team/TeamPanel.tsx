@@ -3,6 +3,7 @@ import { useState } from "react";
 import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "@/components/scenarios/fetcher";
 import { Loading, LoadError } from "@/components/scenarios/Status";
+import { BUTTON_PRIMARY, FIELD } from "@/components/shell/classes";
 
 type Role = "viewer" | "designer" | "lead";
 interface Member { userId: string; name: string; email: string; role: Role; joinedAt: string }
@@ -57,7 +58,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
                           id={`role-${m.userId}`}
                           value={m.role}
                           onChange={(e) => act(() => send("/api/team/members", "PATCH", { userId: m.userId, role: e.target.value }))}
-                          className="rounded border border-hairline bg-white px-2 py-1 text-sm"
+                          className={FIELD}
                         >
                           <option value="viewer">viewer</option>
                           <option value="designer">designer</option>
@@ -160,7 +161,7 @@ function InviteForm({ onSent }: { onSent: () => void }) {
           <option value="lead">lead</option>
         </select>
       </div>
-      <button type="submit" disabled={busy} className="rounded bg-signal px-4 py-1.5 text-sm font-medium text-white hover:bg-signal-dark disabled:opacity-60">
+      <button type="submit" disabled={busy} className={BUTTON_PRIMARY}>
         {busy ? "Sending…" : "Invite"}
       </button>
       {msg && <p role={msg.ok ? "status" : "alert"} className={`w-full text-sm ${msg.ok ? "text-verdict-pass" : "text-verdict-fail"}`}>{msg.ok ? msg.text : `Not done: ${msg.text}`}</p>}

@@ -7,7 +7,7 @@
 import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { compareStep, shiftTime, type Comparison, type Tolerances } from "@/lib/traces/compare";
-import type { SimulatedStep } from "@/lib/traces/simulate";
+import type { SimulatedStep } from "@/lib/design/review";
 import { formatEng } from "@/lib/units/eng";
 import { WavePlot } from "./WavePlot";
 import { ComparisonTable } from "./ComparisonTable";

@@ -1,5 +1,5 @@
 /** Measured against simulated, figure by figure, with the tolerance and the verdict of each row. */
-import { formatEng } from "@/lib/units/eng";
+import { formatQuantity } from "@/lib/units/quantity";
 import { VerdictBadge, type VerdictWord } from "./VerdictBadge";
 
 export interface ComparisonRowView {
@@ -13,12 +13,6 @@ export interface ComparisonRowView {
   tolerance: number;
   verdict: VerdictWord;
   note?: string;
-}
-
-function value(v: number | null, unit: string): string {
-  if (v === null) return "—";
-  if (unit === "%" || unit === "% of step") return `${v.toFixed(2)} %`;
-  return formatEng(v, unit, 3);
 }
 
 export function ComparisonTable({ rows, verdict, testId = "comparison-table" }: { rows: ComparisonRowView[]; verdict: VerdictWord; testId?: string }) {
@@ -39,8 +33,8 @@ export function ComparisonTable({ rows, verdict, testId = "comparison-table" }: 
           {rows.map((r) => (
             <tr key={r.key} className="border-b border-hairline/60" data-testid={`comparison-${r.key}`}>
               <td className="py-1 pr-2">{r.label}{r.note && <span className="ml-1 text-xs text-ink-muted">({r.note})</span>}</td>
-              <td className="num py-1 pr-2 text-right">{value(r.measured, r.unit)}</td>
-              <td className="num py-1 pr-2 text-right">{r.key === "rms" ? "—" : value(r.simulated, r.unit)}</td>
+              <td className="num py-1 pr-2 text-right">{formatQuantity(r.measured, r.unit)}</td>
+              <td className="num py-1 pr-2 text-right">{r.key === "rms" ? "—" : formatQuantity(r.simulated, r.unit)}</td>
               <td className="num py-1 pr-2 text-right">
                 {r.difference === null ? "—" : `${r.difference >= 0 && r.key !== "rms" ? "+" : ""}${r.difference.toFixed(1)} ${r.differenceUnit === "pts" ? "pts" : "%"}`}
               </td>

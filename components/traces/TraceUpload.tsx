@@ -6,6 +6,7 @@
 import { useEffect, useMemo, useState, type FormEvent } from "react";
 import { parseTraceCsv, TraceParseError, type ChannelOption, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 import { formatEng } from "@/lib/units/eng";
+import { FIELD } from "@/components/shell/classes";
 
 type Convert = "keep" | "factor" | "sense";
 interface ChannelForm { name: string; convert: Convert; value: string; unit: "" | "V" | "A" }
@@ -94,7 +95,6 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
     }
   }
 
-  const field = "rounded border border-hairline bg-white px-2 py-1 text-sm";
   const problems = serverError?.problems ?? (preview && !preview.ok ? preview.problems : []);
   return (
     <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
@@ -106,11 +106,11 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
         </label>
         <label className="flex flex-col text-sm">
           <span className="text-xs text-ink-muted">Label</span>
-          <input className={field} value={label} onChange={(e) => setLabel(e.target.value)} maxLength={200} aria-label="Label" />
+          <input className={FIELD} value={label} onChange={(e) => setLabel(e.target.value)} maxLength={200} aria-label="Label" />
         </label>
         <label className="flex flex-col text-sm">
           <span className="text-xs text-ink-muted">Time unit</span>
-          <select className={field} value={timeUnit} onChange={(e) => setTimeUnit(e.target.value)} aria-label="Time unit">
+          <select className={FIELD} value={timeUnit} onChange={(e) => setTimeUnit(e.target.value)} aria-label="Time unit">
             <option value="">from the file</option>
             <option value="s">s</option><option value="ms">ms</option><option value="µs">µs</option><option value="ns">ns</option>
           </select>
@@ -122,10 +122,10 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
           {channels.map((c, i) => (
             <div key={i} className="flex flex-wrap items-end gap-3 py-1 text-sm">
               <label className="flex flex-col"><span className="text-xs text-ink-muted">Channel {i + 1} name</span>
-                <input className={field} value={c.name} aria-label={`Channel ${i + 1} name`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, name: e.target.value } : x)))} />
+                <input className={FIELD} value={c.name} aria-label={`Channel ${i + 1} name`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, name: e.target.value } : x)))} />
               </label>
               <label className="flex flex-col"><span className="text-xs text-ink-muted">Conversion</span>
-                <select className={field} value={c.convert} aria-label={`Channel ${i + 1} conversion`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, convert: e.target.value as Convert } : x)))}>
+                <select className={FIELD} value={c.convert} aria-label={`Channel ${i + 1} conversion`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, convert: e.target.value as Convert } : x)))}>
                   <option value="keep">keep as written</option>
                   <option value="factor">multiply by a probe factor</option>
                   <option value="sense">volts across a sense resistor → amps</option>
@@ -133,12 +133,12 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
               </label>
               {c.convert !== "keep" && (
                 <label className="flex flex-col"><span className="text-xs text-ink-muted">{c.convert === "sense" ? "Sense resistor, Ω" : "Factor (e.g. 10 for 10 A/V)"}</span>
-                  <input className={`${field} num w-28`} value={c.value} inputMode="decimal" aria-label={c.convert === "sense" ? `Channel ${i + 1} sense resistor` : `Channel ${i + 1} factor`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, value: e.target.value } : x)))} />
+                  <input className={`${FIELD} num w-28`} value={c.value} inputMode="decimal" aria-label={c.convert === "sense" ? `Channel ${i + 1} sense resistor` : `Channel ${i + 1} factor`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, value: e.target.value } : x)))} />
                 </label>
               )}
               {c.convert === "factor" && (
                 <label className="flex flex-col"><span className="text-xs text-ink-muted">Unit after</span>
-                  <select className={field} value={c.unit} aria-label={`Channel ${i + 1} unit after`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, unit: e.target.value as ChannelForm["unit"] } : x)))}>
+                  <select className={FIELD} value={c.unit} aria-label={`Channel ${i + 1} unit after`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, unit: e.target.value as ChannelForm["unit"] } : x)))}>
                     <option value="">same</option><option value="A">A</option><option value="V">V</option>
                   </select>
                 </label>
@@ -151,7 +151,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
         <legend className="px-1 text-xs text-ink-muted">Instrument settings (kept with the trace)</legend>
         {([["probe", "Probe / shunt"], ["verticalScale", "Vertical scale"], ["timebase", "Timebase"], ["bandwidthLimit", "Bandwidth limit"], ["notes", "Notes"]] as const).map(([k, l]) => (
           <label key={k} className="flex flex-col"><span className="text-xs text-ink-muted">{l}</span>
-            <input className={field} value={settings[k]} maxLength={500} aria-label={l} onChange={(e) => setSettings({ ...settings, [k]: e.target.value })} />
+            <input className={FIELD} value={settings[k]} maxLength={500} aria-label={l} onChange={(e) => setSettings({ ...settings, [k]: e.target.value })} />
           </label>
         ))}
       </fieldset>

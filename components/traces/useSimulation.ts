@@ -8,7 +8,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import type { Scenario } from "@/lib/design/schema";
-import type { ReviewSimulation } from "@/lib/traces/simulate";
+import type { ReviewSimulation } from "@/lib/design/review";
 import { WorkerBridge, isAbortError } from "@/lib/workbench/bridge";
 import { createSimWorker } from "@/lib/workbench/worker";
 import type { SimWorkerApi } from "@/workers/sim.worker";

@@ -6,16 +6,13 @@
 import { useRef, useState } from "react";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import type { Scenario } from "@/lib/design/schema";
-import { scenarioDiff } from "@/lib/workbench/diff";
+import { SaveConflict, type ConflictingRevision, type SaveFn } from "@/components/scenarios/SaveConflict";
 import { useWb, useWbStore } from "./context";
+import { TOOL_BUTTON } from "@/components/shell/classes";
 
-export type SaveResult =
-  | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string };
+export type { SaveFn };
 
-export type SaveFn = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<SaveResult>;
-
-const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] hover:bg-paper focus-visible:outline-2 focus-visible:outline-signal disabled:opacity-40";
+const BTN = TOOL_BUTTON;
 
 export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   scenarioId: string | null; revisionId: string | null; save: SaveFn | null; onSaved?: (revisionNumber: number) => void;
@@ -27,7 +24,7 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   const [base, setBase] = useState(revisionId);
   const [busy, setBusy] = useState(false);
   const [msg, setMsg] = useState<string | null>(null);
-  const [conflict, setConflict] = useState<{ revisionId: string; number: number; author: string; createdAt: string; theirs: Scenario | null; diff: ReturnType<typeof scenarioDiff> } | null>(null);
+  const [conflict, setConflict] = useState<{ current: ConflictingRevision; theirs: Scenario | null; mine: Scenario } | null>(null);
 
   if (!save && scenarioId) {
     return <span className="text-[12px] text-ink-muted" title="Your role can read and comment; edits here are not saved">Read only</span>;
@@ -58,7 +55,7 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
         } catch {
           theirs = null;
         }
-        setConflict({ revisionId: c.revisionId, number: c.number, author: c.author, createdAt: c.createdAt, theirs, diff: scenarioDiff(body, theirs ?? c.body) });
+        setConflict({ current: { ...c, body: theirs ?? c.body }, theirs, mine: body });
         setMsg(r.message);
       } else {
         setMsg(r.message);
@@ -78,7 +75,7 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
       </button>
       {msg && !open && <span className="ml-2 text-[12px] text-ink-muted" role="status">{msg}</span>}
       {open && (
-        <div className="absolute right-0 z-30 mt-1 w-96 rounded border border-hairline bg-white p-3 shadow-lg" role="dialog" aria-label="Save revision"
+        <div className={`absolute right-0 z-30 mt-1 ${conflict ? "w-[36rem]" : "w-96"} rounded border border-hairline bg-white p-3 shadow-lg`} role="dialog" aria-label="Save revision"
           onKeyDown={(e) => { if (e.key === "Escape") { e.stopPropagation(); setOpen(false); openButton.current?.focus(); } }}>
           <label htmlFor="save-note" className="text-[12px] font-semibold">Note for this revision</label>
           <textarea id="save-note" className="mt-1 w-full rounded border border-hairline p-1.5 text-[13px]" rows={2} maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} data-testid="save-note" />
@@ -90,26 +87,14 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
           </div>
           {msg && <p className="mt-2 text-[12px] text-verdict-fail" role="alert" data-testid="save-message">{msg}</p>}
           {conflict && (
-            <div className="mt-2 rounded border border-verdict-warn/50 bg-verdict-warn/5 p-2 text-[12px]" data-testid="save-conflict">
-              <p className="font-semibold text-verdict-warn">Conflict: revision {conflict.number} by {conflict.author} ({new Date(conflict.createdAt).toLocaleString()}) was saved after the one you opened.</p>
-              <table className="mt-1 w-full text-[11px]">
-                <thead><tr className="text-left text-ink-muted"><th>Field</th><th>Yours</th><th>Theirs</th></tr></thead>
-                <tbody>
-                  {conflict.diff.slice(0, 12).map((d) => (
-                    <tr key={d.path}><td className="pr-1">{d.path}</td><td className="num pr-1">{JSON.stringify(d.mine)}</td><td className="num">{JSON.stringify(d.theirs)}</td></tr>
-                  ))}
-                </tbody>
-              </table>
-              {conflict.diff.length > 12 && <p className="text-ink-muted">…and {conflict.diff.length - 12} more</p>}
-              <div className="mt-2 flex gap-2">
-                {conflict.theirs && (
-                  <button type="button" className={BTN} onClick={() => { store.getState().load(conflict.theirs!); setBase(conflict.revisionId); setConflict(null); setMsg(`Opened revision ${conflict.number}`); onSaved?.(conflict.number); }}>
-                    Open theirs (drop mine)
-                  </button>
-                )}
-                <button type="button" className={BTN} onClick={() => doSave(conflict.revisionId)}>Save mine on top</button>
-              </div>
-            </div>
+            <SaveConflict current={conflict.current} mine={conflict.mine}>
+              {conflict.theirs && (
+                <button type="button" className={BTN} onClick={() => { store.getState().load(conflict.theirs!); setBase(conflict.current.revisionId); setConflict(null); setMsg(`Opened revision ${conflict.current.number}`); onSaved?.(conflict.current.number); }}>
+                  Open theirs (drop mine)
+                </button>
+              )}
+              <button type="button" className={BTN} onClick={() => doSave(conflict.current.revisionId)}>Save mine on top</button>
+            </SaveConflict>
           )}
         </div>
       )}

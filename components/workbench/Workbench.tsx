@@ -21,6 +21,7 @@ import { downloadText } from "@/components/plots/ExportMenu";
 import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
 import { SaveControl, type SaveFn } from "./SaveControl";
+import { TOOL_BUTTON } from "@/components/shell/classes";
 
 export interface WorkbenchProps {
   scenario: Scenario;
@@ -58,7 +59,7 @@ function focusField(key: string) {
   el.scrollIntoView({ block: "nearest" });
 }
 
-const BTN = "rounded border border-hairline bg-white px-2 py-1 text-[13px] text-ink hover:bg-paper disabled:opacity-40 focus-visible:outline-2 focus-visible:outline-signal";
+const BTN = `${TOOL_BUTTON} text-ink`;
 
 function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps) {
   const store = useWbStore();

@@ -2,12 +2,12 @@ import "server-only";
 import { z, type ZodType } from "zod";
 import { ApiError } from "./errors";
 import { readLimitedBytes } from "./body";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError, fieldErrors } from "@/lib/errors";
 import { sessionFromCookieHeader } from "@/lib/auth/session-config";
 import { resolveCurrentUser } from "@/lib/db/users";
-import { roleAtLeast, type CurrentUser, type Role } from "@/lib/auth/roles";
+import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 
-export { ApiError };
+export { ApiError, fieldErrors };
 
 /** Default largest accepted request body, bytes. */
 export const DEFAULT_MAX_BODY_BYTES = 256 * 1024;
@@ -23,15 +23,6 @@ export async function userFromRequest(req: Request): Promise<CurrentUser | null>
   return resolveCurrentUser(s.userId, s.teamId, s.sv);
 }
 
-/** zod issues as `{ "field.path": ["message"] }`; the root is "_". */
-export function fieldErrors(error: z.ZodError): Record<string, string[]> {
-  const out: Record<string, string[]> = {};
-  for (const issue of error.issues) {
-    const key = issue.path.length ? issue.path.map(String).join(".") : "_";
-    (out[key] ??= []).push(issue.message);
-  }
-  return out;
-}
 
 async function readBody(req: Request, maxBytes: number): Promise<string> {
   const bytes = await readLimitedBytes(req, maxBytes);

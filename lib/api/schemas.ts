@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { SCENARIO_STATUSES } from "@/lib/db/scenarioBody";
-import { ROLES } from "@/lib/auth/roles";
+import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
+import { ROLES } from "@/lib/shared/roles";
 import { TEMPLATE_IDS } from "@/lib/design/schema";
 
 const uuid = (what: string) => z.string().uuid(`${what} must be an id`);

@@ -3,11 +3,11 @@ import { db } from "@/lib/db/knex";
 import { findUserByEmail, insertUser, normaliseEmail, findUserById, type UserRow } from "@/lib/db/users";
 import { acceptInvitationIn, createTeam } from "@/lib/db/teams";
 import { audit } from "@/lib/db/audit";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { beginAttempt, markAttemptSucceeded, dropAttempt, recentFailures, pruneAttempts, MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
 import { createPasswordResetWithin, consumePasswordReset, MAX_RESETS_PER_HOUR, RESET_TTL_MS } from "@/lib/db/passwordResets";
 import { hashPassword, verifyPassword, verifyAgainstNothing } from "./password";
-import { hashToken, publicBaseUrl } from "./tokens";
+import { hashToken, publicBaseUrl } from "@/lib/shared/tokens";
 import { sendMail } from "@/lib/mail/transport";
 import { passwordResetMail } from "@/lib/mail/messages";
 

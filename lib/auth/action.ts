@@ -1,10 +1,9 @@
 import "server-only";
 import type { z, ZodType } from "zod";
 import { currentUser } from "./current";
-import { roleAtLeast, type CurrentUser, type Role } from "./roles";
+import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 import type { ActionState } from "./action-state";
-import { fieldErrors } from "@/lib/api/handler";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError, fieldErrors } from "@/lib/errors";
 
 export type { ActionState };
 
@@ -65,4 +64,42 @@ export function validatedPublicAction<S extends ZodType>(
 
 function actionFieldErrors(error: z.ZodError): Record<string, string[]> {
   return fieldErrors(error);
+}
+
+/** What an object-input server action answers when it refuses: the reason, for the page to show. */
+export interface Refusal {
+  ok: false;
+  message: string;
+}
+
+/** An action's answer, or a refusal; one type when the answer already has a refusal branch (SaveResult). */
+export type OrRefusal<R> = Refusal extends R ? R : R | Refusal;
+
+/**
+ * One wrapper for server actions called with an object (not a form): checks the session and role on the server,
+ * safeParses the input with zod (the issues' messages joined), runs `fn`, and turns an expected refusal
+ * (DomainError) into `{ ok: false, message }` instead of throwing. `messages` words the session and role refusals
+ * for the action at hand.
+ */
+export function validatedInputAction<S extends ZodType, R>(
+  schema: S,
+  fn: (data: z.output<S>, user: CurrentUser) => Promise<R>,
+  opts: { role?: Role; messages?: { session?: string; role?: string } } = {},
+): (input: z.input<S>) => Promise<OrRefusal<R>> {
+  const refuse = (message: string) => ({ ok: false, message }) as Refusal as OrRefusal<R>;
+  return async (input) => {
+    const user = await currentUser();
+    if (!user) return refuse(opts.messages?.session ?? "Your session has ended: sign in again.");
+    if (opts.role && !roleAtLeast(user.role, opts.role)) {
+      return refuse(opts.messages?.role ?? `This needs the ${opts.role} role or higher.`);
+    }
+    const parsed = schema.safeParse(input);
+    if (!parsed.success) return refuse(parsed.error.issues.map((i) => i.message).join("; "));
+    try {
+      return (await fn(parsed.data, user)) as OrRefusal<R>;
+    } catch (e) {
+      if (e instanceof DomainError) return refuse(e.message);
+      throw e;
+    }
+  };
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { redirect, forbidden } from "next/navigation";
 import { headers } from "next/headers";
 import { getSession } from "./session";
-import { roleAtLeast, type CurrentUser, type Role } from "./roles";
+import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 import { findUserById, resolveCurrentUser, type UserRow } from "@/lib/db/users";
 
 export { roleAtLeast };

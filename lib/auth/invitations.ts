@@ -2,8 +2,8 @@ import "server-only";
 import { createInvitation, INVITATION_TTL_MS, type Invitation } from "@/lib/db/teams";
 import { sendMail } from "@/lib/mail/transport";
 import { invitationMail } from "@/lib/mail/messages";
-import { publicBaseUrl } from "./tokens";
-import type { CurrentUser, Role } from "./roles";
+import { publicBaseUrl } from "@/lib/shared/tokens";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 
 /** A lead invites an address: the invitation is stored (token hashed) and the link e-mailed. */
 export async function inviteMember(actor: CurrentUser, email: string, role: Role): Promise<{ invitation: Invitation; mailSent: boolean }> {

@@ -1,10 +1,10 @@
 import "server-only";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { scenarioRowInTeam } from "./scenarios";
-import type { CurrentUser } from "@/lib/auth/roles";
+import type { CurrentUser } from "@/lib/shared/roles";
 
 export interface CommentRow {
   id: string;

@@ -1,3 +1,4 @@
+import "server-only";
 import knexFactory, { type Knex } from "knex";
 import config from "@/knexfile";
 

@@ -1,21 +1,17 @@
 import "server-only";
+/**
+ * The library's rows and queries: entries, their events, the team's stored tolerances, and the people a change
+ * concerns. The workflow that moves an entry between statuses, and its mails, is lib/library/workflow.ts.
+ */
 import type { Knex } from "knex";
 import { z } from "zod";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { tracesByIds, type TraceSummary } from "./traces";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
-import { sendMail, type OutgoingMail } from "@/lib/mail/transport";
-import { publicBaseUrl } from "@/lib/auth/tokens";
-import { DEFAULT_TOLERANCES, tolerancesSchema, type Tolerances } from "@/lib/traces/compare";
-import { tryUpgradeScenario } from "@/lib/design/upgrade";
-import { TEMPLATES } from "@/lib/design/templates";
-import { idealTransconductance } from "@/lib/design/compile";
-
-export const LIBRARY_STATUSES = ["draft", "submitted", "validated", "retired"] as const;
-export type LibraryStatus = (typeof LIBRARY_STATUSES)[number];
+import type { CurrentUser } from "@/lib/shared/roles";
+import { LIBRARY_STATUSES, type LibraryStatus } from "@/lib/shared/statuses";
 
 /** What the library can be filtered by (all optional; `q` searches title, note and template). */
 export const libraryFiltersSchema = z.object({
@@ -70,10 +66,22 @@ export const comparisonSummarySchema = z.object({
 });
 export type ComparisonSummary = z.infer<typeof comparisonSummarySchema>;
 
+/** What a submission for validation carries (the workflow is lib/library/workflow.ts). */
+export const submitSchema = z.object({
+  /** Revision to submit; the scenario's current revision when absent. */
+  revisionId: z.string().uuid().optional(),
+  note: z.string().trim().min(1, "Write a note for the reviewer").max(4000),
+  traceIds: z.array(z.string().uuid()).min(1, "Attach at least one bench trace").max(20),
+  keyFigures: keyFiguresSchema.default({}),
+  comparisons: z.array(comparisonSummarySchema).max(20).default([]),
+});
+export type SubmitInput = z.infer<typeof submitSchema>;
+
 export interface Evidence {
   traceIds: string[];
   comparisons: ComparisonSummary[];
-  tolerances?: Tolerances;
+  /** The team's tolerances when the entry was submitted (lib/traces/compare: Tolerances). */
+  tolerances?: Record<string, number>;
 }
 
 export interface LibraryEntrySummary {
@@ -117,32 +125,6 @@ export interface LibraryEntryDetail extends LibraryEntrySummary {
   revisionCreatedAt: string;
   events: LibraryEvent[];
   traces: TraceSummary[];
-}
-
-/** Facets of a scenario body the library filters by. Tolerates bodies from before the design schema. */
-export function scenarioFacets(body: unknown, fallbackTemplate: string): {
-  template: string; passElement: string; loadType: string; currentMin: number | null; currentMax: number | null;
-} {
-  const parsed = tryUpgradeScenario(body);
-  if (!parsed.ok) {
-    const b = (body ?? {}) as Record<string, any>;
-    const template = typeof b.template === "string" ? b.template : fallbackTemplate;
-    const info = TEMPLATES.find((t) => t.id === template);
-    return { template, passElement: info?.passElement ?? "", loadType: typeof b.load?.kind === "string" ? b.load.kind : "", currentMin: null, currentMax: null };
-  }
-  const s = parsed.scenario;
-  const info = TEMPLATES.find((t) => t.id === s.template);
-  let passElement: string = info?.passElement ?? s.pass.kind;
-  if (s.template === "source-highside") passElement = s.pass.kind;
-  // The range the design serves: 0 to full scale (the Howland pump drives both ways: −full scale to full scale).
-  const fullScale = Math.abs(idealTransconductance(s) * s.stimulus.commandFullScale);
-  return {
-    template: s.template,
-    passElement,
-    loadType: s.load.cable.length > 0 ? `${s.load.kind}+cable` : s.load.kind,
-    currentMin: s.template === "howland" ? -fullScale : 0,
-    currentMax: fullScale,
-  };
 }
 
 const ENTRY_COLUMNS = [
@@ -253,287 +235,44 @@ export async function entryForRevision(actor: CurrentUser, revisionId: string): 
   return row ? getEntry(actor, row.id) : null;
 }
 
-// ── Mail to the people concerned ───────────────────────────────────────────────────────────────────────────────
+// ── Queries of the workflow (lib/library/workflow.ts) ──────────────────────────────────────────────────────────
 
-interface Recipient { email: string; name: string }
+/** Someone a library change is mailed to. */
+export interface Recipient { email: string; name: string }
 
-async function teamLeads(teamId: string): Promise<Recipient[]> {
+/** The team's leads. */
+export async function teamLeads(teamId: string): Promise<Recipient[]> {
   return db()("memberships as m").join("users as u", "u.id", "m.user_id").where({ "m.team_id": teamId, "m.role": "lead" }).select("u.email", "u.name");
 }
 
-async function usersByIds(ids: (string | null | undefined)[]): Promise<Recipient[]> {
+/** The users with these ids (blanks and repeats skipped). */
+export async function usersByIds(ids: (string | null | undefined)[]): Promise<Recipient[]> {
   const valid = [...new Set(ids.filter((x): x is string => !!x))];
   if (!valid.length) return [];
   return db()("users").whereIn("id", valid).select("email", "name");
 }
 
-export function libraryMail(p: { to: Recipient; subject: string; lines: string[]; entryId: string }): OutgoingMail {
-  const link = `${publicBaseUrl()}/library/${p.entryId}`;
-  const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
-  return {
-    to: p.to.email,
-    subject: p.subject,
-    text: `Hello ${p.to.name},\n\n${p.lines.join("\n\n")}\n\nOpen the entry: ${link}\n`,
-    html: `<div style="font-family:system-ui,sans-serif;color:#1C2430"><p>Hello ${esc(p.to.name)},</p>${p.lines
-      .map((l) => `<p>${esc(l)}</p>`)
-      .join("")}<p><a href="${esc(link)}" style="color:#0F766E">Open the entry</a></p></div>`,
-  };
-}
-
-/** Sends each mail; a mail that cannot be sent is logged and reported, the recorded change stands. */
-async function deliver(mails: OutgoingMail[]): Promise<string[]> {
-  const failed: string[] = [];
-  for (const m of mails) {
-    try {
-      await sendMail(m);
-    } catch (e) {
-      console.error("[library] mail to", m.to, "failed:", (e as Error).message);
-      failed.push(m.to);
-    }
-  }
-  return failed;
-}
-
-function others(list: Recipient[], actor: CurrentUser): Recipient[] {
-  const seen = new Set<string>();
-  return list.filter((r) => r.email !== actor.email && !seen.has(r.email) && seen.add(r.email));
-}
-
-// ── The workflow ───────────────────────────────────────────────────────────────────────────────────────────────
-
-export const submitSchema = z.object({
-  /** Revision to submit; the scenario's current revision when absent. */
-  revisionId: z.string().uuid().optional(),
-  note: z.string().trim().min(1, "Write a note for the reviewer").max(4000),
-  traceIds: z.array(z.string().uuid()).min(1, "Attach at least one bench trace").max(20),
-  keyFigures: keyFiguresSchema.default({}),
-  comparisons: z.array(comparisonSummarySchema).max(20).default([]),
-});
-export type SubmitInput = z.infer<typeof submitSchema>;
-
-export interface WorkflowResult {
-  entryId: string;
-  status: LibraryStatus;
-  /** Addresses whose notification could not be sent (the change is recorded regardless). */
-  mailFailures: string[];
-}
-
-async function recordEvent(
+/** Records one step of an entry's history, and the same in the audit log. */
+export async function recordEvent(
   trx: Knex.Transaction, actor: CurrentUser, entryId: string, action: string, from: string | null, to: string | null, comment: string, detail: Record<string, unknown> = {},
 ) {
   await trx("library_events").insert({ entry_id: entryId, actor_id: actor.id, action, from_status: from, to_status: to, comment, detail: JSON.stringify(detail) });
   await audit({ teamId: actor.teamId, actorId: actor.id, action: `library.${action}`, subjectType: "library_entry", subjectId: entryId, detail: { from, to, comment: comment.slice(0, 500), ...detail } }, trx);
 }
 
-/**
- * A designer (or lead) submits a revision for validation with bench traces and a note. Creates the revision's
- * entry, or resubmits one that was returned. The team's leads are told by mail.
- */
-export async function submitForValidation(actor: CurrentUser, scenarioId: string, input: SubmitInput): Promise<WorkflowResult> {
-  if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot submit revisions for validation.");
-  if (!isUuid(scenarioId)) throw new DomainError(404, "No such scenario.");
-  const result = await db().transaction(async (trx) => {
-    const s = await trx("scenarios").where({ id: scenarioId, team_id: actor.teamId }).whereNull("deleted_at").first();
-    if (!s) throw new DomainError(404, "No such scenario.");
-    const revisionId = input.revisionId ?? s.current_revision_id;
-    const rev = revisionId ? await trx("revisions").where({ id: revisionId, scenario_id: s.id }).first() : null;
-    if (!rev) throw new DomainError(400, "revisionId: not a revision of this scenario.");
-    // FOR SHARE: a trace being deleted right now is waited for (then it is missing, 400), and one attached here
-    // cannot be deleted until this submission commits (then deleteTrace sees it is evidence, 409).
-    const traces = await trx("bench_traces").whereIn("id", input.traceIds).andWhere({ team_id: actor.teamId }).forShare().select("id", "revision_id");
-    const missing = input.traceIds.filter((id) => !traces.some((t) => t.id === id));
-    if (missing.length) throw new DomainError(400, `traceIds: no such bench trace ${missing[0]}.`);
-    const foreign = traces.find((t) => t.revision_id !== rev.id);
-    if (foreign) throw new DomainError(400, `traceIds: trace ${foreign.id} belongs to another revision; upload the capture against revision ${rev.number}.`);
-    for (const c of input.comparisons) {
-      if (!input.traceIds.includes(c.traceId)) throw new DomainError(400, `comparisons: trace ${c.traceId} is not among the attached traces.`);
-    }
-    const tolerances = await getTeamTolerances(actor.teamId, trx);
-    const facets = scenarioFacets(rev.body, s.template);
-    const evidence: Evidence = { traceIds: input.traceIds, comparisons: input.comparisons, tolerances };
-    // A revision has at most one entry (unique index). FOR UPDATE locks nothing while there is no row yet, so two
-    // concurrent first submissions both inserted and one died on the index with a server error: serialise them.
-    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`library-entry:${rev.id}`]);
-    const existing = await trx("library_entries").where({ revision_id: rev.id }).forUpdate().first();
-    const fields = {
-      status: "submitted",
-      title: s.title,
-      template: facets.template,
-      pass_element: facets.passElement,
-      load_type: facets.loadType,
-      current_min: facets.currentMin,
-      current_max: facets.currentMax,
-      key_figures: JSON.stringify(input.keyFigures),
-      evidence: JSON.stringify(evidence),
-      note: input.note,
-      submitted_by: actor.id,
-      submitted_at: trx.fn.now(),
-      validated_by: null,
-      validated_at: null,
-      updated_at: trx.fn.now(),
-    };
-    let entryId: string;
-    let from: string | null = null;
-    if (existing) {
-      if (existing.status !== "draft") {
-        throw new DomainError(409, `Revision ${rev.number} is already ${existing.status}; save a new revision to submit changes.`);
-      }
-      from = existing.status;
-      entryId = existing.id;
-      await trx("library_entries").where({ id: entryId }).update(fields);
-    } else {
-      const [row] = await trx("library_entries")
-        .insert({ ...fields, team_id: actor.teamId, scenario_id: s.id, revision_id: rev.id, created_by: actor.id })
-        .returning("id");
-      entryId = row.id;
-      await recordEvent(trx, actor, entryId, "created", null, "draft", "", { revisionNumber: rev.number });
-      from = "draft";
-    }
-    await recordEvent(trx, actor, entryId, "submitted", from, "submitted", input.note, { traceIds: input.traceIds, revisionNumber: rev.number });
-    return { entryId, title: s.title as string, number: rev.number as number };
-  });
-  const leads = others(await teamLeads(actor.teamId), actor);
-  const mailFailures = await deliver(
-    leads.map((to) =>
-      libraryMail({
-        to,
-        entryId: result.entryId,
-        subject: `Validation requested: ${result.title} rev ${result.number}`,
-        lines: [`${actor.name} submitted “${result.title}” revision ${result.number} to the library with ${input.traceIds.length} bench trace${input.traceIds.length > 1 ? "s" : ""}.`, `Note: ${input.note}`],
-      }),
-    ),
-  );
-  return { entryId: result.entryId, status: "submitted", mailFailures };
-}
-
-/** Status changes after submission. Who may do what is checked here, on the server. */
-const TRANSITIONS: Record<string, { from: LibraryStatus[]; to: LibraryStatus; lead: boolean; verb: string; needsComment: boolean }> = {
-  validate: { from: ["submitted"], to: "validated", lead: true, verb: "validated", needsComment: false },
-  return: { from: ["submitted"], to: "draft", lead: true, verb: "returned", needsComment: true },
-  retire: { from: ["validated", "submitted", "draft"], to: "retired", lead: true, verb: "retired", needsComment: false },
-  withdraw: { from: ["submitted"], to: "draft", lead: false, verb: "withdrew", needsComment: false },
-};
-export type LibraryAction = keyof typeof TRANSITIONS;
-export const LIBRARY_ACTIONS = Object.keys(TRANSITIONS) as LibraryAction[];
-
-/** The action that moves an entry to `status` (the PATCH body names the status). */
-export function actionForStatus(current: LibraryStatus, target: LibraryStatus): LibraryAction | null {
-  if (target === "validated") return "validate";
-  if (target === "retired") return "retire";
-  if (target === "draft" && current === "submitted") return "return";
-  return null;
-}
-
-/**
- * Validate, return (with comments), retire or withdraw an entry. Validate, return and retire are for leads only;
- * the submitter may withdraw their own submission. The submitter (and the scenario owner) are told by mail.
- */
-export async function changeEntryStatus(actor: CurrentUser, entryId: string, action: LibraryAction, comment = ""): Promise<WorkflowResult> {
-  const t = TRANSITIONS[action];
-  if (!t) throw new DomainError(400, `action: unknown action "${action}".`);
-  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
-  if (t.lead && actor.role !== "lead") throw new DomainError(403, `Only a lead can ${action} library entries.`);
-  if (!t.lead && !roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot change library entries.");
-  const text = comment.trim().slice(0, 4000);
-  if (t.needsComment && !text) throw new DomainError(400, "comment: say what needs to change before returning the entry.");
-  const r = await db().transaction(async (trx) => {
-    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).forUpdate().first();
-    if (!e) throw new DomainError(404, "No such library entry.");
-    if (action === "withdraw" && e.submitted_by !== actor.id && actor.role !== "lead") {
-      throw new DomainError(403, "Only the submitter or a lead can withdraw a submission.");
-    }
-    if (!t.from.includes(e.status)) throw new DomainError(409, `The entry is ${e.status}; it cannot be ${t.verb === "withdrew" ? "withdrawn" : t.verb} from there.`);
-    const patch: Record<string, unknown> = { status: t.to, updated_at: trx.fn.now() };
-    if (action === "validate") Object.assign(patch, { validated_by: actor.id, validated_at: trx.fn.now() });
-    await trx("library_entries").where({ id: entryId }).update(patch);
-    await recordEvent(trx, actor, entryId, action === "withdraw" ? "withdrawn" : t.verb, e.status, t.to, text);
-    const owner = await trx("scenarios").where({ id: e.scenario_id }).first("owner_id");
-    const rev = await trx("revisions").where({ id: e.revision_id }).first("number");
-    return { e, ownerId: owner?.owner_id as string | undefined, number: rev?.number as number };
-  });
-  const concerned = others(
-    [...(await usersByIds([r.e.submitted_by, r.ownerId])), ...(action === "withdraw" || action === "retire" ? await teamLeads(actor.teamId) : [])],
-    actor,
-  );
-  const headline: Record<LibraryAction, string> = {
-    validate: `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
-    return: `${actor.name} returned “${r.e.title}” revision ${r.number} with comments.`,
-    retire: `${actor.name} retired “${r.e.title}” revision ${r.number} from the library.`,
-    withdraw: `${actor.name} withdrew “${r.e.title}” revision ${r.number} from validation.`,
-  };
-  const subject: Record<LibraryAction, string> = {
-    validate: `Validated: ${r.e.title} rev ${r.number}`,
-    return: `Returned with comments: ${r.e.title} rev ${r.number}`,
-    retire: `Retired: ${r.e.title} rev ${r.number}`,
-    withdraw: `Withdrawn: ${r.e.title} rev ${r.number}`,
-  };
-  const mailFailures = await deliver(
-    concerned.map((to) => libraryMail({ to, entryId, subject: subject[action], lines: [headline[action], ...(text ? [`Comment: ${text}`] : [])] })),
-  );
-  return { entryId, status: t.to, mailFailures };
-}
-
-/** Any member may comment on an entry; the submitter and the leads hear of it. */
-export async function commentOnEntry(actor: CurrentUser, entryId: string, comment: string): Promise<WorkflowResult> {
-  const text = comment.trim().slice(0, 4000);
-  if (!text) throw new DomainError(400, "comment: write something.");
-  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
-  const e = await db().transaction(async (trx) => {
-    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).first();
-    if (!e) throw new DomainError(404, "No such library entry.");
-    await recordEvent(trx, actor, entryId, "commented", e.status, e.status, text);
-    return e;
-  });
-  const concerned = others([...(await usersByIds([e.submitted_by])), ...(await teamLeads(actor.teamId))], actor);
-  const mailFailures = await deliver(
-    concerned.map((to) => libraryMail({ to, entryId, subject: `Comment on ${e.title}`, lines: [`${actor.name} commented on “${e.title}”:`, text] })),
-  );
-  return { entryId, status: e.status, mailFailures };
-}
-
-/** "Start from this": a new scenario owned by the actor whose revision 1 copies a validated entry's revision. */
-export async function startFromEntry(actor: CurrentUser, entryId: string, title?: string): Promise<{ scenarioId: string; revisionId: string }> {
-  if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot create scenarios.");
-  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
-  return db().transaction(async (trx) => {
-    const e = await trx("library_entries as e")
-      .join("revisions as r", "r.id", "e.revision_id")
-      .where({ "e.id": entryId, "e.team_id": actor.teamId })
-      .first("e.id", "e.status", "e.title", "e.template", "r.id as revision_id", "r.number", "r.body");
-    if (!e) throw new DomainError(404, "No such library entry.");
-    if (e.status !== "validated") throw new DomainError(409, `Only validated entries are starting points; this one is ${e.status}.`);
-    const name = (title?.trim() || `${e.title} (from library)`).slice(0, 200);
-    const [s] = await trx("scenarios").insert({ team_id: actor.teamId, owner_id: actor.id, title: name, template: e.template }).returning("id");
-    const [rev] = await trx("revisions")
-      .insert({
-        scenario_id: s.id, number: 1, parent_id: e.revision_id, author_id: actor.id,
-        note: `Started from the library: “${e.title}” revision ${e.number}`, body: JSON.stringify(e.body),
-      })
-      .returning("id");
-    await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id });
-    await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.start_from", subjectType: "scenario", subjectId: s.id, detail: { entryId, revisionId: e.revision_id } }, trx);
-    return { scenarioId: s.id as string, revisionId: rev.id as string };
-  });
-}
-
-// ── Team tolerances of the measured-vs-simulated verdict ────────────────────────────────────────────────────────
-
-export async function getTeamTolerances(teamId: string, trx: Knex | Knex.Transaction = db()): Promise<Tolerances> {
+/** The team's tolerances as stored (unchecked JSON; lib/library/tolerances.ts parses them), or undefined. */
+export async function storedTeamTolerances(teamId: string, trx: Knex | Knex.Transaction = db()): Promise<unknown> {
   const row = await trx("library_settings").where({ team_id: teamId }).first("tolerances");
-  const parsed = tolerancesSchema.safeParse(row?.tolerances);
-  return parsed.success ? parsed.data : DEFAULT_TOLERANCES;
+  return row?.tolerances;
 }
 
-/** Leads set the team's tolerances. */
-export async function setTeamTolerances(actor: CurrentUser, tolerances: Tolerances): Promise<Tolerances> {
-  if (actor.role !== "lead") throw new DomainError(403, "Only a lead can set the team's tolerances.");
-  const t = tolerancesSchema.parse(tolerances);
+/** Stores the team's tolerances (checked by the caller) and audits the change. */
+export async function storeTeamTolerances(actor: CurrentUser, tolerances: Record<string, number>): Promise<void> {
   await db().transaction(async (trx) => {
     await trx("library_settings")
-      .insert({ team_id: actor.teamId, tolerances: JSON.stringify(t), updated_by: actor.id, updated_at: trx.fn.now() })
+      .insert({ team_id: actor.teamId, tolerances: JSON.stringify(tolerances), updated_by: actor.id, updated_at: trx.fn.now() })
       .onConflict("team_id")
       .merge();
-    await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.tolerances", subjectType: "team", subjectId: actor.teamId, detail: t }, trx);
+    await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.tolerances", subjectType: "team", subjectId: actor.teamId, detail: tolerances }, trx);
   });
-  return t;
 }

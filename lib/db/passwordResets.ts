@@ -1,9 +1,9 @@
 import "server-only";
 import { db } from "./knex";
-import { hashToken, randomToken } from "@/lib/auth/tokens";
+import { hashToken, randomToken } from "@/lib/shared/tokens";
 import { updatePassword } from "./users";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 
 /** How long a password-reset link stays valid, ms (1 hour). */
 export const RESET_TTL_MS = 60 * 60 * 1000;

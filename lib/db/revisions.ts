@@ -1,11 +1,10 @@
 import "server-only";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
-import { checkScenarioBody } from "./scenarioBody";
-import { scenarioRowInTeam } from "./scenarios";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
+import { scenarioRowInTeam, type CheckedScenarioBody } from "./scenarios";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 
 export interface RevisionInfo {
   revisionId: string;
@@ -33,14 +32,15 @@ export type SaveResult =
 /**
  * Saves a new immutable revision on top of `baseRevisionId`. Optimistic concurrency: the scenario row is locked,
  * and when its current revision is no longer the base, nothing is written and the current revision comes back
- * as a conflict for the user to compare with theirs.
+ * as a conflict for the user to compare with theirs. The body is checked by the caller
+ * (lib/scenarios/save.ts: saveRevision).
  */
-export async function saveRevision(
+export async function insertRevision(
   actor: CurrentUser,
-  input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown },
+  input: { scenarioId: string; baseRevisionId: string; note: string; body: CheckedScenarioBody },
 ): Promise<SaveResult> {
   if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot save scenarios.");
-  const body = checkScenarioBody(input.body);
+  const body = input.body;
   const note = input.note.trim().slice(0, 2000);
   return db().transaction(async (trx) => {
     const s = await scenarioRowInTeam(trx, actor, input.scenarioId, { forUpdate: true });

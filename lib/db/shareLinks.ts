@@ -1,12 +1,12 @@
 import "server-only";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
 import { ownsOrLeads, scenarioRowInTeam } from "./scenarios";
 import { getRevisionUnchecked, type RevisionView } from "./revisions";
-import { hashToken, randomToken } from "@/lib/auth/tokens";
-import type { CurrentUser } from "@/lib/auth/roles";
+import { hashToken, randomToken } from "@/lib/shared/tokens";
+import type { CurrentUser } from "@/lib/shared/roles";
 
 /** Longest a public link may live, days. */
 export const MAX_PUBLIC_LINK_DAYS = 90;

@@ -2,10 +2,10 @@ import "server-only";
 import type { Knex } from "knex";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid, normaliseEmail } from "./users";
-import { hashToken, randomToken } from "@/lib/auth/tokens";
-import type { CurrentUser, Role } from "@/lib/auth/roles";
+import { hashToken, randomToken } from "@/lib/shared/tokens";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 
 export { DomainError };
 

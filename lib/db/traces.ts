@@ -2,10 +2,9 @@ import "server-only";
 import type { Knex } from "knex";
 import { db } from "./knex";
 import { audit } from "./audit";
-import { DomainError } from "./errors";
+import { DomainError } from "@/lib/errors";
 import { isUuid } from "./users";
-import { roleAtLeast, type CurrentUser } from "@/lib/auth/roles";
-import type { ParsedTrace } from "@/lib/traces/parse";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 
 /** Float64Array → little-endian bytes (the stored form, independent of the server's byte order). */
 export function encodeFloat64(values: Float64Array): Buffer {
@@ -103,7 +102,8 @@ export interface StoreTraceInput {
   revisionId?: string | null;
   label: string;
   fileName: string;
-  parsed: ParsedTrace;
+  /** The parsed capture (lib/traces/parse: ParsedTrace has this shape): time in s, one column per channel. */
+  parsed: { time: Float64Array; channels: (TraceChannelMeta & { values: Float64Array })[] };
   /** Instrument settings and parsing options as the uploader entered them. */
   settings: Record<string, unknown>;
 }

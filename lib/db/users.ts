@@ -1,7 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { db } from "./knex";
-import { isRole, type CurrentUser, type Role } from "@/lib/auth/roles";
+import { isRole, type CurrentUser, type Role } from "@/lib/shared/roles";
 
 export interface UserRow {
   id: string;

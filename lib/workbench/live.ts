@@ -22,7 +22,6 @@ export interface LiveRunnerOptions {
 
 export type LiveJob<S, R> = (signal: AbortSignal, scenario: S) => Promise<R>;
 
-/** A readable message from whatever a run threw (engine SimError, scenario error, worker crash). */
 /**
  * For objects edited by copying along the changed path: true when any top-level field other than `ignored` changed.
  * (Study settings live in the scenario but do not change what the live run computes.)
@@ -38,6 +37,7 @@ export function changedApartFrom(ignored: readonly string[]) {
   };
 }
 
+/** A readable message from whatever a run threw (engine SimError, scenario error, worker crash). */
 export function errorMessage(e: unknown): string {
   if (e instanceof Error) return e.message || e.name;
   if (e && typeof e === "object" && "message" in e && typeof (e as { message: unknown }).message === "string") {
@@ -96,7 +96,8 @@ export class LiveRunner<S, R, T extends Record<string, unknown>> {
     this.inflight = mine;
     try {
       const result = await this.job(ctl.signal, scenario);
-      // The clock starts when the job actually runs, so queueing behind a stale run is counted too.
+      // The duration counts from the request (startedAt above), not from when the worker took the job: time spent
+      // queued behind a stale run is counted too.
       this.store.getState().finishRun(id, result, this.now() - mine.startedAt);
     } catch (e) {
       if (!isAbortError(e)) this.store.getState().failRun(id, errorMessage(e));

@@ -9,7 +9,7 @@ import { resolveCurrentUser, teamsOfUser } from "@/lib/db/users";
 import { resetTokenState, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordResets";
 import { MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/lib/db/signInAttempts";
 import { createInvitedAccount } from "@/lib/auth/accounts";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { sessionFromCookieHeader } from "@/lib/auth/session-config";
 import { closeDb, cookieFor, FIXTURE_PASSWORD, firstLink, makeFixture, waitForMail, type Fixture } from "./support/fixtures";
 

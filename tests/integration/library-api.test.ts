@@ -7,7 +7,7 @@ import * as library from "@/app/api/library/route";
 import * as libraryEntry from "@/app/api/library/[id]/route";
 import * as scenarioTraces from "@/app/api/scenarios/[id]/traces/route";
 import * as trace from "@/app/api/traces/[id]/route";
-import { MAX_UPLOAD_BYTES } from "@/lib/traces/upload";
+import { MAX_UPLOAD_BYTES } from "@/lib/api/traceUpload";
 import { closeDb, cookieFor, ctx, makeFixture, ORIGIN, request, type Actor, type Fixture } from "./support/fixtures";
 
 type Who = "anonymous" | "viewer" | "designer" | "lead" | "outsider";

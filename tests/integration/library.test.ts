@@ -1,15 +1,15 @@
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("server-only", () => ({}));
 
 import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";
-import type { CurrentUser, Role } from "@/lib/auth/roles";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 import { storeTrace, deleteTrace } from "@/lib/db/traces";
-import {
-  changeEntryStatus, commentOnEntry, getEntry, getTeamTolerances, listEntries, scenarioFacets, setTeamTolerances,
-  startFromEntry, submitForValidation, submitSchema,
-} from "@/lib/db/library";
+import { getEntry, listEntries, submitSchema } from "@/lib/db/library";
+import { changeEntryStatus, commentOnEntry, startFromEntry, submitForValidation } from "@/lib/library/workflow";
+import { getTeamTolerances, setTeamTolerances } from "@/lib/library/tolerances";
+import { scenarioFacets } from "@/lib/library/facets";
 import { parseTraceCsv, DEFAULT_TOLERANCES } from "@/lib/traces";
 import { defaultScenario } from "@/lib/design/templates";
 import { idealTransconductance } from "@/lib/design/compile";
@@ -43,35 +43,46 @@ async function mailTo(email: string, subject: RegExp): Promise<{ subject: string
   return rows.filter((r) => subject.test(r.subject));
 }
 
-describe("library workflow", () => {
-  let a: Awaited<ReturnType<typeof makeTeam>>;
-  let other: Awaited<ReturnType<typeof makeTeam>>;
-  let traceId: string;
-  let entryId: string;
+async function withTrace(tag: string) {
+  const team = await makeTeam(tag);
+  const t = await storeTrace(team.users.designer, { scenarioId: team.scenarioId, label: "Bench step", fileName: "s.csv", parsed: parseTraceCsv(capture()), settings: {} });
+  return { ...team, traceId: t.id };
+}
 
-  beforeAll(async () => {
-    a = await makeTeam("A");
-    other = await makeTeam("B");
-    const t = await storeTrace(a.users.designer, { scenarioId: a.scenarioId, label: "Bench step", fileName: "s.csv", parsed: parseTraceCsv(capture()), settings: {} });
-    traceId = t.id;
+const submission = (traceId: string) =>
+  submitSchema.parse({
+    note: "Built on the bench board; scope capture of the 0→750 mA step attached.",
+    traceIds: [traceId],
+    keyFigures: { phaseMarginDeg: 62, overshootPct: 3.1 },
+    comparisons: [{
+      traceId, channel: 0, offset: -1e-5, verdict: "pass",
+      rows: [{ key: "overshoot", label: "Overshoot", unit: "%", measured: 3.4, simulated: 3.1, difference: 0.3, differenceUnit: "pts", tolerance: 5, verdict: "pass" }],
+    }],
   });
+
+/** A team whose revision 1 the designer has submitted with one bench trace. */
+async function submittedEntry(tag: string) {
+  const team = await withTrace(tag);
+  const r = await submitForValidation(team.users.designer, team.scenarioId, submission(team.traceId));
+  return { ...team, entryId: r.entryId };
+}
+
+/** The same, validated by the team's lead. */
+async function validatedEntry(tag: string) {
+  const team = await submittedEntry(tag);
+  await changeEntryStatus(team.users.lead, team.entryId, "validate");
+  return team;
+}
+
+// Every test builds its own team and entry (fresh addresses, so mail counts are its own): any order, any subset.
+describe("library workflow", () => {
   afterAll(async () => {
     await db().destroy();
     (globalThis as { quellKnex?: unknown }).quellKnex = undefined;
   });
 
-  const submission = () =>
-    submitSchema.parse({
-      note: "Built on the bench board; scope capture of the 0→750 mA step attached.",
-      traceIds: [traceId],
-      keyFigures: { phaseMarginDeg: 62, overshootPct: 3.1 },
-      comparisons: [{
-        traceId, channel: 0, offset: -1e-5, verdict: "pass",
-        rows: [{ key: "overshoot", label: "Overshoot", unit: "%", measured: 3.4, simulated: 3.1, difference: 0.3, differenceUnit: "pts", tolerance: 5, verdict: "pass" }],
-      }],
-    });
-
-  it("derives filter facets from the scenario body", () => {
+  it("derives filter facets from the scenario body", async () => {
+    const a = await makeTeam("facets");
     const f = scenarioFacets(a.body, "sink-npn");
     expect(f.template).toBe("sink-npn");
     expect(f.passElement).toBe("npn");
@@ -83,76 +94,85 @@ describe("library workflow", () => {
   });
 
   it("refuses a submission from a viewer, without traces, or with another revision's trace", async () => {
-    await expect(submitForValidation(a.users.viewer, a.scenarioId, submission())).rejects.toMatchObject({ status: 403 });
+    const a = await withTrace("refusals");
+    const other = await makeTeam("refusals-other");
+    await expect(submitForValidation(a.users.viewer, a.scenarioId, submission(a.traceId))).rejects.toMatchObject({ status: 403 });
     expect(() => submitSchema.parse({ note: "x", traceIds: [] })).toThrow(/Attach at least one bench trace/);
-    expect(() => submitSchema.parse({ note: " ", traceIds: [traceId] })).toThrow(/Write a note/);
+    expect(() => submitSchema.parse({ note: " ", traceIds: [a.traceId] })).toThrow(/Write a note/);
     const foreign = await storeTrace(other.users.designer, { scenarioId: other.scenarioId, label: "o", fileName: "o.csv", parsed: parseTraceCsv(capture()), settings: {} });
-    await expect(submitForValidation(a.users.designer, a.scenarioId, { ...submission(), traceIds: [foreign.id], comparisons: [] })).rejects.toMatchObject({ status: 400 });
+    await expect(submitForValidation(a.users.designer, a.scenarioId, { ...submission(a.traceId), traceIds: [foreign.id], comparisons: [] })).rejects.toMatchObject({ status: 400 });
   });
 
   it("a designer submits: entry submitted, history, audit log, and a mail to the lead", async () => {
-    const r = await submitForValidation(a.users.designer, a.scenarioId, submission());
+    const a = await withTrace("submit");
+    const r = await submitForValidation(a.users.designer, a.scenarioId, submission(a.traceId));
     expect(r.status).toBe("submitted");
     expect(r.mailFailures).toEqual([]);
-    entryId = r.entryId;
-    const e = await getEntry(a.users.viewer, entryId);
+    const e = await getEntry(a.users.viewer, r.entryId);
     expect(e).toMatchObject({ status: "submitted", revisionId: a.revisionId, revisionNumber: 1, submittedBy: a.users.designer.id, template: "sink-npn", passElement: "npn" });
-    expect(e.evidence.traceIds).toEqual([traceId]);
+    expect(e.evidence.traceIds).toEqual([a.traceId]);
     expect(e.evidence.tolerances).toEqual(DEFAULT_TOLERANCES);
-    expect(e.traces.map((t) => t.id)).toEqual([traceId]);
+    expect(e.traces.map((t) => t.id)).toEqual([a.traceId]);
     expect(e.events.map((x) => x.action)).toEqual(["created", "submitted"]);
-    expect(await db()("audit_log").where({ subject_id: entryId, action: "library.submitted" }).first()).toBeTruthy();
+    expect(await db()("audit_log").where({ subject_id: r.entryId, action: "library.submitted" }).first()).toBeTruthy();
     const mails = await mailTo(a.users.lead.email, /^Validation requested:/);
     expect(mails).toHaveLength(1);
-    expect(mails[0].text_body).toContain(`/library/${entryId}`);
+    expect(mails[0].text_body).toContain(`/library/${r.entryId}`);
     // The evidence cannot be deleted while the entry is under review.
-    await expect(deleteTrace(a.users.designer, traceId)).rejects.toMatchObject({ status: 409 });
+    await expect(deleteTrace(a.users.designer, a.traceId)).rejects.toMatchObject({ status: 409 });
     // A second submission of the same revision is a conflict.
-    await expect(submitForValidation(a.users.designer, a.scenarioId, submission())).rejects.toMatchObject({ status: 409 });
+    await expect(submitForValidation(a.users.designer, a.scenarioId, submission(a.traceId))).rejects.toMatchObject({ status: 409 });
   });
 
   it("a viewer or a designer cannot validate, return or retire; another team cannot see the entry", async () => {
+    const a = await submittedEntry("roles");
+    const other = await makeTeam("roles-other");
     for (const who of [a.users.viewer, a.users.designer]) {
-      await expect(changeEntryStatus(who, entryId, "validate")).rejects.toMatchObject({ status: 403, message: "Only a lead can validate library entries." });
-      await expect(changeEntryStatus(who, entryId, "return", "no")).rejects.toMatchObject({ status: 403 });
-      await expect(changeEntryStatus(who, entryId, "retire")).rejects.toMatchObject({ status: 403 });
+      await expect(changeEntryStatus(who, a.entryId, "validate")).rejects.toMatchObject({ status: 403, message: "Only a lead can validate library entries." });
+      await expect(changeEntryStatus(who, a.entryId, "return", "no")).rejects.toMatchObject({ status: 403 });
+      await expect(changeEntryStatus(who, a.entryId, "retire")).rejects.toMatchObject({ status: 403 });
     }
-    await expect(changeEntryStatus(other.users.lead, entryId, "validate")).rejects.toMatchObject({ status: 404 });
-    await expect(getEntry(other.users.lead, entryId)).rejects.toMatchObject({ status: 404 });
-    expect((await getEntry(a.users.lead, entryId)).status).toBe("submitted");
+    await expect(changeEntryStatus(other.users.lead, a.entryId, "validate")).rejects.toMatchObject({ status: 404 });
+    await expect(getEntry(other.users.lead, a.entryId)).rejects.toMatchObject({ status: 404 });
+    expect((await getEntry(a.users.lead, a.entryId)).status).toBe("submitted");
   });
 
   it("the lead returns it with comments; the designer hears of it and resubmits", async () => {
-    await expect(changeEntryStatus(a.users.lead, entryId, "return", "  ")).rejects.toMatchObject({ status: 400 });
-    const r = await changeEntryStatus(a.users.lead, entryId, "return", "Capture the load step too, please.");
+    const a = await submittedEntry("return");
+    await expect(changeEntryStatus(a.users.lead, a.entryId, "return", "  ")).rejects.toMatchObject({ status: 400 });
+    const r = await changeEntryStatus(a.users.lead, a.entryId, "return", "Capture the load step too, please.");
     expect(r.status).toBe("draft");
     const mails = await mailTo(a.users.designer.email, /^Returned with comments:/);
     expect(mails).toHaveLength(1);
     expect(mails[0].text_body).toContain("Capture the load step too, please.");
     // Viewers may comment; the submitter and the lead are told.
-    await commentOnEntry(a.users.viewer, entryId, "Which scope probe was used?");
+    await commentOnEntry(a.users.viewer, a.entryId, "Which scope probe was used?");
     expect(await mailTo(a.users.designer.email, /^Comment on/)).toHaveLength(1);
-    const again = await submitForValidation(a.users.designer, a.scenarioId, submission());
-    expect(again).toMatchObject({ entryId, status: "submitted" });
+    const again = await submitForValidation(a.users.designer, a.scenarioId, submission(a.traceId));
+    expect(again).toMatchObject({ entryId: a.entryId, status: "submitted" });
     expect(await mailTo(a.users.lead.email, /^Validation requested:/)).toHaveLength(2);
+    expect((await getEntry(a.users.lead, a.entryId)).events.map((x) => x.action)).toEqual(["created", "submitted", "returned", "commented", "submitted"]);
   });
 
   it("the lead validates: status, validated_by, history, audit and a mail to the designer", async () => {
-    const r = await changeEntryStatus(a.users.lead, entryId, "validate", "Agrees with the bench within tolerance.");
+    const a = await submittedEntry("validate");
+    const r = await changeEntryStatus(a.users.lead, a.entryId, "validate", "Agrees with the bench within tolerance.");
     expect(r.status).toBe("validated");
-    const e = await getEntry(a.users.designer, entryId);
+    const e = await getEntry(a.users.designer, a.entryId);
     expect(e).toMatchObject({ status: "validated", validatedBy: a.users.lead.id, validatedByName: a.users.lead.name });
     expect(e.validatedAt).not.toBeNull();
-    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "returned", "commented", "submitted", "validated"]);
-    expect(await db()("audit_log").where({ subject_id: entryId, action: "library.validated", actor_id: a.users.lead.id }).first()).toBeTruthy();
+    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "validated"]);
+    expect(await db()("audit_log").where({ subject_id: a.entryId, action: "library.validated", actor_id: a.users.lead.id }).first()).toBeTruthy();
     expect(await mailTo(a.users.designer.email, /^Validated:/)).toHaveLength(1);
     // Validating twice is a conflict, not a second validation.
-    await expect(changeEntryStatus(a.users.lead, entryId, "validate")).rejects.toMatchObject({ status: 409 });
+    await expect(changeEntryStatus(a.users.lead, a.entryId, "validate")).rejects.toMatchObject({ status: 409 });
   });
 
   it("lists and filters the team's entries", async () => {
+    const a = await validatedEntry("list");
+    const other = await makeTeam("list-other");
     const all = await listEntries(a.users.viewer);
-    expect(all.map((e) => e.id)).toEqual([entryId]);
+    expect(all.map((e) => e.id)).toEqual([a.entryId]);
     expect((await listEntries(a.users.viewer, { status: "validated" })).length).toBe(1);
     expect((await listEntries(a.users.viewer, { status: "submitted" })).length).toBe(0);
     expect((await listEntries(a.users.viewer, { template: "sink-nmos" })).length).toBe(0);
@@ -167,8 +187,9 @@ describe("library workflow", () => {
   });
 
   it("starts a new scenario from a validated entry (designers and leads only)", async () => {
-    await expect(startFromEntry(a.users.viewer, entryId)).rejects.toMatchObject({ status: 403 });
-    const { scenarioId, revisionId } = await startFromEntry(a.users.designer, entryId, "Second valve channel");
+    const a = await validatedEntry("start");
+    await expect(startFromEntry(a.users.viewer, a.entryId)).rejects.toMatchObject({ status: 403 });
+    const { scenarioId, revisionId } = await startFromEntry(a.users.designer, a.entryId, "Second valve channel");
     const s = await db()("scenarios").where({ id: scenarioId }).first();
     const rev = await db()("revisions").where({ id: revisionId }).first();
     expect(s).toMatchObject({ title: "Second valve channel", owner_id: a.users.designer.id, team_id: a.team.id, current_revision_id: revisionId });
@@ -177,14 +198,15 @@ describe("library workflow", () => {
   });
 
   it("the submitter withdraws a submission of a newer revision; a viewer cannot", async () => {
+    const a = await submittedEntry("withdraw");
     const [rev2] = await db()("revisions").insert({ scenario_id: a.scenarioId, number: 2, parent_id: a.revisionId, author_id: a.users.designer.id, body: JSON.stringify(a.body) }).returning("*");
     await db()("scenarios").where({ id: a.scenarioId }).update({ current_revision_id: rev2.id });
     // Evidence must belong to the submitted revision: the revision-1 trace is refused.
-    await expect(submitForValidation(a.users.designer, a.scenarioId, submission())).rejects.toMatchObject({ status: 400 });
+    await expect(submitForValidation(a.users.designer, a.scenarioId, submission(a.traceId))).rejects.toMatchObject({ status: 400 });
     const t2 = await storeTrace(a.users.designer, { scenarioId: a.scenarioId, label: "rev 2 step", fileName: "s2.csv", parsed: parseTraceCsv(capture()), settings: {} });
     expect(t2.revisionNumber).toBe(2);
-    const r = await submitForValidation(a.users.designer, a.scenarioId, { ...submission(), traceIds: [t2.id], comparisons: [] });
-    expect(r.entryId).not.toBe(entryId);
+    const r = await submitForValidation(a.users.designer, a.scenarioId, { ...submission(a.traceId), traceIds: [t2.id], comparisons: [] });
+    expect(r.entryId).not.toBe(a.entryId);
     await expect(changeEntryStatus(a.users.viewer, r.entryId, "withdraw")).rejects.toMatchObject({ status: 403 });
     expect((await changeEntryStatus(a.users.designer, r.entryId, "withdraw")).status).toBe("draft");
     await expect(changeEntryStatus(a.users.designer, r.entryId, "withdraw")).rejects.toMatchObject({ status: 409 });
@@ -192,12 +214,14 @@ describe("library workflow", () => {
   });
 
   it("only leads set tolerances; the lead retires the entry; retired entries are no starting point", async () => {
+    const a = await validatedEntry("retire");
+    const other = await makeTeam("retire-other");
     await expect(setTeamTolerances(a.users.designer, DEFAULT_TOLERANCES)).rejects.toMatchObject({ status: 403 });
     await setTeamTolerances(a.users.lead, { ...DEFAULT_TOLERANCES, overshootPts: 3 });
     expect((await getTeamTolerances(a.team.id)).overshootPts).toBe(3);
     expect((await getTeamTolerances(other.team.id)).overshootPts).toBe(DEFAULT_TOLERANCES.overshootPts);
-    await changeEntryStatus(a.users.lead, entryId, "retire", "Superseded by rev 2.");
-    await expect(startFromEntry(a.users.designer, entryId)).rejects.toMatchObject({ status: 409 });
+    await changeEntryStatus(a.users.lead, a.entryId, "retire", "Superseded by rev 2.");
+    await expect(startFromEntry(a.users.designer, a.entryId)).rejects.toMatchObject({ status: 409 });
     expect(await mailTo(a.users.designer.email, /^Retired:/)).toHaveLength(1);
   });
 });

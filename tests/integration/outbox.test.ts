@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 vi.mock("server-only", () => ({}));
 
 import { db } from "@/lib/db/knex";
-import { teamOutbox, devOutboxEnabled } from "@/lib/mail/outbox";
+import { devOutboxEnabled } from "@/lib/mail/outbox";
+import { teamOutbox } from "@/lib/db/outbox";
 import { createInvitation } from "@/lib/db/teams";
 import { closeDb, makeFixture, type Fixture } from "./support/fixtures";
 

@@ -3,7 +3,6 @@ vi.mock("server-only", () => ({}));
 
 import { db } from "@/lib/db/knex";
 import {
-  createScenario,
   getScenarioDetail,
   listScenarios,
   restoreScenario,
@@ -11,12 +10,13 @@ import {
   softDeleteScenario,
   updateScenarioMeta,
 } from "@/lib/db/scenarios";
-import { forkRevision, getRevision, listRevisions, saveRevision } from "@/lib/db/revisions";
+import { forkRevision, getRevision, listRevisions } from "@/lib/db/revisions";
+import { createScenario, saveRevision } from "@/lib/scenarios/save";
 import { addComment, listComments } from "@/lib/db/comments";
 import { createPublicLink, listShareLinks, openPublicLink, revokePublicLink } from "@/lib/db/shareLinks";
 import { listAudit } from "@/lib/db/audit";
-import { DomainError } from "@/lib/db/errors";
-import { MAX_SCENARIO_BYTES } from "@/lib/db/scenarioBody";
+import { DomainError } from "@/lib/errors";
+import { MAX_SCENARIO_BYTES } from "@/lib/design/scenarioBody";
 import { defaultScenario } from "@/lib/design/templates";
 import { closeDb, makeFixture, scenarioBody, type Fixture } from "./support/fixtures";
 

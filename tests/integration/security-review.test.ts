@@ -14,12 +14,12 @@ import * as libraryEntry from "@/app/api/library/[id]/route";
 import { createAccountFromInvitation, requestPasswordReset, signInWithPassword } from "@/lib/auth/accounts";
 import { MAX_FAILURES_PER_ACCOUNT } from "@/lib/db/signInAttempts";
 import { changeRole, createInvitation, removeMember, revokeInvitation } from "@/lib/db/teams";
-import { createScenario } from "@/lib/db/scenarios";
+import { createScenario } from "@/lib/scenarios/save";
 import { createPasswordReset, MAX_RESETS_PER_HOUR } from "@/lib/db/passwordResets";
-import { DomainError } from "@/lib/db/errors";
-import { teamOutbox } from "@/lib/mail/outbox";
+import { DomainError } from "@/lib/errors";
+import { teamOutbox } from "@/lib/db/outbox";
 import { invitationMail, passwordResetMail } from "@/lib/mail/messages";
-import { libraryMail } from "@/lib/db/library";
+import { libraryMail } from "@/lib/library/mail";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { closeDb, cookieFor, ctx, makeFixture, ORIGIN, request, type Actor, type Fixture } from "./support/fixtures";
 
@@ -279,7 +279,7 @@ describe("evidence and trace deletion do not cross", () => {
 
 describe("scenario bodies that are not JSON data", () => {
   it("a cyclic or BigInt body (possible through a server action's decoded argument) is a 400 naming body, not a crash", async () => {
-    const { checkScenarioBody } = await import("@/lib/db/scenarioBody");
+    const { checkScenarioBody } = await import("@/lib/design/scenarioBody");
     const cyclic: Record<string, unknown> = { template: "sink-npn" };
     cyclic.self = cyclic;
     for (const bad of [cyclic, { template: "sink-npn", n: BigInt(1) }]) {

@@ -4,7 +4,7 @@ vi.mock("server-only", () => ({}));
 
 import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";
-import type { CurrentUser, Role } from "@/lib/auth/roles";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 import { deleteTrace, getTrace, listTraces, storeTrace, decodeFloat64, encodeFloat64 } from "@/lib/db/traces";
 import { parseTraceCsv } from "@/lib/traces";
 

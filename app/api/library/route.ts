@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { apiRoute, json } from "@/lib/api/handler";
-import { libraryFacets, libraryFiltersSchema, listEntries, submitForValidation, submitSchema } from "@/lib/db/library";
+import { libraryFacets, libraryFiltersSchema, listEntries, submitSchema } from "@/lib/db/library";
+import { submitForValidation } from "@/lib/library/workflow";
 
 /** Query strings arrive as strings; an empty filter (`status=`) means no filter. */
 const query = z.preprocess(

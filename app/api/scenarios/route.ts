@@ -1,6 +1,7 @@
 import { apiRoute, json } from "@/lib/api/handler";
 import { createScenarioBody, scenarioListQuery } from "@/lib/api/schemas";
-import { createScenario, listScenarios, scenarioFacets } from "@/lib/db/scenarios";
+import { listScenarios, scenarioFacets } from "@/lib/db/scenarios";
+import { createScenario } from "@/lib/scenarios/save";
 import { getRevision } from "@/lib/db/revisions";
 
 /** GET /api/scenarios — the team's scenarios: ?q, owner, template, status, sort, dir, page, pageSize, deleted. */

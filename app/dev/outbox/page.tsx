@@ -1,6 +1,7 @@
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
-import { devOutboxEnabled, teamOutbox } from "@/lib/mail/outbox";
+import { devOutboxEnabled } from "@/lib/mail/outbox";
+import { teamOutbox } from "@/lib/db/outbox";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Development outbox" };

@@ -2,9 +2,9 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
 import { getEntry } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { formatEng } from "@/lib/units/eng";
-import { DEFAULT_TOLERANCES } from "@/lib/traces/compare";
+import { evidenceTolerances } from "@/lib/library/tolerances";
 import { StatusBadge } from "@/components/library/StatusBadge";
 import { EntryActions } from "@/components/library/EntryActions";
 import { EntryHistory } from "@/components/library/EntryHistory";
@@ -73,7 +73,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
         <EntryEvidence
           body={entry.body}
           traces={entry.traces.map((t) => ({ id: t.id, label: t.label, revisionNumber: t.revisionNumber, sampleCount: t.sampleCount, channels: t.channels.map((c) => ({ name: c.name, unit: c.unit })) }))}
-          tolerances={entry.evidence.tolerances ?? DEFAULT_TOLERANCES}
+          tolerances={evidenceTolerances(entry.evidence.tolerances)}
           submitted={entry.evidence.comparisons.map((c) => ({ traceId: c.traceId, verdict: c.verdict, rows: c.rows.map((r) => ({ ...r, verdict: r.verdict })) }))}
         />
       </div>

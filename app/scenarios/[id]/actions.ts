@@ -1,91 +1,62 @@
 "use server";
 import { z } from "zod";
 import { revalidatePath } from "next/cache";
-import { currentUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
-import { saveRevision, forkRevision, type SaveResult } from "@/lib/db/revisions";
+import { validatedInputAction } from "@/lib/auth/action";
+import { forkRevision } from "@/lib/db/revisions";
 import { softDeleteScenario, restoreScenario } from "@/lib/db/scenarios";
 import { addComment } from "@/lib/db/comments";
-import { DomainError } from "@/lib/db/errors";
-
-const saveInput = z.object({
-  scenarioId: z.string().uuid("scenarioId must be a scenario id"),
-  baseRevisionId: z.string().uuid("baseRevisionId must be a revision id"),
-  note: z.string().max(2000, "note: at most 2000 characters"),
-  body: z.unknown(),
-});
-
-function refusal(e: unknown): { ok: false; message: string } {
-  if (e instanceof DomainError) return { ok: false, message: e.message };
-  throw e;
-}
+import { saveRevision } from "@/lib/scenarios/save";
 
 /**
  * Saves the workbench's scenario as a new immutable revision with a note. A stale base revision is refused with
  * the current revision (number, body, author, time) so both versions can be shown; nothing is overwritten.
  */
-export async function saveScenarioRevision(input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }): Promise<
-  | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string }
-> {
-  const user = await currentUser();
-  if (!user) return { ok: false, message: "Your session has ended: sign in again to save." };
-  if (!roleAtLeast(user.role, "designer")) return { ok: false, message: "Viewers cannot save scenarios." };
-  const parsed = saveInput.safeParse(input);
-  if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
-  try {
-    const r: SaveResult = await saveRevision(user, parsed.data);
-    if (r.ok) revalidatePath(`/scenarios/${parsed.data.scenarioId}`);
+export const saveScenarioRevision = validatedInputAction(
+  z.object({
+    scenarioId: z.string().uuid("scenarioId must be a scenario id"),
+    baseRevisionId: z.string().uuid("baseRevisionId must be a revision id"),
+    note: z.string().max(2000, "note: at most 2000 characters"),
+    body: z.unknown(),
+  }),
+  async (data, user) => {
+    const r = await saveRevision(user, data);
+    if (r.ok) revalidatePath(`/scenarios/${data.scenarioId}`);
     return r;
-  } catch (e) {
-    return refusal(e);
-  }
-}
+  },
+  { role: "designer", messages: { session: "Your session has ended: sign in again to save.", role: "Viewers cannot save scenarios." } },
+);
 
 /** Copies a revision into a new scenario owned by the user (designers and leads). */
-export async function forkScenario(input: { revisionId: string; title?: string }): Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }> {
-  const user = await currentUser();
-  if (!user) return { ok: false, message: "Your session has ended: sign in again." };
-  if (!roleAtLeast(user.role, "designer")) return { ok: false, message: "Viewers cannot fork scenarios." };
-  const parsed = z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: z.string().max(200).optional() }).safeParse(input);
-  if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
-  try {
-    const r = await forkRevision(user, parsed.data.revisionId, parsed.data.title);
+export const forkScenario = validatedInputAction(
+  z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: z.string().max(200).optional() }),
+  async (data, user) => {
+    const r = await forkRevision(user, data.revisionId, data.title);
     revalidatePath("/scenarios");
-    return { ok: true, scenarioId: r.scenarioId };
-  } catch (e) {
-    return refusal(e);
-  }
-}
+    return { ok: true as const, scenarioId: r.scenarioId };
+  },
+  { role: "designer", messages: { role: "Viewers cannot fork scenarios." } },
+);
 
 /** Soft delete or restore (owner or lead). */
-export async function setScenarioDeleted(input: { scenarioId: string; deleted: boolean }): Promise<{ ok: true } | { ok: false; message: string }> {
-  const user = await currentUser();
-  if (!user) return { ok: false, message: "Your session has ended: sign in again." };
-  const parsed = z.object({ scenarioId: z.string().uuid(), deleted: z.boolean() }).safeParse(input);
-  if (!parsed.success) return { ok: false, message: "scenarioId must be a scenario id" };
-  try {
-    if (parsed.data.deleted) await softDeleteScenario(user, parsed.data.scenarioId);
-    else await restoreScenario(user, parsed.data.scenarioId);
+export const setScenarioDeleted = validatedInputAction(
+  z.object({ scenarioId: z.string().uuid("scenarioId must be a scenario id"), deleted: z.boolean("deleted must be true or false") }),
+  async (data, user) => {
+    if (data.deleted) await softDeleteScenario(user, data.scenarioId);
+    else await restoreScenario(user, data.scenarioId);
     revalidatePath("/scenarios");
-    return { ok: true };
-  } catch (e) {
-    return refusal(e);
-  }
-}
+    return { ok: true as const };
+  },
+);
 
 /** Any member, viewers included, comments on a scenario (optionally on one revision). */
-export async function commentOnScenario(input: { scenarioId: string; revisionId?: string; body: string }): Promise<{ ok: true; id: string } | { ok: false; message: string }> {
-  const user = await currentUser();
-  if (!user) return { ok: false, message: "Your session has ended: sign in again." };
-  const parsed = z
-    .object({ scenarioId: z.string().uuid(), revisionId: z.string().uuid().optional(), body: z.string().trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters.") })
-    .safeParse(input);
-  if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
-  try {
-    const c = await addComment(user, parsed.data.scenarioId, parsed.data);
-    return { ok: true, id: c.id };
-  } catch (e) {
-    return refusal(e);
-  }
-}
+export const commentOnScenario = validatedInputAction(
+  z.object({
+    scenarioId: z.string().uuid("scenarioId must be a scenario id"),
+    revisionId: z.string().uuid("revisionId must be a revision id").optional(),
+    body: z.string().trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters."),
+  }),
+  async (data, user) => {
+    const c = await addComment(user, data.scenarioId, data);
+    return { ok: true as const, id: c.id };
+  },
+);

@@ -1,7 +1,5 @@
+import { PageLoading } from "@/components/shell/PageLoading";
+
 export default function Loading() {
-  return (
-    <main className="px-6 py-10 text-sm text-ink-muted" aria-busy="true">
-      Opening the scenario…
-    </main>
-  );
+  return <PageLoading label="Opening the scenario…" rows={3} />;
 }

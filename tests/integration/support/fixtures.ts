@@ -8,7 +8,7 @@ import { sealData } from "iron-session";
 import { db } from "@/lib/db/knex";
 import { hashPassword } from "@/lib/auth/password";
 import { SESSION_COOKIE, SESSION_TTL_S, sessionPassword } from "@/lib/auth/session-config";
-import type { CurrentUser, Role } from "@/lib/auth/roles";
+import type { CurrentUser, Role } from "@/lib/shared/roles";
 import { defaultScenario } from "@/lib/design/templates";
 import type { Parts, Scenario } from "@/lib/design/schema";
 

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { apiRoute, ApiError } from "@/lib/api/handler";
-import { actionForStatus, changeEntryStatus, commentOnEntry, getEntry, LIBRARY_STATUSES } from "@/lib/db/library";
+import { getEntry } from "@/lib/db/library";
+import { actionForStatus, changeEntryStatus, commentOnEntry } from "@/lib/library/workflow";
+import { LIBRARY_STATUSES } from "@/lib/shared/statuses";
 
 type P = { id: string };
 
@@ -23,7 +25,7 @@ const patchBody = z
 
 /**
  * PATCH /api/library/:id — `{ status, comment? }` changes the status (validate, return and retire are for leads
- * only, checked in lib/db/library); `{ withdraw: true }` takes a submission back; `{ comment }` alone adds a comment
+ * only, checked in lib/library/workflow); `{ withdraw: true }` takes a submission back; `{ comment }` alone adds a comment
  * (any member).
  */
 export const PATCH = apiRoute<P, typeof patchBody>({ body: patchBody }, async ({ user, params, body }) => {

@@ -1,7 +1,7 @@
 import { apiRoute, json } from "@/lib/api/handler";
 import { patchScenarioBody } from "@/lib/api/schemas";
 import { getScenarioDetail, restoreScenario, softDeleteScenario, updateScenarioMeta } from "@/lib/db/scenarios";
-import { saveRevision } from "@/lib/db/revisions";
+import { saveRevision } from "@/lib/scenarios/save";
 
 type P = { id: string };
 

@@ -1,7 +1,7 @@
 import { apiRoute } from "@/lib/api/handler";
 import { memberDeleteQuery, memberPatchBody } from "@/lib/api/schemas";
 import { changeRole, listMembers, removeMember } from "@/lib/db/teams";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/shared/roles";
 
 /** GET /api/team/members — the current team's members and roles (every member). */
 export const GET = apiRoute({}, async ({ user }) => ({ team: { id: user.teamId, name: user.teamName }, me: { id: user.id, role: user.role }, members: await listMembers(user.teamId) }));

@@ -2,14 +2,15 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
 import { getScenarioDetail } from "@/lib/db/scenarios";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { RevisionHistory } from "@/components/scenarios/RevisionHistory";
 import { ShareDialog } from "@/components/scenarios/ShareDialog";
 import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton, DeleteButton } from "@/components/scenarios/ScenarioButtons";
 import { SaveRevisionForm } from "@/components/scenarios/SaveRevisionForm";
 import { StatusSelect } from "@/components/scenarios/StatusSelect";
-import { SCENARIO_STATUSES, TEMPLATE_CHOICES } from "@/lib/db/scenarioBody";
+import { TEMPLATE_CHOICES } from "@/lib/design/scenarioBody";
+import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 

@@ -4,8 +4,9 @@ import { requirePageUser } from "@/lib/auth/current";
 import { getScenarioDetail } from "@/lib/db/scenarios";
 import { getRevision } from "@/lib/db/revisions";
 import { listTraces } from "@/lib/db/traces";
-import { entryForRevision, getTeamTolerances } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { entryForRevision } from "@/lib/db/library";
+import { evidenceTolerances, getTeamTolerances } from "@/lib/library/tolerances";
+import { DomainError } from "@/lib/errors";
 import { ReviewDocument } from "@/components/review/ReviewDocument";
 import "./print.css";
 
@@ -51,7 +52,7 @@ export default async function ReviewPage({ params, searchParams }: { params: Pro
         body={revision.body}
         entry={entry}
         traces={ordered.map((t) => ({ id: t.id, label: t.label, revisionNumber: t.revisionNumber, sampleCount: t.sampleCount, channels: t.channels.map((c) => ({ name: c.name, unit: c.unit })) }))}
-        tolerances={entry?.evidence.tolerances ?? tolerances}
+        tolerances={evidenceTolerances(entry?.evidence.tolerances, tolerances)}
         preparedFor={user.name}
         preparedAt={new Date().toISOString()}
       />

@@ -3,8 +3,9 @@ import { notFound } from "next/navigation";
 import { requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { getScenarioDetail } from "@/lib/db/scenarios";
 import { listTraces } from "@/lib/db/traces";
-import { entryForRevision, getTeamTolerances } from "@/lib/db/library";
-import { DomainError } from "@/lib/db/errors";
+import { entryForRevision } from "@/lib/db/library";
+import { getTeamTolerances } from "@/lib/library/tolerances";
+import { DomainError } from "@/lib/errors";
 import { TracesWorkspace } from "@/components/traces/TracesWorkspace";
 
 export const dynamic = "force-dynamic";

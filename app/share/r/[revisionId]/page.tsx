@@ -1,14 +1,15 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
-import { roleAtLeast } from "@/lib/auth/roles";
+import { roleAtLeast } from "@/lib/shared/roles";
 import { getRevision } from "@/lib/db/revisions";
-import { DomainError } from "@/lib/db/errors";
+import { DomainError } from "@/lib/errors";
 import { RevisionView } from "@/components/scenarios/RevisionView";
 import { Comments } from "@/components/scenarios/Comments";
 import { ForkButton } from "@/components/scenarios/ScenarioButtons";
 import { forkScenario } from "@/app/scenarios/[id]/actions";
 import { templateTitle } from "@/components/scenarios/RevisionView";
+import { BUTTON } from "@/components/shell/classes";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Shared revision" };
@@ -31,7 +32,7 @@ export default async function TeamSharePage({ params }: { params: Promise<{ revi
         </h1>
         {roleAtLeast(user.role, "designer") && <ForkButton revisionId={r.id} fork={forkScenario} />}
         {!r.scenarioDeleted && (
-          <Link href={`/scenarios/${r.scenarioId}/history`} className="rounded border border-hairline bg-white px-3 py-1.5 text-sm hover:border-signal">History</Link>
+          <Link href={`/scenarios/${r.scenarioId}/history`} className={BUTTON}>History</Link>
         )}
       </div>
       <p className="mt-1 text-sm text-ink-muted">

@@ -1,8 +1,8 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { sealData } from "iron-session";
 import { SESSION_COOKIE, sessionFromCookieHeader, sessionOptions, sessionPassword } from "@/lib/auth/session-config";
-import { roleAtLeast } from "@/lib/auth/roles";
-import { hashToken, randomToken } from "@/lib/auth/tokens";
+import { roleAtLeast } from "@/lib/shared/roles";
+import { hashToken, randomToken } from "@/lib/shared/tokens";
 
 afterEach(() => vi.unstubAllEnvs());
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { eSeries, eValuesBetween, nearestE, nextDown, nextUp, toleranceBand } from "@/lib/design/eseries";
 
-// Reference: IEC 60063:2015 preferred-number tables, as reproduced in REFERENCES.md §5e (RWTH Aachen MSP430 book,
+// Reference: IEC 60063:2015 preferred-number tables, as reproduced in docs/references.md §5e (RWTH Aachen MSP430 book,
 // appendix A.5, cross-checked against the G4USP table).
 const E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
 const E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
@@ -23,7 +23,7 @@ describe("E-series tables (IEC 60063)", () => {
     expect([...eSeries("E96")]).toEqual(E96);
     expect([...eSeries("E48")]).toEqual(E96.filter((_, i) => i % 2 === 0));
   });
-  it("E192 holds 192 values, contains every E96 value, and lists 9.20 (IEC 60063's departure from the formula, REFERENCES §5e [MEM])", () => {
+  it("E192 holds 192 values, contains every E96 value, and lists 9.20 (IEC 60063's departure from the formula, docs/references.md §5e [MEM])", () => {
     const e192 = eSeries("E192");
     expect(e192.length).toBe(192);
     for (const v of E96) expect(e192).toContain(v);

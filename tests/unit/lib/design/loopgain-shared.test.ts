@@ -4,7 +4,7 @@ import { compileNetlistJson, defaultScenario, fullScaleCurrent, runOperatingPoin
 import { runLoopGain, runOperatingPointAndLoopGain } from "@/lib/design/run";
 
 /**
- * The loop gain now takes both Tian injections (Tian et al. 2001, REFERENCES §4.2) from one compiled circuit with a
+ * The loop gain now takes both Tian injections (Tian et al. 2001, docs/references.md §4.2) from one compiled circuit with a
  * shared operating point and factorisation. Checked against the plain route: two separate AC runs of the
  * "loopgain-v" and "loopgain-i" netlists combined with T = −(v1 + i2)/(1 + v1 + i2), which must agree to rounding
  * (the small-signal matrix is the same; only the sources differ). The OP of the probe netlist must match the OP of

@@ -27,7 +27,7 @@ function exactBreak(s: Scenario): AcResult {
   return r;
 }
 
-describe("two-injection loop gain (Tian et al. 2001, REFERENCES §4.2)", () => {
+describe("two-injection loop gain (Tian et al. 2001, docs/references.md §4.2)", () => {
   it("the formula gives A for an ideal inverting driver with v_L = −A·v_R (derivation in run.ts)", () => {
     // Run 1: v_R = 1/(1+A); run 2: the ideal driver holds v_R = 0, so the probe carries i2 = −1 (L→R).
     const A = 37;
@@ -52,8 +52,8 @@ describe("two-injection loop gain (Tian et al. 2001, REFERENCES §4.2)", () => {
     },
   );
 
-  it("low-frequency loop gain of the NPN sink matches the hand small-signal estimate (REFERENCES §6 form)", () => {
-    // |T(0)| ≈ Aol·(β+1)Rs/(Rb + rπ + (β+1)Rs), with rπ = β·Vt/Ic (model of our own, REFERENCES §6).
+  it("low-frequency loop gain of the NPN sink matches the hand small-signal estimate (docs/references.md §6 form)", () => {
+    // |T(0)| ≈ Aol·(β+1)Rs/(Rb + rπ + (β+1)Rs), with rπ = β·Vt/Ic (model of our own, docs/references.md §6).
     const s = idealOutput("sink-npn");
     s.pass.VA = null; // no Early effect: the hand formula ignores it
     const { op, summary } = runOperatingPoint(s);

@@ -4,7 +4,7 @@ import {
 } from "@/lib/design/metrics";
 import { estimateRinging, matrixPencil } from "@/lib/design/ringing";
 
-// Reference: REFERENCES.md §5a — second-order loop T = ωn²/(s(s+2ζωn)): PM = atan(2ζ/√(√(1+4ζ⁴)−2ζ²)),
+// Reference: docs/references.md §5a — second-order loop T = ωn²/(s(s+2ζωn)): PM = atan(2ζ/√(√(1+4ζ⁴)−2ζ²)),
 // overshoot exp(−ζπ/√(1−ζ²)), ωc/ωn = √(√(1+4ζ⁴)−2ζ²) (Ogata / Nise; table computed with numpy).
 const TABLE: [number, number, number, number][] = [
   [0.1, 11.4206, 72.9248, 0.99005],
@@ -24,7 +24,7 @@ describe("phase margin ↔ damping ↔ overshoot (second-order loop)", () => {
     expect(dampingFromPhaseMargin(pm)).toBeCloseTo(zeta, 4);
     expect(dampingFromOvershoot(os)).toBeCloseTo(zeta, 4);
   });
-  it("PM 45° ⇔ ζ = 0.420448 and 5 % overshoot ⇔ ζ = 0.690107 (REFERENCES §5a)", () => {
+  it("PM 45° ⇔ ζ = 0.420448 and 5 % overshoot ⇔ ζ = 0.690107 (docs/references.md §5a)", () => {
     expect(dampingFromPhaseMargin(45)).toBeCloseTo(0.420448, 5);
     expect(dampingFromOvershoot(5)).toBeCloseTo(0.690107, 5);
   });
@@ -85,7 +85,7 @@ describe("bandwidth", () => {
   });
 });
 
-// Reference: REFERENCES.md §5a series RLC, R = 10 Ω, L = 1 mH, C = 1 µF, 1 V step:
+// Reference: docs/references.md §5a series RLC, R = 10 Ω, L = 1 mH, C = 1 µF, 1 V step:
 // vC(t) = 1 − e^{−ζω0t}[cos ωd t + ζ/√(1−ζ²) sin ωd t], overshoot 60.4679066 %, tp = 100.6114863 µs.
 describe("step metrics on the analytic series-RLC step", () => {
   const w0 = 31622.776602, zeta = 0.158113883, wd = 31224.989992;
@@ -119,7 +119,7 @@ describe("step metrics on the analytic series-RLC step", () => {
     expect(m.ringing.logDecrementDamping!).toBeCloseTo(zeta, 2);
     expect(Math.abs(m.ringing.fftHz! / fd - 1)).toBeLessThan(0.05);
   });
-  it("a first-order step has no overshoot and rise time τ·ln 9 (REFERENCES §5b)", () => {
+  it("a first-order step has no overshoot and rise time τ·ln 9 (docs/references.md §5b)", () => {
     const tau = 1e-4;
     const tt = Float64Array.from({ length: 5001 }, (_, i) => i * 2e-7);
     const yy = Float64Array.from(tt, (x) => 1 - Math.exp(-x / tau));

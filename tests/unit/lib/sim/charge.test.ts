@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { runTran } from "./helpers";
 
-/** Depletion charge Cj0·Vj/(1−m)·[1 − (1 − V/Vj)^{1−m}] (REFERENCES §1.4, valid below Fc·Vj). */
+/** Depletion charge Cj0·Vj/(1−m)·[1 − (1 − V/Vj)^{1−m}] (docs/references.md §1.4, valid below Fc·Vj). */
 const qj = (v: number, cj0: number, vj: number, m: number) => ((cj0 * vj) / (1 - m)) * (1 - Math.pow(1 - v / vj, 1 - m));
 
-describe("nonlinear junction charge is conserved in transient (charges integrated, not C·dv/dt; REFERENCES §1.4)", () => {
+describe("nonlinear junction charge is conserved in transient (charges integrated, not C·dv/dt; docs/references.md §1.4)", () => {
   it("a diode's depletion capacitance charged to −5 V: ∫ i dt = Q(−5 V) − Q(0)", () => {
     const model = { Is: 1e-14, Cj0: 10e-12, Vj: 0.7, m: 0.5 };
     const r = runTran({
@@ -41,7 +41,7 @@ describe("nonlinear junction charge is conserved in transient (charges integrate
     expect(vmin).toBeLessThan(0.3);
     expect(r.nodes.c[r.time.length - 1]).toBeCloseTo(10, 3);
     // Charge balance at the base: the current into the base minus the static (recombination) base current of the
-    // transport equations (REFERENCES §1.2, evaluated here from the node voltages) is dQ/dt of the junction and
+    // transport equations (docs/references.md §1.2, evaluated here from the node voltages) is dQ/dt of the junction and
     // diffusion charges; over the pulse it rises to the stored charge and returns to zero, because the charges are
     // functions of the (equal) initial and final junction voltages.
     const vt = (1.380649e-23 * 300.15) / 1.602176634e-19;

@@ -69,7 +69,7 @@ describe("DC continuation when plain Newton–Raphson runs out of iterations", (
     };
     const c = solveWith(latch);
     expect(c.dcMethod).toBe("gmin");
-    // Oracle: symmetric KCL with the transport equations (REFERENCES §1.2), Is = 1e-14, βF = 100, βR = 1.
+    // Oracle: symmetric KCL with the transport equations (docs/references.md §1.2), Is = 1e-14, βF = 100, βR = 1.
     const is = 1e-14, vt = VT300;
     const ic = (vb: number, vc: number) => is * (Math.exp(vb / vt) - Math.exp((vb - vc) / vt)) - is * (Math.exp((vb - vc) / vt) - 1);
     const ib = (vb: number, vc: number) => (is / 100) * (Math.exp(vb / vt) - 1) + is * (Math.exp((vb - vc) / vt) - 1);

@@ -13,7 +13,7 @@ function lambertW(x: number): number {
   }
   return w;
 }
-/** Diode + series resistor exact current (REFERENCES §1.5): I = (nVt/R)·W((Is·R/nVt)·e^{(V+Is·R)/nVt}) − Is */
+/** Diode + series resistor exact current (docs/references.md §1.5): I = (nVt/R)·W((Is·R/nVt)·e^{(V+Is·R)/nVt}) − Is */
 function diodeSeriesCurrent(v: number, r: number, is: number, nvt: number): number {
   // evaluate the W argument in logs to avoid overflow: W(a·e^b) with ln-form iteration start
   const lnArg = Math.log((is * r) / nvt) + (v + is * r) / nvt;
@@ -25,7 +25,7 @@ function diodeSeriesCurrent(v: number, r: number, is: number, nvt: number): numb
 const exact = { reltol: 1e-10, vntol: 1e-12, abstol: 1e-18, gmin: 0 };
 
 describe("diode (Shockley) against the Lambert-W closed form", () => {
-  it("5 V through 1 kΩ, Is = 1e-14, n = 1, 300 K: I = 4.307456372506 mA, VD = 0.692543627494 V (REFERENCES §1.5)", () => {
+  it("5 V through 1 kΩ, Is = 1e-14, n = 1, 300 K: I = 4.307456372506 mA, VD = 0.692543627494 V (docs/references.md §1.5)", () => {
     const r = runOp({
       temperature: T300C,
       elements: [
@@ -94,7 +94,7 @@ describe("diode (Shockley) against the Lambert-W closed form", () => {
   });
 });
 
-/** Published transport-model equations (REFERENCES §1.2), NPN, written out here as the independent oracle. */
+/** Published transport-model equations (docs/references.md §1.2), NPN, written out here as the independent oracle. */
 function transport(vbe: number, vbc: number, is: number, bf: number, br: number, vt: number, va: number | null) {
   const ef = Math.exp(vbe / vt), er = Math.exp(vbc / vt);
   const early = va === null ? 1 : 1 - vbc / va;
@@ -103,7 +103,7 @@ function transport(vbe: number, vbc: number, is: number, bf: number, br: number,
   return { ic, ib, ie: ic + ib };
 }
 
-describe("Ebers–Moll transport model: terminal currents in all four regions (REFERENCES §1.2)", () => {
+describe("Ebers–Moll transport model: terminal currents in all four regions (docs/references.md §1.2)", () => {
   const model = { Is: 1e-15, betaF: 80, betaR: 2 };
   const cases: [string, number, number, string][] = [
     ["forward active", 0.68, -4, "active"],
@@ -138,7 +138,7 @@ describe("Ebers–Moll transport model: terminal currents in all four regions (R
     });
   }
 
-  it("forward Early effect: IC·(1 − Vbc/VA) (Gummel–Poon q_b, REFERENCES §1.3) and r_o ≈ VA/IC", () => {
+  it("forward Early effect: IC·(1 − Vbc/VA) (Gummel–Poon q_b, docs/references.md §1.3) and r_o ≈ VA/IC", () => {
     const make = (vce: number) => runOp({
       temperature: T300C,
       elements: [
@@ -160,7 +160,7 @@ describe("Ebers–Moll transport model: terminal currents in all four regions (R
 });
 
 describe("BJT bias worked examples", () => {
-  it("Sedra/Smith voltage-divider bias with the transport model (REFERENCES §5d, example 1 oracle)", () => {
+  it("Sedra/Smith voltage-divider bias with the transport model (docs/references.md §5d, example 1 oracle)", () => {
     const r = runOp({
       temperature: T300C,
       elements: [
@@ -187,7 +187,7 @@ describe("BJT bias worked examples", () => {
     expect(r.nodes.c).toBeCloseTo(8.6, 1);
   });
 
-  it("op-amp + NPN current sink, op-amp as a VCVS (REFERENCES §5d current-sink DC oracle)", () => {
+  it("op-amp + NPN current sink, op-amp as a VCVS (docs/references.md §5d current-sink DC oracle)", () => {
     const r = runOp({
       temperature: T300C,
       elements: [

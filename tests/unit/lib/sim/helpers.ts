@@ -41,7 +41,7 @@ export function markers(times: number[]): Netlist["elements"] {
   ];
 }
 
-/** Thermal voltage kT/q at 300 K with the 2019 SI constants (REFERENCES §1.2: 25.852000 mV). */
+/** Thermal voltage kT/q at 300 K with the 2019 SI constants (docs/references.md §1.2: 25.852000 mV). */
 export const VT300 = (1.380649e-23 * 300) / 1.602176634e-19;
 /** °C for 300 K */
 export const T300C = 300 - 273.15;

@@ -3,7 +3,7 @@ import { at, markers, runAc, runTran } from "./helpers";
 
 const tight = { reltol: 1e-7, abstol: 1e-15, vntol: 1e-9 };
 
-describe("transient: first-order steps against their closed forms (REFERENCES §5b)", () => {
+describe("transient: first-order steps against their closed forms (docs/references.md §5b)", () => {
   it("RC charging, τ = 1 ms: v(τ), v(2τ), v(5τ) = 1 − e^{−k}", () => {
     const r = runTran({
       elements: [
@@ -15,7 +15,7 @@ describe("transient: first-order steps against their closed forms (REFERENCES §
       analysis: { kind: "tran", tStop: 5e-3, start: "ic" },
       options: tight,
     });
-    // closed form 1 − e^{−t/τ}: 0.632120558829, 0.864664716763, 0.993262053001 (REFERENCES §5b)
+    // closed form 1 − e^{−t/τ}: 0.632120558829, 0.864664716763, 0.993262053001 (docs/references.md §5b)
     expect(at(r, r.nodes.out, 1e-3)).toBeCloseTo(0.632120558829, 5);
     expect(at(r, r.nodes.out, 2e-3)).toBeCloseTo(0.864664716763, 5);
     expect(at(r, r.nodes.out, 5e-3)).toBeCloseTo(0.993262053001, 5);
@@ -23,7 +23,7 @@ describe("transient: first-order steps against their closed forms (REFERENCES §
     expect(at(r, r.currents.C1, 1e-3)).toBeCloseTo((1 - 0.632120558829) / 1000, 8);
   });
 
-  it("RL: R = 100 Ω, L = 10 mH, 1 V → i(100 µs) = 6.321205588 mA (REFERENCES §5b)", () => {
+  it("RL: R = 100 Ω, L = 10 mH, 1 V → i(100 µs) = 6.321205588 mA (docs/references.md §5b)", () => {
     const r = runTran({
       elements: [
         { kind: "vsource", name: "V1", nodes: ["in", "0"], dc: 1 },
@@ -41,7 +41,7 @@ describe("transient: first-order steps against their closed forms (REFERENCES §
   });
 });
 
-describe("transient: underdamped series RLC step (REFERENCES §5a)", () => {
+describe("transient: underdamped series RLC step (docs/references.md §5a)", () => {
   const tp = Math.PI / 31224.989992; // peak time π/ωd
   const r = runTran({
     elements: [
@@ -73,7 +73,7 @@ describe("transient: underdamped series RLC step (REFERENCES §5a)", () => {
 
 describe("transient: LC tank conserves its amplitude (trapezoidal rule is energy-preserving on linear LC)", () => {
   it("1 mH / 1 µF from 1 V: amplitude and energy after 100 periods within 0.5 %", () => {
-    const f0 = 1 / (2 * Math.PI * Math.sqrt(1e-3 * 1e-6)); // 5032.92 Hz (REFERENCES §5a, f0)
+    const f0 = 1 / (2 * Math.PI * Math.sqrt(1e-3 * 1e-6)); // 5032.92 Hz (docs/references.md §5a, f0)
     const tStop = 100 / f0;
     const r = runTran({
       elements: [
@@ -181,7 +181,7 @@ describe("AC against closed-form transfer functions", () => {
       expect(r.nodes.b.re[k]).toBeCloseTo((2 * dr) / den, 8);
       expect(r.nodes.b.im[k]).toBeCloseTo((-2 * di) / den, 8);
     }
-    // resonance peak |H(f0)| = 1/(ωo·R·C) = Q = 3.16228 at f0 = 5032.92 Hz (REFERENCES §5a, ζ = 0.158)
+    // resonance peak |H(f0)| = 1/(ωo·R·C) = Q = 3.16228 at f0 = 5032.92 Hz (docs/references.md §5a, ζ = 0.158)
   });
   it("honours each source's AC magnitude and phase (a current-source probe into a resistor)", () => {
     const r = runAc({

@@ -3,7 +3,7 @@ import { compile, type NetlistElement } from "@/lib/sim";
 import { T300C, VT300 } from "./helpers";
 
 /**
- * REFERENCES §6: a small-signal example of the sink loop, [DERIVED] there (a model of our own, not a published
+ * docs/references.md §6: a small-signal example of the sink loop, [DERIVED] there (a model of our own, not a published
  * oracle): op-amp A0 = 1e5, GBW = 1 MHz (ideal output, optional 2nd pole); NPN at IC = 0.1 A, β = 100
  * (gm = 3.868173 S, rπ = 25.852 Ω at 300 K); RB = 1 kΩ, Rs = 1 Ω, RF = 10 kΩ, CF; loop broken at the op-amp output
  * (exact, since the output is an ideal source): T = −v(op-amp output)/v(injected).
@@ -24,7 +24,7 @@ function loop(opts: { cf: number; fp2: number | null; tauF: number; cmu: number;
   ];
   if (opts.cf > 0) elements.push({ kind: "capacitor", name: "CF", nodes: ["drv", "inn"], value: opts.cf });
   if (opts.load) {
-    // collector load 10 Ω + 1 mH to a 12 V rail (REFERENCES §6 case E/F)
+    // collector load 10 Ω + 1 mH to a 12 V rail (docs/references.md §6 case E/F)
     elements.push(
       { kind: "vsource", name: "Vl", nodes: ["vl", "0"], dc: 12 },
       { kind: "resistor", name: "RL", nodes: ["vl", "cl"], value: 10 },
@@ -56,7 +56,7 @@ function loop(opts: { cf: number; fp2: number | null; tauF: number; cmu: number;
   return { T, crossover };
 }
 
-describe("loop gain of the sink loop, broken at the op-amp output (REFERENCES §6, derived values)", () => {
+describe("loop gain of the sink loop, broken at the op-amp output (docs/references.md §6, derived values)", () => {
   it("low-frequency |T| = A0·(β+1)Rs/(RB + rπ + (β+1)Rs) = 8963.02", () => {
     const t = loop({ cf: 0, fp2: null, tauF: 0, cmu: 0, load: false }).T(1e-3);
     expect(Math.hypot(t.re, t.im)).toBeCloseTo(8963.02, 1);

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { NetlistElement } from "@/lib/sim";
 import { T300C, runAc, runOp } from "./helpers";
 
-describe("op-amp second pole: a(s) = a0/((1 + s/ω1)(1 + s/ω2)) (REFERENCES §3.2, a0 = 1e5, ω1 = 1e4, ω2 = 1e6 rad/s)", () => {
+describe("op-amp second pole: a(s) = a0/((1 + s/ω1)(1 + s/ω2)) (docs/references.md §3.2, a0 = 1e5, ω1 = 1e4, ω2 = 1e6 rad/s)", () => {
   it("open-loop response at 100 Hz … 10 MHz", () => {
     const a0 = 1e5, w1 = 1e4, w2 = 1e6;
     const r = runAc({
@@ -28,7 +28,7 @@ describe("op-amp second pole: a(s) = a0/((1 + s/ω1)(1 + s/ω2)) (REFERENCES §3
 });
 
 describe("BJT series resistances", () => {
-  it("an emitter resistance inside the model equals the external RE of the Sedra/Smith example (REFERENCES §5d)", () => {
+  it("an emitter resistance inside the model equals the external RE of the Sedra/Smith example (docs/references.md §5d)", () => {
     const elements: NetlistElement[] = [
       { kind: "vsource", name: "VCC", nodes: ["vcc", "0"], dc: 15 },
       { kind: "resistor", name: "RB1", nodes: ["vcc", "b"], value: 100e3 },

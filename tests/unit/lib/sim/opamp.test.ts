@@ -42,7 +42,7 @@ describe("op-amp macro model: single pole Aol/(1 + s/ωp)", () => {
     }
   });
 
-  // REFERENCES §5c: f−3dB = fa(1 + A0/NG), DC gain A0/(1 + A0/NG); ≈ GBW/NG (Mancini ch. 8)
+  // docs/references.md §5c: f−3dB = fa(1 + A0/NG), DC gain A0/(1 + A0/NG); ≈ GBW/NG (Mancini ch. 8)
   const table: [number, number, number][] = [[1, 1000010, 0.99999], [10, 100010, 9.9990001], [100, 10010, 99.9000999]];
   it.each(table)("non-inverting amplifier, noise gain %d: −3 dB at %d Hz, DC gain %f", (ng, f3, g0) => {
     const rg = nonInverting(ng, 1e-3);

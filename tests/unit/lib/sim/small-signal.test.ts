@@ -4,7 +4,7 @@ import { T300C, VT300, runAc, runOp, runSweep, runTran } from "./helpers";
 import { referenceSink } from "./fixtures/sink";
 
 /**
- * Depletion capacitance (REFERENCES §1.4, Gray & Meyer; Nagel 1975): Cj0/(1 − V/Vj)^m below Fc·Vj (Fc = 0.5),
+ * Depletion capacitance (docs/references.md §1.4, Gray & Meyer; Nagel 1975): Cj0/(1 − V/Vj)^m below Fc·Vj (Fc = 0.5),
  * Cj0/(1−Fc)^{1+m}·(1 − Fc(1+m) + m·V/Vj) above.
  */
 function cj(v: number, cj0: number, vj: number, m: number): number {
@@ -13,7 +13,7 @@ function cj(v: number, cj0: number, vj: number, m: number): number {
   return (cj0 / Math.pow(1 - fc, 1 + m)) * (1 - fc * (1 + m) + (m * v) / vj);
 }
 
-describe("AC linearisation of the BJT: hybrid-π with Cπ = Cje(Vbe) + τF·gm and Cμ = Cjc(Vbc) (REFERENCES §1.3–1.4)", () => {
+describe("AC linearisation of the BJT: hybrid-π with Cπ = Cje(Vbe) + τF·gm and Cμ = Cjc(Vbc) (docs/references.md §1.3–1.4)", () => {
   it("short-circuit current gain h_fe(jω) = (gm − jωCμ)/(gπ + jω(Cπ + Cμ)) at 1 kHz … 1 GHz", () => {
     const model = { Is: 1e-15, betaF: 120, betaR: 1, Cje0: 2e-12, Vje: 0.75, mje: 0.33, Cjc0: 1e-12, Vjc: 0.75, mjc: 0.5, tauF: 0.3e-9 };
     const elements: NetlistElement[] = [

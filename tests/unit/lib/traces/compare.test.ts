@@ -3,7 +3,7 @@ import { alignmentOffset, compareStep, findStepEdge, stepFigures, DEFAULT_TOLERA
 import { createRng } from "@/lib/design/stats";
 
 /**
- * Second-order step response (REFERENCES.md §5a, closed form):
+ * Second-order step response (docs/references.md §5a, closed form):
  *   y(t) = 1 − e^{−ζω0 t}[cos ωd t + ζ/√(1−ζ²) sin ωd t],  ωd = ω0√(1−ζ²), y = 0 for t < 0.
  * With the §5a series RLC (R = 10 Ω, L = 1 mH, C = 1 µF): ω0 = 31622.776602 rad/s, ζ = 0.158113883.
  */
@@ -91,7 +91,7 @@ describe("step figures on the closed-form second-order response", () => {
     expect(Math.abs(f.ringingHz! / expected - 1)).toBeLessThan(0.005);
   });
 
-  it("a first-order step: rise time τ·ln 9 and no ringing (REFERENCES.md §5b)", () => {
+  it("a first-order step: rise time τ·ln 9 and no ringing (docs/references.md §5b)", () => {
     const tau = 1e-4;
     const rc = sampled(-1e-4, 2e-3, 1e-7, (t) => (t > 0 ? 1 - Math.exp(-t / tau) : 0));
     const f = stepFigures(rc.time, rc.values, { settleBand: 0.02 });

@@ -1,7 +1,7 @@
 import { apiRoute, json } from "@/lib/api/handler";
 import { revokeShareLinkQuery, shareLinkBody } from "@/lib/api/schemas";
 import { createPublicLink, listShareLinks, revokePublicLink } from "@/lib/db/shareLinks";
-import { publicBaseUrl } from "@/lib/auth/tokens";
+import { publicBaseUrl } from "@/lib/shared/tokens";
 
 type P = { id: string };
 

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { apiRoute, ApiError, json } from "@/lib/api/handler";
 import { listTraces, storeTrace } from "@/lib/db/traces";
-import { readTraceUpload, MAX_UPLOAD_BYTES } from "@/lib/traces/upload";
+import { readTraceUpload, MAX_UPLOAD_BYTES } from "@/lib/api/traceUpload";
 
 type P = { id: string };
 

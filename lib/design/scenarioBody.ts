@@ -1,7 +1,7 @@
-import { DomainError } from "./errors";
-import { upgradeScenario } from "@/lib/design/upgrade";
-import { TEMPLATES, defaultScenario } from "@/lib/design/templates";
-import { ScenarioError, TEMPLATE_IDS, type Scenario, type TemplateId } from "@/lib/design/schema";
+import { DomainError } from "@/lib/errors";
+import { upgradeScenario } from "./upgrade";
+import { TEMPLATES, defaultScenario } from "./templates";
+import { ScenarioError, TEMPLATE_IDS, type Scenario, type TemplateId } from "./schema";
 
 /** Largest scenario body accepted, bytes of JSON. */
 export const MAX_SCENARIO_BYTES = 256 * 1024;
@@ -43,6 +43,3 @@ export function starterBody(template: string): Scenario {
 
 /** Templates offered when creating a scenario. */
 export const TEMPLATE_CHOICES: readonly { id: string; title: string }[] = TEMPLATES.map((t) => ({ id: t.id, title: t.title }));
-
-export const SCENARIO_STATUSES = ["draft", "review", "final"] as const;
-export type ScenarioStatus = (typeof SCENARIO_STATUSES)[number];

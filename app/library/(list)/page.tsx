@@ -1,9 +1,10 @@
 import { requirePageUser } from "@/lib/auth/current";
-import { libraryFacets, libraryFiltersSchema, listEntries, getTeamTolerances } from "@/lib/db/library";
+import { libraryFacets, libraryFiltersSchema, listEntries } from "@/lib/db/library";
+import { getTeamTolerances } from "@/lib/library/tolerances";
 import { LibraryFilters, type FilterValues } from "@/components/library/LibraryFilters";
 import { LibraryTable } from "@/components/library/LibraryTable";
 import { TolerancesForm } from "@/components/library/TolerancesForm";
-import { setTolerancesAction } from "./actions";
+import { setTolerancesAction } from "../actions";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Library" };

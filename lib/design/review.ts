@@ -3,12 +3,12 @@
  * response (with the design layer's metrics and the small-signal step), loop gain and checks — shaped from the one
  * scenario run of lib/design (runScenario with the review policy), which the worker computes.
  */
-import type { AccuracyBudget, Caution, CheckRow } from "@/lib/design/checks";
-import type { StepMetrics } from "@/lib/design/metrics";
-import type { LoopGainResult, SmallSignalStep } from "@/lib/design/run";
-import type { ScenarioRun } from "@/lib/design/scenario-run";
-import type { Scenario } from "@/lib/design/schema";
-import type { OpResult } from "@/lib/sim";
+import type { OpResult } from "../sim";
+import type { AccuracyBudget, Caution, CheckRow } from "./checks";
+import type { StepMetrics } from "./metrics";
+import type { LoopGainResult, SmallSignalStep } from "./run";
+import type { ScenarioRun } from "./scenario-run";
+import type { Scenario } from "./schema";
 
 export interface SimulatedStep {
   /** s */

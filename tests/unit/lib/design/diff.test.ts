@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { diffBodies, flatten } from "@/components/scenarios/diff";
+import { diffBodies, flatten } from "@/lib/design/diff";
+import { valveCoilDemo } from "@/lib/design/demos";
 
 // Expected rows are worked out by hand from the two literal bodies (definition of a key-by-key difference).
 describe("scenario body diff", () => {
@@ -27,5 +28,16 @@ describe("scenario body diff", () => {
   it("finds nothing between equal bodies", () => {
     const s = { parts: { a: 1 }, x: [1, 2] };
     expect(diffBodies(s, structuredClone(s))).toEqual([]);
+  });
+
+  it("names each changed value of a whole scenario by its path", () => {
+    const a = valveCoilDemo();
+    const b = structuredClone(a);
+    b.parts.compCapacitor = 4.7e-9;
+    b.load.cable.length = 10;
+    expect(diffBodies(a, b)).toEqual([
+      { path: "parts.compCapacitor", before: a.parts.compCapacitor, after: 4.7e-9, kind: "changed" },
+      { path: "load.cable.length", before: a.load.cable.length, after: 10, kind: "changed" },
+    ]);
   });
 });

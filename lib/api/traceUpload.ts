@@ -4,8 +4,8 @@
  * the line; nothing is stored by this module.
  */
 import { z } from "zod";
-import { readLimitedBytes } from "@/lib/api/body";
-import { MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "./parse";
+import { readLimitedBytes } from "./body";
+import { MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 
 /** Largest multipart request, bytes: the file limit plus room for the other fields. */
 export const MAX_UPLOAD_BYTES = MAX_TRACE_BYTES + 64 * 1024;

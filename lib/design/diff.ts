@@ -1,6 +1,7 @@
 /**
  * Differences between two scenario bodies as rows of dotted paths ("parts.senseResistor"), part values first.
- * Pure: used by the history view and the save-conflict view.
+ * Pure: the revision history's comparison and the save-conflict view (components/scenarios/SaveConflict.tsx, shown
+ * by the workbench's save control and by the JSON save form) both list these rows.
  */
 export type Scalar = string | number | boolean | null;
 

@@ -1,0 +1,214 @@
+import "server-only";
+/**
+ * The library's status workflow: submit for validation, validate, return with comments, retire, withdraw, comment,
+ * and start a new scenario from a validated entry. Who may do what is checked here, on the server; the people
+ * concerned are told by mail (lib/library/mail.ts). Rows and queries are lib/db/library.ts.
+ */
+import { db } from "@/lib/db/knex";
+import { audit } from "@/lib/db/audit";
+import { isUuid } from "@/lib/db/users";
+import { recordEvent, teamLeads, usersByIds, type Evidence, type SubmitInput } from "@/lib/db/library";
+import { DomainError } from "@/lib/errors";
+import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
+import type { LibraryStatus } from "@/lib/shared/statuses";
+import { scenarioFacets } from "./facets";
+import { getTeamTolerances } from "./tolerances";
+import { deliver, libraryMail, others } from "./mail";
+
+export interface WorkflowResult {
+  entryId: string;
+  status: LibraryStatus;
+  /** Addresses whose notification could not be sent (the change is recorded regardless). */
+  mailFailures: string[];
+}
+
+/**
+ * A designer (or lead) submits a revision for validation with bench traces and a note. Creates the revision's
+ * entry, or resubmits one that was returned. The team's leads are told by mail.
+ */
+export async function submitForValidation(actor: CurrentUser, scenarioId: string, input: SubmitInput): Promise<WorkflowResult> {
+  if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot submit revisions for validation.");
+  if (!isUuid(scenarioId)) throw new DomainError(404, "No such scenario.");
+  const result = await db().transaction(async (trx) => {
+    const s = await trx("scenarios").where({ id: scenarioId, team_id: actor.teamId }).whereNull("deleted_at").first();
+    if (!s) throw new DomainError(404, "No such scenario.");
+    const revisionId = input.revisionId ?? s.current_revision_id;
+    const rev = revisionId ? await trx("revisions").where({ id: revisionId, scenario_id: s.id }).first() : null;
+    if (!rev) throw new DomainError(400, "revisionId: not a revision of this scenario.");
+    // FOR SHARE: a trace being deleted right now is waited for (then it is missing, 400), and one attached here
+    // cannot be deleted until this submission commits (then deleteTrace sees it is evidence, 409).
+    const traces = await trx("bench_traces").whereIn("id", input.traceIds).andWhere({ team_id: actor.teamId }).forShare().select("id", "revision_id");
+    const missing = input.traceIds.filter((id) => !traces.some((t) => t.id === id));
+    if (missing.length) throw new DomainError(400, `traceIds: no such bench trace ${missing[0]}.`);
+    const foreign = traces.find((t) => t.revision_id !== rev.id);
+    if (foreign) throw new DomainError(400, `traceIds: trace ${foreign.id} belongs to another revision; upload the capture against revision ${rev.number}.`);
+    for (const c of input.comparisons) {
+      if (!input.traceIds.includes(c.traceId)) throw new DomainError(400, `comparisons: trace ${c.traceId} is not among the attached traces.`);
+    }
+    const tolerances = await getTeamTolerances(actor.teamId, trx);
+    const facets = scenarioFacets(rev.body, s.template);
+    const evidence: Evidence = { traceIds: input.traceIds, comparisons: input.comparisons, tolerances };
+    // A revision has at most one entry (unique index). FOR UPDATE locks nothing while there is no row yet, so two
+    // concurrent first submissions both inserted and one died on the index with a server error: serialise them.
+    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`library-entry:${rev.id}`]);
+    const existing = await trx("library_entries").where({ revision_id: rev.id }).forUpdate().first();
+    const fields = {
+      status: "submitted",
+      title: s.title,
+      template: facets.template,
+      pass_element: facets.passElement,
+      load_type: facets.loadType,
+      current_min: facets.currentMin,
+      current_max: facets.currentMax,
+      key_figures: JSON.stringify(input.keyFigures),
+      evidence: JSON.stringify(evidence),
+      note: input.note,
+      submitted_by: actor.id,
+      submitted_at: trx.fn.now(),
+      validated_by: null,
+      validated_at: null,
+      updated_at: trx.fn.now(),
+    };
+    let entryId: string;
+    let from: string | null = null;
+    if (existing) {
+      if (existing.status !== "draft") {
+        throw new DomainError(409, `Revision ${rev.number} is already ${existing.status}; save a new revision to submit changes.`);
+      }
+      from = existing.status;
+      entryId = existing.id;
+      await trx("library_entries").where({ id: entryId }).update(fields);
+    } else {
+      const [row] = await trx("library_entries")
+        .insert({ ...fields, team_id: actor.teamId, scenario_id: s.id, revision_id: rev.id, created_by: actor.id })
+        .returning("id");
+      entryId = row.id;
+      await recordEvent(trx, actor, entryId, "created", null, "draft", "", { revisionNumber: rev.number });
+      from = "draft";
+    }
+    await recordEvent(trx, actor, entryId, "submitted", from, "submitted", input.note, { traceIds: input.traceIds, revisionNumber: rev.number });
+    return { entryId, title: s.title as string, number: rev.number as number };
+  });
+  const leads = others(await teamLeads(actor.teamId), actor);
+  const mailFailures = await deliver(
+    leads.map((to) =>
+      libraryMail({
+        to,
+        entryId: result.entryId,
+        subject: `Validation requested: ${result.title} rev ${result.number}`,
+        lines: [`${actor.name} submitted “${result.title}” revision ${result.number} to the library with ${input.traceIds.length} bench trace${input.traceIds.length > 1 ? "s" : ""}.`, `Note: ${input.note}`],
+      }),
+    ),
+  );
+  return { entryId: result.entryId, status: "submitted", mailFailures };
+}
+
+/** Status changes after submission. Who may do what is checked here, on the server. */
+const TRANSITIONS: Record<string, { from: LibraryStatus[]; to: LibraryStatus; lead: boolean; verb: string; needsComment: boolean }> = {
+  validate: { from: ["submitted"], to: "validated", lead: true, verb: "validated", needsComment: false },
+  return: { from: ["submitted"], to: "draft", lead: true, verb: "returned", needsComment: true },
+  retire: { from: ["validated", "submitted", "draft"], to: "retired", lead: true, verb: "retired", needsComment: false },
+  withdraw: { from: ["submitted"], to: "draft", lead: false, verb: "withdrew", needsComment: false },
+};
+export type LibraryAction = keyof typeof TRANSITIONS;
+export const LIBRARY_ACTIONS = Object.keys(TRANSITIONS) as LibraryAction[];
+
+/** The action that moves an entry to `status` (the PATCH body names the status). */
+export function actionForStatus(current: LibraryStatus, target: LibraryStatus): LibraryAction | null {
+  if (target === "validated") return "validate";
+  if (target === "retired") return "retire";
+  if (target === "draft" && current === "submitted") return "return";
+  return null;
+}
+
+/**
+ * Validate, return (with comments), retire or withdraw an entry. Validate, return and retire are for leads only;
+ * the submitter may withdraw their own submission. The submitter (and the scenario owner) are told by mail.
+ */
+export async function changeEntryStatus(actor: CurrentUser, entryId: string, action: LibraryAction, comment = ""): Promise<WorkflowResult> {
+  const t = TRANSITIONS[action];
+  if (!t) throw new DomainError(400, `action: unknown action "${action}".`);
+  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
+  if (t.lead && actor.role !== "lead") throw new DomainError(403, `Only a lead can ${action} library entries.`);
+  if (!t.lead && !roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot change library entries.");
+  const text = comment.trim().slice(0, 4000);
+  if (t.needsComment && !text) throw new DomainError(400, "comment: say what needs to change before returning the entry.");
+  const r = await db().transaction(async (trx) => {
+    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).forUpdate().first();
+    if (!e) throw new DomainError(404, "No such library entry.");
+    if (action === "withdraw" && e.submitted_by !== actor.id && actor.role !== "lead") {
+      throw new DomainError(403, "Only the submitter or a lead can withdraw a submission.");
+    }
+    if (!t.from.includes(e.status)) throw new DomainError(409, `The entry is ${e.status}; it cannot be ${t.verb === "withdrew" ? "withdrawn" : t.verb} from there.`);
+    const patch: Record<string, unknown> = { status: t.to, updated_at: trx.fn.now() };
+    if (action === "validate") Object.assign(patch, { validated_by: actor.id, validated_at: trx.fn.now() });
+    await trx("library_entries").where({ id: entryId }).update(patch);
+    await recordEvent(trx, actor, entryId, action === "withdraw" ? "withdrawn" : t.verb, e.status, t.to, text);
+    const owner = await trx("scenarios").where({ id: e.scenario_id }).first("owner_id");
+    const rev = await trx("revisions").where({ id: e.revision_id }).first("number");
+    return { e, ownerId: owner?.owner_id as string | undefined, number: rev?.number as number };
+  });
+  const concerned = others(
+    [...(await usersByIds([r.e.submitted_by, r.ownerId])), ...(action === "withdraw" || action === "retire" ? await teamLeads(actor.teamId) : [])],
+    actor,
+  );
+  const headline: Record<LibraryAction, string> = {
+    validate: `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
+    return: `${actor.name} returned “${r.e.title}” revision ${r.number} with comments.`,
+    retire: `${actor.name} retired “${r.e.title}” revision ${r.number} from the library.`,
+    withdraw: `${actor.name} withdrew “${r.e.title}” revision ${r.number} from validation.`,
+  };
+  const subject: Record<LibraryAction, string> = {
+    validate: `Validated: ${r.e.title} rev ${r.number}`,
+    return: `Returned with comments: ${r.e.title} rev ${r.number}`,
+    retire: `Retired: ${r.e.title} rev ${r.number}`,
+    withdraw: `Withdrawn: ${r.e.title} rev ${r.number}`,
+  };
+  const mailFailures = await deliver(
+    concerned.map((to) => libraryMail({ to, entryId, subject: subject[action], lines: [headline[action], ...(text ? [`Comment: ${text}`] : [])] })),
+  );
+  return { entryId, status: t.to, mailFailures };
+}
+
+/** Any member may comment on an entry; the submitter and the leads hear of it. */
+export async function commentOnEntry(actor: CurrentUser, entryId: string, comment: string): Promise<WorkflowResult> {
+  const text = comment.trim().slice(0, 4000);
+  if (!text) throw new DomainError(400, "comment: write something.");
+  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
+  const e = await db().transaction(async (trx) => {
+    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).first();
+    if (!e) throw new DomainError(404, "No such library entry.");
+    await recordEvent(trx, actor, entryId, "commented", e.status, e.status, text);
+    return e;
+  });
+  const concerned = others([...(await usersByIds([e.submitted_by])), ...(await teamLeads(actor.teamId))], actor);
+  const mailFailures = await deliver(
+    concerned.map((to) => libraryMail({ to, entryId, subject: `Comment on ${e.title}`, lines: [`${actor.name} commented on “${e.title}”:`, text] })),
+  );
+  return { entryId, status: e.status, mailFailures };
+}
+
+/** "Start from this": a new scenario owned by the actor whose revision 1 copies a validated entry's revision. */
+export async function startFromEntry(actor: CurrentUser, entryId: string, title?: string): Promise<{ scenarioId: string; revisionId: string }> {
+  if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot create scenarios.");
+  if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
+  return db().transaction(async (trx) => {
+    const e = await trx("library_entries as e")
+      .join("revisions as r", "r.id", "e.revision_id")
+      .where({ "e.id": entryId, "e.team_id": actor.teamId })
+      .first("e.id", "e.status", "e.title", "e.template", "r.id as revision_id", "r.number", "r.body");
+    if (!e) throw new DomainError(404, "No such library entry.");
+    if (e.status !== "validated") throw new DomainError(409, `Only validated entries are starting points; this one is ${e.status}.`);
+    const name = (title?.trim() || `${e.title} (from library)`).slice(0, 200);
+    const [s] = await trx("scenarios").insert({ team_id: actor.teamId, owner_id: actor.id, title: name, template: e.template }).returning("id");
+    const [rev] = await trx("revisions")
+      .insert({
+        scenario_id: s.id, number: 1, parent_id: e.revision_id, author_id: actor.id,
+        note: `Started from the library: “${e.title}” revision ${e.number}`, body: JSON.stringify(e.body),
+      })
+      .returning("id");
+    await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id });
+    await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.start_from", subjectType: "scenario", subjectId: s.id, detail: { entryId, revisionId: e.revision_id } }, trx);
+    return { scenarioId: s.id as string, revisionId: rev.id as string };
+  });
+}
