@@ -2,7 +2,7 @@ import Link from "next/link";
 import { currentUser } from "@/lib/auth/current";
 import { teamsOfUser } from "@/lib/db/users";
 import { UserMenu } from "@/components/account/UserMenu";
-import { signOutAction, switchTeamAction } from "@/app/(account)/actions";
+import { signOutAction, signOutEverywhereAction, switchTeamAction } from "@/app/(account)/actions";
 
 async function signedIn() {
   try {
@@ -37,6 +37,7 @@ export async function TopBar() {
             teams={me.teams}
             switchTeam={switchTeamAction}
             signOut={signOutAction}
+            signOutEverywhere={signOutEverywhereAction}
           />
         ) : (
           <Link href="/sign-in" className="ml-auto rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>

@@ -5,6 +5,7 @@ import { roleAtLeast, type CurrentUser, type Role } from "./roles";
 import type { ActionState } from "./action-state";
 import { fieldErrors } from "@/lib/api/handler";
 import { DomainError } from "@/lib/db/errors";
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from "@/lib/db/outage";
 
 export type { ActionState };
 
@@ -22,6 +23,8 @@ async function run(fn: () => Promise<ActionState | void>, formData: FormData): P
   } catch (e) {
     // redirect()/notFound() throw too: only expected refusals become state, the rest propagates.
     if (e instanceof DomainError) return { message: e.message, values: echo(formData) };
+    // An outage is not the form's fault: say so and keep what was typed, so sending again works once it is back.
+    if (isDatabaseUnavailable(e)) return { message: DATABASE_UNAVAILABLE, values: echo(formData) };
     throw e;
   }
 }
@@ -35,18 +38,19 @@ export function validatedAction<S extends ZodType>(
   fn: (data: z.output<S>, user: CurrentUser, formData: FormData) => Promise<ActionState | void>,
   opts: { role?: Role } = {},
 ): (prev: ActionState, formData: FormData) => Promise<ActionState> {
-  return async (_prev, formData) => {
-    const user = await currentUser();
-    if (!user) return { message: "Your session has ended: sign in again." };
-    if (opts.role && !roleAtLeast(user.role, opts.role)) {
-      return { message: `This needs the ${opts.role} role or higher.` };
-    }
-    const parsed = schema.safeParse(Object.fromEntries(formData));
-    if (!parsed.success) {
-      return { fieldErrors: actionFieldErrors(parsed.error), message: "Check the marked fields.", values: echo(formData) };
-    }
-    return run(() => fn(parsed.data, user, formData), formData);
-  };
+  return async (_prev, formData) =>
+    run(async () => {
+      const user = await currentUser();
+      if (!user) return { message: "Your session has ended: sign in again." };
+      if (opts.role && !roleAtLeast(user.role, opts.role)) {
+        return { message: `This needs the ${opts.role} role or higher.` };
+      }
+      const parsed = schema.safeParse(Object.fromEntries(formData));
+      if (!parsed.success) {
+        return { fieldErrors: actionFieldErrors(parsed.error), message: "Check the marked fields.", values: echo(formData) };
+      }
+      return fn(parsed.data, user, formData);
+    }, formData);
 }
 
 /** The same for the few forms used before signing in (sign-in, sign-up, password reset). */

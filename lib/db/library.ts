@@ -13,6 +13,7 @@ import { DEFAULT_TOLERANCES, tolerancesSchema, type Tolerances } from "@/lib/tra
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { TEMPLATES } from "@/lib/design/templates";
 import { idealTransconductance } from "@/lib/design/compile";
+import { storedText } from "@/lib/api/text";
 
 export const LIBRARY_STATUSES = ["draft", "submitted", "validated", "retired"] as const;
 export type LibraryStatus = (typeof LIBRARY_STATUSES)[number];
@@ -304,7 +305,7 @@ function others(list: Recipient[], actor: CurrentUser): Recipient[] {
 export const submitSchema = z.object({
   /** Revision to submit; the scenario's current revision when absent. */
   revisionId: z.string().uuid().optional(),
-  note: z.string().trim().min(1, "Write a note for the reviewer").max(4000),
+  note: storedText("note").trim().min(1, "Write a note for the reviewer").max(4000),
   traceIds: z.array(z.string().uuid()).min(1, "Attach at least one bench trace").max(20),
   keyFigures: keyFiguresSchema.default({}),
   comparisons: z.array(comparisonSummarySchema).max(20).default([]),

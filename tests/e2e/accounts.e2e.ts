@@ -174,7 +174,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await page.waitForURL((u) => u.pathname === "/scenarios");
     expect(await page.getByTestId("who").textContent()).toContain("lead");
 
-    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.getByRole("button", { name: "Sign out", exact: true }).click();
     await page.waitForURL((u) => u.pathname === "/sign-in");
 
     const since = new Date(Date.now() - 2000);

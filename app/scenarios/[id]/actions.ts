@@ -7,16 +7,20 @@ import { saveRevision, forkRevision, type SaveResult } from "@/lib/db/revisions"
 import { softDeleteScenario, restoreScenario } from "@/lib/db/scenarios";
 import { addComment } from "@/lib/db/comments";
 import { DomainError } from "@/lib/db/errors";
+import { storedText } from "@/lib/api/text";
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from "@/lib/db/outage";
 
 const saveInput = z.object({
   scenarioId: z.string().uuid("scenarioId must be a scenario id"),
   baseRevisionId: z.string().uuid("baseRevisionId must be a revision id"),
-  note: z.string().max(2000, "note: at most 2000 characters"),
+  note: storedText("note").max(2000, "note: at most 2000 characters"),
   body: z.unknown(),
 });
 
-function refusal(e: unknown): { ok: false; message: string } {
+function refusal(e: unknown): { ok: false; message: string; retry?: true } {
   if (e instanceof DomainError) return { ok: false, message: e.message };
+  // An outage: nothing was saved, and the same request can be sent again once the database is back.
+  if (isDatabaseUnavailable(e)) return { ok: false, message: DATABASE_UNAVAILABLE, retry: true };
   throw e;
 }
 
@@ -26,9 +30,13 @@ function refusal(e: unknown): { ok: false; message: string } {
  */
 export async function saveScenarioRevision(input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }): Promise<
   | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string }
+  | { ok: false; conflict?: { current: { revisionId: string; number: number; body: unknown; author: string; createdAt: string } }; message: string; retry?: true }
 > {
-  const user = await currentUser();
+  const user = await currentUser().catch((e: unknown) => {
+    if (isDatabaseUnavailable(e)) return "unavailable" as const;
+    throw e;
+  });
+  if (user === "unavailable") return { ok: false, message: DATABASE_UNAVAILABLE, retry: true };
   if (!user) return { ok: false, message: "Your session has ended: sign in again to save." };
   if (!roleAtLeast(user.role, "designer")) return { ok: false, message: "Viewers cannot save scenarios." };
   const parsed = saveInput.safeParse(input);
@@ -47,7 +55,7 @@ export async function forkScenario(input: { revisionId: string; title?: string }
   const user = await currentUser();
   if (!user) return { ok: false, message: "Your session has ended: sign in again." };
   if (!roleAtLeast(user.role, "designer")) return { ok: false, message: "Viewers cannot fork scenarios." };
-  const parsed = z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: z.string().max(200).optional() }).safeParse(input);
+  const parsed = z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: storedText("title").max(200, "title: at most 200 characters").optional() }).safeParse(input);
   if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
   try {
     const r = await forkRevision(user, parsed.data.revisionId, parsed.data.title);
@@ -79,7 +87,7 @@ export async function commentOnScenario(input: { scenarioId: string; revisionId?
   const user = await currentUser();
   if (!user) return { ok: false, message: "Your session has ended: sign in again." };
   const parsed = z
-    .object({ scenarioId: z.string().uuid(), revisionId: z.string().uuid().optional(), body: z.string().trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters.") })
+    .object({ scenarioId: z.string().uuid(), revisionId: z.string().uuid().optional(), body: storedText("comment").trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters.") })
     .safeParse(input);
   if (!parsed.success) return { ok: false, message: parsed.error.issues.map((i) => i.message).join("; ") };
   try {

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { apiRoute, ApiError } from "@/lib/api/handler";
+import { storedText } from "@/lib/api/text";
 import { actionForStatus, changeEntryStatus, commentOnEntry, getEntry, LIBRARY_STATUSES } from "@/lib/db/library";
 
 type P = { id: string };
@@ -13,7 +14,7 @@ const patchBody = z
     status: z.enum(LIBRARY_STATUSES, { error: `status must be one of ${LIBRARY_STATUSES.join(", ")}` }).optional(),
     /** The submitter (or a lead) withdraws a submission. */
     withdraw: z.literal(true).optional(),
-    comment: z.string().max(4000, "comment: at most 4000 characters").optional(),
+    comment: storedText("comment").max(4000, "comment: at most 4000 characters").optional(),
   })
   .strict()
   .refine((b) => b.status !== undefined || b.withdraw || (b.comment ?? "").trim() !== "", {
