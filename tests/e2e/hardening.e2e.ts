@@ -93,6 +93,47 @@ describe("hardening: statuses before streaming, cross-origin posts, sessions", (
     expect(formPost.headers.get("content-type")).toMatch(/^text\/plain/);
   });
 
+  it("a save that meets a database outage keeps the unsaved edits and offers to try again", async () => {
+    // A scenario of the designer's own (a copy of a demo revision), so no other test's revisions move.
+    const me = await db()("users").where({ email: demoUser("designer").email }).first("id", "current_team_id");
+    const src = await db()("revisions").where({ scenario_id: ownScenario }).orderBy("number", "desc").first("body");
+    const [s] = await db()("scenarios").insert({ team_id: me.current_team_id, owner_id: me.id, title: "Outage save target", template: "sink-npn" }).returning("id");
+    const [r] = await db()("revisions").insert({ scenario_id: s.id, number: 1, author_id: me.id, note: "start", body: JSON.stringify(src.body) }).returning("id");
+    await db()("scenarios").where({ id: s.id }).update({ current_revision_id: r.id });
+
+    const page = await designer.newPage();
+    await open(page, `/scenarios/${s.id}`);
+    const field = page.locator("#field-parts-compCapacitor");
+    await field.waitFor();
+    const next = (await field.inputValue()) === "2.2n" ? "3.3n" : "2.2n";
+    await field.fill(next);
+    await field.press("Enter");
+    await expect.poll(() => page.getByTestId("dirty-indicator").textContent(), { timeout: 10_000 }).toContain("Unsaved changes");
+
+    // What the proxy answers while PostgreSQL is down: 503 with Retry-After, for the server action's POST.
+    await page.route(`**/scenarios/${s.id}`, (route) =>
+      route.request().method() === "POST"
+        ? route.fulfill({ status: 503, headers: { "retry-after": "5", "content-type": "text/html" }, body: "The database is unavailable, try again." })
+        : route.continue(),
+    );
+    await page.getByTestId("save-open").click();
+    await page.getByTestId("save-note").fill("during the outage");
+    await page.getByTestId("save-submit").click();
+    await page.getByTestId("save-retry").waitFor({ timeout: 15_000 });
+    expect(await page.getByTestId("save-message").textContent()).toMatch(/edits are kept/);
+    expect(await page.getByTestId("dirty-indicator").textContent()).toContain("Unsaved changes");
+    expect(await field.inputValue()).toBe(next);
+    expect(await db()("revisions").where({ scenario_id: s.id }).count<{ n: string }[]>({ n: "*" })).toEqual([{ n: "1" }]);
+
+    // The database is back: the same save goes through.
+    await page.unroute(`**/scenarios/${s.id}`);
+    await page.getByTestId("save-retry").click();
+    await page.getByText("Saved as revision 2").waitFor({ timeout: 15_000 });
+    const saved = await db()("revisions").where({ scenario_id: s.id, number: 2 }).first("note");
+    expect(saved).toEqual({ note: "during the outage" });
+    await page.close();
+  });
+
   it("Sign out ends the session on the server; Sign out everywhere (account menu) ends the user's other sessions", async () => {
     const members = (cookie: string) => fetch(`${BASE_URL}/api/team/members`, { headers: { cookie } }).then((r) => r.status);
     const laptop = await browser.newContext();
