@@ -69,6 +69,11 @@ describe("hardening: statuses before streaming, cross-origin posts, sessions", (
       expect((await get(`/scenarios/${ownScenario}${sub}`, designerCookie)).status, sub || "workbench").toBe(200);
     }
     expect((await get("/scenarios/not-an-id/history", designerCookie)).status).toBe(404);
+    // A deleted scenario of one's own team: its history still opens (to restore it), its workbench does not.
+    const me = await db()("users").where({ email: demoUser("designer").email }).first("id", "current_team_id");
+    const [gone] = await db()("scenarios").insert({ team_id: me.current_team_id, owner_id: me.id, title: "Deleted one", template: "sink-npn", deleted_at: new Date() }).returning("id");
+    expect((await get(`/scenarios/${gone.id}`, designerCookie)).status).toBe(404);
+    expect((await get(`/scenarios/${gone.id}/history`, designerCookie)).status).toBe(200);
   });
 
   it("unknown, revoked and expired public links answer 404; an active one 200", async () => {
@@ -132,6 +137,29 @@ describe("hardening: statuses before streaming, cross-origin posts, sessions", (
     const saved = await db()("revisions").where({ scenario_id: s.id, number: 2 }).first("note");
     expect(saved).toEqual({ note: "during the outage" });
     await page.close();
+  });
+
+  it("a client-sent X-Forwarded-For does not dodge the per-address sign-in limit (the socket's address counts)", async () => {
+    // 20 failures already counted against this machine's socket address (127.0.0.1, where the test server listens).
+    const account = `nobody.${randomBytes(3).toString("hex")}@elsewhere.test`;
+    const rows = Array.from({ length: 20 }, () => ({ account, client_address: "127.0.0.1", succeeded: false }));
+    const ids = (await db()("sign_in_attempts").insert(rows).returning("id")).map((r: { id: string }) => r.id);
+    const ctx = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": "198.51.100.23" } });
+    try {
+      const page = await ctx.newPage();
+      await open(page, "/sign-in?next=/scenarios");
+      await page.getByLabel("E-mail").fill(demoUser("viewer").email);
+      await page.getByLabel("Password").fill(demoUser("viewer").password);
+      await page.getByRole("button", { name: "Sign in" }).click();
+      await page.getByText("Too many failed sign-ins").waitFor({ timeout: 15_000 });
+      expect(new URL(page.url()).pathname).toBe("/sign-in");
+      expect(await db()("sign_in_attempts").where({ client_address: "198.51.100.23" }).count<{ n: string }[]>({ n: "*" })).toEqual([{ n: "0" }]);
+    } finally {
+      await ctx.close();
+      // Later suites sign in from this address too.
+      await db()("sign_in_attempts").whereIn("id", ids).delete();
+      await db()("sign_in_attempts").where({ client_address: "127.0.0.1", succeeded: false }).delete();
+    }
   });
 
   it("Sign out ends the session on the server; Sign out everywhere (account menu) ends the user's other sessions", async () => {

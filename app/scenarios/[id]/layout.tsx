@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
 import { notFound } from "next/navigation";
+import { headers } from "next/headers";
 import { requirePageUser } from "@/lib/auth/current";
 import { scenarioRowInTeam } from "@/lib/db/scenarios";
 import { db } from "@/lib/db/knex";
@@ -16,7 +17,10 @@ export const dynamic = "force-dynamic";
 export default async function ScenarioAccessLayout({ children, params }: { children: ReactNode; params: Promise<{ id: string }> }) {
   const user = await requirePageUser("viewer");
   const { id } = await params;
-  await scenarioRowInTeam(db(), user, id, { includeDeleted: true }).catch((e: unknown) => {
+  // History, review and traces still show a deleted scenario (to restore it); the workbench does not open one.
+  const path = (await headers()).get("x-quell-path") ?? "";
+  const workbench = new RegExp(`^/scenarios/${id.replace(/[^0-9a-zA-Z-]/g, "")}(?:[?#]|$)`).test(path);
+  await scenarioRowInTeam(db(), user, id, { includeDeleted: !workbench }).catch((e: unknown) => {
     if (e instanceof DomainError && e.status === 404) notFound();
     throw e;
   });
