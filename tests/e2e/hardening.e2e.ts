@@ -144,7 +144,8 @@ describe("hardening: statuses before streaming, cross-origin posts, sessions", (
     const account = `nobody.${randomBytes(3).toString("hex")}@elsewhere.test`;
     const rows = Array.from({ length: 20 }, () => ({ account, client_address: "127.0.0.1", succeeded: false }));
     const ids = (await db()("sign_in_attempts").insert(rows).returning("id")).map((r: { id: string }) => r.id);
-    const ctx = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": "198.51.100.23" } });
+    const forged = `10.${randomBytes(3).join(".")}`; // a fresh address each run, as a rotating client would send
+    const ctx = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": forged } });
     try {
       const page = await ctx.newPage();
       await open(page, "/sign-in?next=/scenarios");
@@ -153,7 +154,7 @@ describe("hardening: statuses before streaming, cross-origin posts, sessions", (
       await page.getByRole("button", { name: "Sign in" }).click();
       await page.getByText("Too many failed sign-ins").waitFor({ timeout: 15_000 });
       expect(new URL(page.url()).pathname).toBe("/sign-in");
-      expect(await db()("sign_in_attempts").where({ client_address: "198.51.100.23" }).count<{ n: string }[]>({ n: "*" })).toEqual([{ n: "0" }]);
+      expect(await db()("sign_in_attempts").where({ client_address: forged }).count<{ n: string }[]>({ n: "*" })).toEqual([{ n: "0" }]);
     } finally {
       await ctx.close();
       // Later suites sign in from this address too.
