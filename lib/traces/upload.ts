@@ -101,6 +101,10 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
   const text = await file.text();
   try {
     const parsed = parseTraceCsv(text, { timeUnit: options.value.timeUnit, channels: options.value.channels });
+    // Column names from the file's header are stored with the trace: the same rule as typed text.
+    if (parsed.channels.some((c) => hasControlCharacters(c.name))) {
+      return { ok: false, status: 400, error: `${file.name}: ${controlCharacterMessage("column header")}`, fieldErrors: { file: [controlCharacterMessage("file: column header")] } };
+    }
     return { ok: true, label: label || file.name, fileName: file.name, revisionId, options: options.value, settings: settings.value, parsed };
   } catch (e) {
     if (e instanceof TraceParseError) return { ok: false, status: 400, error: `${file.name}: ${e.message}`, problems: e.problems };

@@ -135,6 +135,8 @@ describe("NUL and other control characters in stored text: 400 naming the field"
     const settings = await uploadTrace(f.designer, f.scenarioId, { settings: JSON.stringify({ probe: `10x${NUL}` }) });
     expect(await fieldsOf(settings)).toEqual(["settings"]);
     expect(await fieldsOf(await uploadTrace(f.designer, f.scenarioId, { settings: JSON.stringify({ [`k${NUL}`]: 1 }) }))).toEqual(["settings"]);
+    // A column name in the CSV header is stored too.
+    expect(await fieldsOf(await uploadTrace(f.designer, f.scenarioId, { header: `Time (ms),I${NUL} (mA)` }))).toEqual(["file"]);
   });
 
   it("server actions: save note, fork title, comment, library start title, sign-up name and team name, new team name", async () => {
@@ -260,8 +262,8 @@ describe("the last lead cannot demote or remove themselves", () => {
 
 // ── helpers ────────────────────────────────────────────────────────────────────────────────────────────────────
 
-async function uploadTrace(a: Actor, scenarioId: string, o: { label?: string; fileName?: string; settings?: string } = {}): Promise<Response> {
-  const lines = ["Time (ms),I (mA)"];
+async function uploadTrace(a: Actor, scenarioId: string, o: { label?: string; fileName?: string; settings?: string; header?: string } = {}): Promise<Response> {
+  const lines = [o.header ?? "Time (ms),I (mA)"];
   for (let k = 0; k < 40; k++) lines.push(`${(k * 0.1).toFixed(1)},${k < 10 ? 0 : 500}`);
   const fd = new FormData();
   fd.set("file", new File([lines.join("\n")], o.fileName ?? "bench.csv", { type: "text/csv" }));
