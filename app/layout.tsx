@@ -5,7 +5,7 @@ import { TopBar, type TopBarAccount } from "@/components/shell/TopBar";
 import { HydrationMark } from "@/components/shell/HydrationMark";
 import { currentUser } from "@/lib/auth/current";
 import { teamsOfUser } from "@/lib/db/users";
-import { signOutAction, switchTeamAction } from "./(account)/actions";
+import { signOutAction, signOutEverywhereAction, switchTeamAction } from "./(account)/actions";
 
 export const metadata: Metadata = {
   title: { default: "Quell", template: "%s · Quell" },
@@ -18,7 +18,7 @@ export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 async function signedIn(): Promise<TopBarAccount | null> {
   try {
     const user = await currentUser();
-    return user ? { user, teams: await teamsOfUser(user.id), switchTeam: switchTeamAction, signOut: signOutAction } : null;
+    return user ? { user, teams: await teamsOfUser(user.id), switchTeam: switchTeamAction, signOut: signOutAction, signOutEverywhere: signOutEverywhereAction } : null;
   } catch {
     return null; // the database is down: the page (and its health badge) still renders
   }

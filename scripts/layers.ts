@@ -41,7 +41,7 @@ export const LAYERS: Readonly<Record<string, LayerRule>> = {
     types: ["lib/sim", "lib/db", "lib/auth", "lib/library", "lib/api", "workers"],
   },
   app: { values: [...PURE_LIB, ...SERVER_LIB, "lib/workbench", "components"] },
-  "proxy.ts": { values: [] },
+  "proxy.ts": { values: ["lib/db"] },
   "knexfile.ts": { values: [] },
   db: { values: ["knexfile.ts", "lib/design"] },
   scripts: { values: ["lib/sim", "lib/design"] },

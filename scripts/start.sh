@@ -21,7 +21,7 @@ node --import tsx db/mail-fake.ts & pids+=($!)
 wait_port "$QUELL_SMTP_PORT" || { say "the mail fake did not start"; exit 1; }
 
 NODE_ENV=production build_if_stale .next
-NODE_ENV=production QUELL_DIST_DIR=.next node_modules/.bin/next start -p "$PORT" -H "${QUELL_HOST:-127.0.0.1}" & pids+=($!)
+NODE_ENV=production QUELL_DIST_DIR=.next node --require ./scripts/peer-address.cjs node_modules/.bin/next start -p "$PORT" -H "${QUELL_HOST:-127.0.0.1}" & pids+=($!)
 wait_http "http://127.0.0.1:$PORT/api/health" || { say "the app did not answer"; exit 1; }
 
 cat <<MSG

@@ -52,7 +52,7 @@ fi
 say "end-to-end tests"
 DIST="${QUELL_TEST_DIST:-.next-test}"
 NODE_ENV=production build_if_stale "$DIST"
-NODE_ENV=production QUELL_DIST_DIR="$DIST" node_modules/.bin/next start -p "$PORT" -H 127.0.0.1 >"$QUELL_DATA/app-$QUELL_DB.log" 2>&1 & pids+=($!)
+NODE_ENV=production QUELL_DIST_DIR="$DIST" node --require ./scripts/peer-address.cjs node_modules/.bin/next start -p "$PORT" -H 127.0.0.1 >"$QUELL_DATA/app-$QUELL_DB.log" 2>&1 & pids+=($!)
 if wait_http "$QUELL_BASE_URL/api/health"; then
   npx vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile="$RESULTS/e2e.json" || status=1
 else

@@ -5,13 +5,14 @@ import { redirect } from "next/navigation";
 import { validatedAction, validatedPublicAction, type ActionState } from "@/lib/auth/action";
 import { clientAddressFrom } from "@/lib/auth/client-address";
 import { safeNext } from "@/lib/auth/safe-next";
-import { setSession, destroySession, getSession } from "@/lib/auth/session";
+import { setSession, destroySession, destroyAllSessions, getSession } from "@/lib/auth/session";
 import { sessionAccount } from "@/lib/auth/current";
 import { signInWithPassword, signUp, requestPasswordReset, resetPassword, createAccountFromInvitation } from "@/lib/auth/accounts";
 import { resolveCurrentUser, findUserById, teamsOfUser, setCurrentTeam } from "@/lib/db/users";
 import { acceptInvitation, createTeam, findInvitationByToken } from "@/lib/db/teams";
 import { DomainError } from "@/lib/errors";
 import { db } from "@/lib/db/knex";
+import { storedText } from "@/lib/shared/text";
 
 const email = z.string().trim().min(1, "Enter your e-mail address.").max(254).email("Enter an e-mail address such as name@example.com.");
 const newPassword = z.string().min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters.");
@@ -40,10 +41,10 @@ export const signInAction = validatedPublicAction(
 
 export const signUpAction = validatedPublicAction(
   z.object({
-    name: z.string().trim().min(1, "Enter your name.").max(100),
+    name: storedText("name").trim().min(1, "Enter your name.").max(100),
     email,
     password: newPassword,
-    teamName: z.string().trim().min(2, "Name your team (at least 2 characters).").max(100),
+    teamName: storedText("teamName").trim().min(2, "Name your team (at least 2 characters).").max(100),
   }),
   async (data) => {
     const { user, teamId } = await signUp(data);
@@ -52,8 +53,15 @@ export const signUpAction = validatedPublicAction(
   },
 );
 
+/** Ends this browser's session on the server (a copied cookie stops working too). */
 export async function signOutAction(): Promise<void> {
   await destroySession();
+  redirect("/sign-in");
+}
+
+/** Ends every session of the signed-in user, on every browser. */
+export async function signOutEverywhereAction(): Promise<void> {
+  await destroyAllSessions();
   redirect("/sign-in");
 }
 
@@ -90,7 +98,7 @@ export const acceptInvitationAction = validatedPublicAction(z.object({ token: z.
 
 /** Create an account from an invitation link, then accept it; both in one go. */
 export const acceptWithNewAccountAction = validatedPublicAction(
-  z.object({ token: z.string().min(10).max(200), name: z.string().trim().min(1, "Enter your name.").max(100), password: newPassword }),
+  z.object({ token: z.string().min(10).max(200), name: storedText("name").trim().min(1, "Enter your name.").max(100), password: newPassword }),
   async (data) => {
     const inv = await findInvitationByToken(data.token);
     if (!inv || inv.status !== "pending") return { message: "This invitation is no longer valid." };
@@ -112,7 +120,7 @@ export const switchTeamAction = validatedAction(z.object({ teamId: z.string().uu
 });
 
 /** A signed-in user creates another team (and leads it). Works for users who belong to no team any more. */
-export const createTeamAction = validatedPublicAction(z.object({ teamName: z.string().trim().min(2, "Name your team (at least 2 characters).").max(100) }), async (data) => {
+export const createTeamAction = validatedPublicAction(z.object({ teamName: storedText("teamName").trim().min(2, "Name your team (at least 2 characters).").max(100) }), async (data) => {
   const account = await sessionAccount();
   if (!account) return { message: "Sign in first." };
   const team = await db().transaction((trx) => createTeam(data.teamName, account.id, trx));

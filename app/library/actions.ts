@@ -5,12 +5,13 @@ import { revalidatePath } from "next/cache";
 import { validatedAction } from "@/lib/auth/action";
 import { setTeamTolerances } from "@/lib/library/tolerances";
 import { startFromEntry } from "@/lib/library/workflow";
+import { storedText } from "@/lib/shared/text";
 
 const num = (label: string) => z.coerce.number({ error: `${label} must be a number` }).finite(`${label} must be a number`).positive(`${label} must be above zero`).max(1000, `${label}: at most 1000`);
 
 /** "Start from this": a new scenario from a validated entry, then straight to it (designers and leads). */
 export const startFromEntryAction = validatedAction(
-  z.object({ entryId: z.string().uuid("entryId must be a library entry id"), title: z.string().max(200, "title: at most 200 characters").optional() }),
+  z.object({ entryId: z.string().uuid("entryId must be a library entry id"), title: storedText("title").max(200, "title: at most 200 characters").optional() }),
   async (data, user) => {
     const { scenarioId } = await startFromEntry(user, data.entryId, data.title);
     revalidatePath("/scenarios");

@@ -6,7 +6,8 @@ type Action = (prev: ActionState, fd: FormData) => Promise<ActionState>;
 
 /**
  * The signed-in user's corner of the top bar: who and in which role, a team switcher when they belong to
- * several teams (a plain select and a button, so it works from the keyboard), and sign-out.
+ * several teams (a plain select and a button, so it works from the keyboard), sign-out, and sign-out on every
+ * browser.
  */
 export function UserMenu(props: {
   name: string;
@@ -15,6 +16,8 @@ export function UserMenu(props: {
   teams: { teamId: string; teamName: string; role: string }[];
   switchTeam: Action;
   signOut: () => Promise<void>;
+  /** Ends every session of the user, on every browser. */
+  signOutEverywhere: () => Promise<void>;
 }) {
   const [state, run, pending] = useActionState(props.switchTeam, {});
   const form = useRef<HTMLFormElement>(null);
@@ -57,6 +60,11 @@ export function UserMenu(props: {
       <form action={props.signOut}>
         <button type="submit" className="rounded border border-hairline px-2 py-1 text-ink-muted hover:text-ink">
           Sign out
+        </button>
+      </form>
+      <form action={props.signOutEverywhere}>
+        <button type="submit" className="text-xs text-ink-muted underline hover:text-ink" title="End your sessions on every browser and device">
+          Sign out everywhere
         </button>
       </form>
     </div>

@@ -10,6 +10,7 @@ export interface TopBarAccount {
   teams: { teamId: string; teamName: string; role: string }[];
   switchTeam: Action;
   signOut: () => Promise<void>;
+  signOutEverywhere: () => Promise<void>;
 }
 
 /** The quiet bar above every page: the product name, the main places, and who is signed in (`me`, null when nobody is). */
@@ -35,6 +36,7 @@ export function TopBar({ me }: { me: TopBarAccount | null }) {
             teams={me.teams}
             switchTeam={me.switchTeam}
             signOut={me.signOut}
+            signOutEverywhere={me.signOutEverywhere}
           />
         ) : (
           <Link href="/sign-in" className="ml-auto rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>

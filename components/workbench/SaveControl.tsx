@@ -2,6 +2,8 @@
 /**
  * Save the scenario as a new revision with a note. A save on a stale base revision comes back as a conflict: both
  * versions' differing values are shown, and the person chooses to open theirs or to save theirs-plus-mine on top.
+ * A save that could not reach the server or the database keeps the edits (they stay in the store, still unsaved)
+ * and offers to send the same save again.
  */
 import { useRef, useState } from "react";
 import { upgradeScenario } from "@/lib/design/upgrade";
@@ -24,6 +26,8 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   const [base, setBase] = useState(revisionId);
   const [busy, setBusy] = useState(false);
   const [msg, setMsg] = useState<string | null>(null);
+  /** The base revision of a save that failed for want of the server or the database (offered again), else null. */
+  const [retryBase, setRetryBase] = useState<string | null>(null);
   const [conflict, setConflict] = useState<{ current: ConflictingRevision; theirs: Scenario | null; mine: Scenario } | null>(null);
 
   if (!save && scenarioId) {
@@ -36,6 +40,7 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
   const doSave = async (baseRevisionId: string) => {
     setBusy(true);
     setMsg(null);
+    setRetryBase(null);
     const body = store.getState().scenario;
     try {
       const r = await save({ scenarioId, baseRevisionId, note, body });
@@ -59,9 +64,12 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
         setMsg(r.message);
       } else {
         setMsg(r.message);
+        if (r.retry) setRetryBase(baseRevisionId);
       }
-    } catch (e) {
-      setMsg(e instanceof Error ? e.message : String(e));
+    } catch {
+      // The server answered 503 (database down) or could not be reached: nothing was saved, the edits are kept.
+      setMsg("The save did not reach the database: your edits are kept here. Try again in a moment.");
+      setRetryBase(baseRevisionId);
     } finally {
       setBusy(false);
     }
@@ -86,6 +94,11 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
             </button>
           </div>
           {msg && <p className="mt-2 text-[12px] text-verdict-fail" role="alert" data-testid="save-message">{msg}</p>}
+          {retryBase && (
+            <button type="button" className={`${BTN} mt-1`} disabled={busy} onClick={() => doSave(retryBase)} data-testid="save-retry">
+              Try the save again
+            </button>
+          )}
           {conflict && (
             <SaveConflict current={conflict.current} mine={conflict.mine}>
               {conflict.theirs && (

@@ -4,7 +4,8 @@ import { ApiError } from "./errors";
 import { readLimitedBytes } from "./body";
 import { DomainError, fieldErrors } from "@/lib/errors";
 import { sessionFromCookieHeader } from "@/lib/auth/session-config";
-import { resolveCurrentUser } from "@/lib/db/users";
+import { userFromSession } from "@/lib/db/sessions";
+import { databaseUnavailableResponse, isDatabaseUnavailable, isUnstorableText } from "@/lib/db/outage";
 import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 
 export { ApiError, fieldErrors };
@@ -18,9 +19,7 @@ export function json(data: unknown, status = 200, headers?: HeadersInit): Respon
 
 /** The user behind a request's session cookie (no Next request scope needed: tests call handlers directly). */
 export async function userFromRequest(req: Request): Promise<CurrentUser | null> {
-  const s = await sessionFromCookieHeader(req.headers.get("cookie"));
-  if (!s.userId) return null;
-  return resolveCurrentUser(s.userId, s.teamId, s.sv);
+  return userFromSession(await sessionFromCookieHeader(req.headers.get("cookie")));
 }
 
 
@@ -65,7 +64,8 @@ export interface ApiOptions<B extends ZodType | undefined, Q extends ZodType | u
 /**
  * The one wrapper of every route handler. Order: session (401 before the body or params are read) → role (403)
  * → origin → query (400) → body size (413) → JSON and schema (400 with field errors) → handler. Errors:
- * ApiError/DomainError keep their status; anything else is logged and answered 500 without details.
+ * ApiError/DomainError keep their status; a database outage is 503 with Retry-After; anything else is logged and
+ * answered 500 without details.
  * A handler returns a Response, or an object sent as 200 JSON.
  */
 export function apiRoute<P = Record<string, never>, B extends ZodType | undefined = undefined, Q extends ZodType | undefined = undefined>(
@@ -106,6 +106,8 @@ export function apiRoute<P = Record<string, never>, B extends ZodType | undefine
     } catch (e) {
       if (e instanceof ApiError) return json({ error: e.message, ...(e.fieldErrors ? { fieldErrors: e.fieldErrors } : {}) }, e.status);
       if (e instanceof DomainError) return json({ error: e.message }, e.status);
+      if (isDatabaseUnavailable(e)) return databaseUnavailableResponse();
+      if (isUnstorableText(e)) return json({ error: "The request holds a control character (such as NUL) that cannot be stored." }, 400);
       console.error("[api]", req.method, new URL(req.url).pathname, e);
       return json({ error: "Something went wrong on the server." }, 500);
     }

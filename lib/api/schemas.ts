@@ -2,6 +2,7 @@ import { z } from "zod";
 import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { ROLES } from "@/lib/shared/roles";
 import { TEMPLATE_IDS } from "@/lib/design/schema";
+import { storedText } from "@/lib/shared/text";
 
 const uuid = (what: string) => z.string().uuid(`${what} must be an id`);
 const intFromQuery = (min: number, max: number, name: string) =>
@@ -23,10 +24,10 @@ export const scenarioListQuery = z
 
 export const createScenarioBody = z
   .object({
-    title: z.string().trim().min(1, "title: give the scenario a title").max(200, "title: at most 200 characters"),
+    title: storedText("title").trim().min(1, "title: give the scenario a title").max(200, "title: at most 200 characters"),
     template: z.enum(TEMPLATE_IDS, { error: `template must be one of ${TEMPLATE_IDS.join(", ")}` }),
     body: z.record(z.string(), z.unknown()).optional(),
-    note: z.string().max(2000).optional(),
+    note: storedText("note").max(2000, "note: at most 2000 characters").optional(),
     /** Start from a revision (e.g. a library entry's) instead of the template's defaults. */
     fromRevisionId: uuid("fromRevisionId").optional(),
   })
@@ -35,9 +36,9 @@ export const createScenarioBody = z
 export const patchScenarioBody = z
   .object({
     baseRevisionId: uuid("baseRevisionId").optional(),
-    note: z.string().max(2000, "note: at most 2000 characters").optional(),
+    note: storedText("note").max(2000, "note: at most 2000 characters").optional(),
     body: z.record(z.string(), z.unknown()).optional(),
-    title: z.string().trim().min(1).max(200).optional(),
+    title: storedText("title").trim().min(1, "title: give the scenario a title").max(200, "title: at most 200 characters").optional(),
     status: z.enum(SCENARIO_STATUSES).optional(),
     restore: z.literal(true).optional(),
   })
@@ -57,7 +58,7 @@ export const patchScenarioBody = z
 
 export const commentBody = z
   .object({
-    body: z.string().trim().min(1, "body: write a comment first").max(4000, "body: at most 4000 characters"),
+    body: storedText("body").trim().min(1, "body: write a comment first").max(4000, "body: at most 4000 characters"),
     revisionId: uuid("revisionId").optional(),
   })
   .strict();

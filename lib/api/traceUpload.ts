@@ -5,6 +5,7 @@
  */
 import { z } from "zod";
 import { readLimitedBytes } from "./body";
+import { controlCharacterMessage, hasControlCharacters, storedText } from "@/lib/shared/text";
 import { MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 
 /** Largest multipart request, bytes: the file limit plus room for the other fields. */
@@ -18,7 +19,7 @@ export const traceOptionsSchema = z.object({
   channels: z
     .array(
       z.object({
-        name: z.string().trim().max(60).optional(),
+        name: storedText("name").trim().max(60).optional(),
         sourceUnit: z.enum(["V", "mV", "µV", "uV", "A", "mA", "µA", "uA"], { error: "sourceUnit must be V, mV, µV, A, mA or µA" }).optional(),
         scale: scale.optional(),
         unit: z.enum(["V", "A"], { error: "unit must be V or A" }).optional(),
@@ -31,7 +32,7 @@ export type TraceOptions = z.infer<typeof traceOptionsSchema>;
 
 /** Instrument settings as the user entered them (free text and numbers, kept with the trace). */
 export const traceSettingsSchema = z
-  .record(z.string().max(60), z.union([z.string().max(500), z.number().finite(), z.boolean(), z.null()]))
+  .record(storedText("key").max(60), z.union([storedText("value").max(500), z.number().finite(), z.boolean(), z.null()]))
   .refine((r) => Object.keys(r).length <= 30, "settings: at most 30 entries");
 
 export type TraceUpload =
@@ -88,6 +89,8 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
   const labelRaw = form.get("label");
   const label = typeof labelRaw === "string" ? labelRaw.trim() : "";
   if (label.length > 200) fieldErrors.label = ["label: at most 200 characters"];
+  if (hasControlCharacters(label)) fieldErrors.label = [controlCharacterMessage("label")];
+  if (file && typeof file !== "string" && hasControlCharacters(file.name)) fieldErrors.file = [controlCharacterMessage("file name")];
   if (Object.keys(fieldErrors).length || !file || typeof file === "string" || !options.ok || !settings.ok) {
     const first = Object.values(fieldErrors)[0]?.[0] ?? "Invalid upload.";
     return { ok: false, status: 400, error: first, fieldErrors };
@@ -98,6 +101,10 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
   const text = await file.text();
   try {
     const parsed = parseTraceCsv(text, { timeUnit: options.value.timeUnit, channels: options.value.channels });
+    // Column names from the file's header are stored with the trace: the same rule as typed text.
+    if (parsed.channels.some((c) => hasControlCharacters(c.name))) {
+      return { ok: false, status: 400, error: `${file.name}: ${controlCharacterMessage("column header")}`, fieldErrors: { file: [controlCharacterMessage("file: column header")] } };
+    }
     return { ok: true, label: label || file.name, fileName: file.name, revisionId, options: options.value, settings: settings.value, parsed };
   } catch (e) {
     if (e instanceof TraceParseError) return { ok: false, status: 400, error: `${file.name}: ${e.message}`, problems: e.problems };

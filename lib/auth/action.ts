@@ -4,6 +4,7 @@ import { currentUser } from "./current";
 import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
 import type { ActionState } from "./action-state";
 import { DomainError, fieldErrors } from "@/lib/errors";
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from "@/lib/db/outage";
 
 export type { ActionState };
 
@@ -21,6 +22,8 @@ async function run(fn: () => Promise<ActionState | void>, formData: FormData): P
   } catch (e) {
     // redirect()/notFound() throw too: only expected refusals become state, the rest propagates.
     if (e instanceof DomainError) return { message: e.message, values: echo(formData) };
+    // An outage is not the form's fault: say so and keep what was typed, so sending again works once it is back.
+    if (isDatabaseUnavailable(e)) return { message: DATABASE_UNAVAILABLE, values: echo(formData) };
     throw e;
   }
 }
@@ -34,18 +37,19 @@ export function validatedAction<S extends ZodType>(
   fn: (data: z.output<S>, user: CurrentUser, formData: FormData) => Promise<ActionState | void>,
   opts: { role?: Role } = {},
 ): (prev: ActionState, formData: FormData) => Promise<ActionState> {
-  return async (_prev, formData) => {
-    const user = await currentUser();
-    if (!user) return { message: "Your session has ended: sign in again." };
-    if (opts.role && !roleAtLeast(user.role, opts.role)) {
-      return { message: `This needs the ${opts.role} role or higher.` };
-    }
-    const parsed = schema.safeParse(Object.fromEntries(formData));
-    if (!parsed.success) {
-      return { fieldErrors: actionFieldErrors(parsed.error), message: "Check the marked fields.", values: echo(formData) };
-    }
-    return run(() => fn(parsed.data, user, formData), formData);
-  };
+  return async (_prev, formData) =>
+    run(async () => {
+      const user = await currentUser();
+      if (!user) return { message: "Your session has ended: sign in again." };
+      if (opts.role && !roleAtLeast(user.role, opts.role)) {
+        return { message: `This needs the ${opts.role} role or higher.` };
+      }
+      const parsed = schema.safeParse(Object.fromEntries(formData));
+      if (!parsed.success) {
+        return { fieldErrors: actionFieldErrors(parsed.error), message: "Check the marked fields.", values: echo(formData) };
+      }
+      return fn(parsed.data, user, formData);
+    }, formData);
 }
 
 /** The same for the few forms used before signing in (sign-in, sign-up, password reset). */
@@ -70,6 +74,8 @@ function actionFieldErrors(error: z.ZodError): Record<string, string[]> {
 export interface Refusal {
   ok: false;
   message: string;
+  /** set when the database was unavailable: nothing happened, and the same request can be sent again */
+  retry?: true;
 }
 
 /** An action's answer, or a refusal; one type when the answer already has a refusal branch (SaveResult). */
@@ -87,8 +93,15 @@ export function validatedInputAction<S extends ZodType, R>(
   opts: { role?: Role; messages?: { session?: string; role?: string } } = {},
 ): (input: z.input<S>) => Promise<OrRefusal<R>> {
   const refuse = (message: string) => ({ ok: false, message }) as Refusal as OrRefusal<R>;
+  const unavailable = () => ({ ok: false, message: DATABASE_UNAVAILABLE, retry: true }) as Refusal as OrRefusal<R>;
   return async (input) => {
-    const user = await currentUser();
+    let user: CurrentUser | null;
+    try {
+      user = await currentUser();
+    } catch (e) {
+      if (isDatabaseUnavailable(e)) return unavailable();
+      throw e;
+    }
     if (!user) return refuse(opts.messages?.session ?? "Your session has ended: sign in again.");
     if (opts.role && !roleAtLeast(user.role, opts.role)) {
       return refuse(opts.messages?.role ?? `This needs the ${opts.role} role or higher.`);
@@ -99,6 +112,8 @@ export function validatedInputAction<S extends ZodType, R>(
       return (await fn(parsed.data, user)) as OrRefusal<R>;
     } catch (e) {
       if (e instanceof DomainError) return refuse(e.message);
+      // an outage: nothing was done, and the same request can be sent again once the database is back
+      if (isDatabaseUnavailable(e)) return unavailable();
       throw e;
     }
   };

@@ -3,28 +3,23 @@ import { redirect, forbidden } from "next/navigation";
 import { headers } from "next/headers";
 import { getSession } from "./session";
 import { roleAtLeast, type CurrentUser, type Role } from "@/lib/shared/roles";
-import { findUserById, resolveCurrentUser, type UserRow } from "@/lib/db/users";
+import type { UserRow } from "@/lib/db/users";
+import { accountFromSession, userFromSession } from "@/lib/db/sessions";
 
 export { roleAtLeast };
 export type { CurrentUser, Role };
 
 /** The signed-in user in their current team, or null (anonymous, stale session, or no team left). */
 export async function currentUser(): Promise<CurrentUser | null> {
-  const s = await getSession();
-  if (!s.userId) return null;
-  return resolveCurrentUser(s.userId, s.teamId, s.sv);
+  return userFromSession(await getSession());
 }
 
 /**
  * The account behind a valid session, whether or not it still belongs to a team (for creating a team or accepting
- * an invitation). Null when anonymous or when the session predates a password reset.
+ * an invitation). Null when anonymous, signed out, or when the session predates a password reset.
  */
 export async function sessionAccount(): Promise<UserRow | null> {
-  const s = await getSession();
-  if (!s.userId) return null;
-  const u = await findUserById(s.userId);
-  if (!u || (s.sv !== undefined && s.sv !== u.sessionVersion)) return null;
-  return u;
+  return accountFromSession(await getSession());
 }
 
 /** Where the current page is, for the `next` parameter of the sign-in redirect (set by proxy.ts). */

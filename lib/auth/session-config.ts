@@ -7,6 +7,8 @@ export interface SessionData {
   teamId?: string;
   /** users.session_version when the session was made; a password reset bumps it and ends older sessions. */
   sv?: number;
+  /** The server-side session row (table `sessions`): the session lives only while that row does. */
+  sid?: string;
 }
 
 export const SESSION_COOKIE = "quell_session";

@@ -40,13 +40,18 @@ export function db(): Knex {
 
 /** True when PostgreSQL answers a trivial query within the timeout (ms). */
 export async function databaseUp(timeoutMs = 2000): Promise<boolean> {
+  let timer: ReturnType<typeof setTimeout> | undefined;
   try {
     await Promise.race([
       db().raw("select 1"),
-      new Promise((_, reject) => setTimeout(() => reject(new Error("timeout")), timeoutMs)),
+      new Promise((_, reject) => {
+        timer = setTimeout(() => reject(new Error("timeout")), timeoutMs);
+      }),
     ]);
     return true;
   } catch {
     return false;
+  } finally {
+    clearTimeout(timer);
   }
 }

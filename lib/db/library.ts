@@ -12,6 +12,7 @@ import { isUuid } from "./users";
 import { tracesByIds, type TraceSummary } from "./traces";
 import type { CurrentUser } from "@/lib/shared/roles";
 import { LIBRARY_STATUSES, type LibraryStatus } from "@/lib/shared/statuses";
+import { storedText } from "@/lib/shared/text";
 
 /** What the library can be filtered by (all optional; `q` searches title, note and template). */
 export const libraryFiltersSchema = z.object({
@@ -70,7 +71,7 @@ export type ComparisonSummary = z.infer<typeof comparisonSummarySchema>;
 export const submitSchema = z.object({
   /** Revision to submit; the scenario's current revision when absent. */
   revisionId: z.string().uuid().optional(),
-  note: z.string().trim().min(1, "Write a note for the reviewer").max(4000),
+  note: storedText("note").trim().min(1, "Write a note for the reviewer").max(4000),
   traceIds: z.array(z.string().uuid()).min(1, "Attach at least one bench trace").max(20),
   keyFigures: keyFiguresSchema.default({}),
   comparisons: z.array(comparisonSummarySchema).max(20).default([]),

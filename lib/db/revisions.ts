@@ -27,7 +27,7 @@ export interface RevisionRow {
 
 export type SaveResult =
   | { ok: true; revisionId: string; number: number }
-  | { ok: false; conflict?: { current: RevisionInfo }; message: string };
+  | { ok: false; conflict?: { current: RevisionInfo }; message: string; retry?: true };
 
 /**
  * Saves a new immutable revision on top of `baseRevisionId`. Optimistic concurrency: the scenario row is locked,

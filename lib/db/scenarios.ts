@@ -244,6 +244,8 @@ export async function softDeleteScenario(actor: CurrentUser, id: string): Promis
     const s = await scenarioRowInTeam(trx, actor, id, { forUpdate: true });
     if (!ownsOrLeads(actor, s.owner_id)) throw new DomainError(403, "Only the owner or a lead can delete this scenario.");
     await trx("scenarios").where({ id }).update({ deleted_at: trx.fn.now() });
+    // Deleting revokes the public links for good: restoring the scenario later does not bring them back.
+    await trx("share_links").where({ scenario_id: id }).whereNull("revoked_at").update({ revoked_at: trx.fn.now() });
     await audit({ teamId: actor.teamId, actorId: actor.id, action: "scenario.delete", subjectType: "scenario", subjectId: id }, trx);
   });
 }

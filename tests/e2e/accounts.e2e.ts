@@ -174,7 +174,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await page.waitForURL((u) => u.pathname === "/scenarios");
     expect(await page.getByTestId("who").textContent()).toContain("lead");
 
-    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.getByRole("button", { name: "Sign out", exact: true }).click();
     await page.waitForURL((u) => u.pathname === "/sign-in");
 
     const since = new Date(Date.now() - 2000);
@@ -241,7 +241,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await inviteeCtx.close();
   });
 
-  it("a public link opens without an account, and says so once revoked", async () => {
+  it("a public link opens without an account, and answers 404 once revoked", async () => {
     const ctx = await context(browser);
     const page = await ctx.newPage();
     await signIn(page, "designer");
@@ -265,8 +265,10 @@ describe("accounts journey: save, share, open, comment", () => {
       page.getByRole("button", { name: "Revoke" }).first().click(),
     ]);
     expect(revoked.status()).toBe(204);
-    await visitor.reload({ waitUntil: "load" });
-    await visitor.getByText("This link has been revoked").waitFor();
+    // A revoked link answers 404 (decided before the page streams), with a word on why.
+    const gone = await visitor.reload({ waitUntil: "load" });
+    expect(gone?.status()).toBe(404);
+    await visitor.getByText("This link is not valid: it may have expired, or the people who shared it revoked it.").waitFor();
     await anon.close();
     await ctx.close();
   });

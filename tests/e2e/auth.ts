@@ -27,6 +27,6 @@ export async function signIn(page: Page, role: DemoRole, next = "/scenarios"): P
 /** Signs out through the top bar's menu form. */
 export async function signOut(page: Page): Promise<void> {
   await page.goto(`${BASE_URL}/sign-out`, { waitUntil: "load" });
-  await page.getByRole("button", { name: "Sign out" }).click();
+  await page.getByRole("button", { name: "Sign out", exact: true }).click();
   await page.waitForURL((url) => url.pathname === "/sign-in");
 }

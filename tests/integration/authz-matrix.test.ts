@@ -524,3 +524,101 @@ describe("signInAction: the return path", () => {
     }
   });
 });
+
+// ── Coverage: every route handler and every server action is in a matrix above ─────────────────────────────────
+
+const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
+
+/** Every `app/api/**\/route.ts` with the methods it exports, as "METHOD /api/path". */
+async function routeHandlers(): Promise<{ name: string; handler: (req: Request, c: { params: Promise<Record<string, string>> }) => Promise<Response> }[]> {
+  const { readdirSync } = await import("node:fs");
+  const { join, relative, resolve } = await import("node:path");
+  const root = resolve("app/api");
+  const files: string[] = [];
+  const walk = (dir: string) => {
+    for (const e of readdirSync(dir, { withFileTypes: true })) {
+      if (e.isDirectory()) walk(join(dir, e.name));
+      else if (e.name === "route.ts") files.push(join(dir, e.name));
+    }
+  };
+  walk(root);
+  const out = [];
+  for (const file of files.sort()) {
+    const path = "/api/" + relative(root, file).replace(/\/?route\.ts$/, "");
+    const mod = (await import(file)) as Record<string, unknown>;
+    for (const m of METHODS) {
+      if (typeof mod[m] === "function") out.push({ name: `${m} ${path.replace(/\/$/, "")}`, handler: mod[m] as never });
+    }
+  }
+  return out;
+}
+
+/** Routes anyone may call: the health check only. */
+const PUBLIC_ROUTES = new Set(["GET /api/health"]);
+
+describe("coverage of the authorization matrix", () => {
+  it("every route handler has a row in a matrix", async () => {
+    const covered = new Set([...cases, ...libraryCases].map((c) => c.name.split(" ").slice(0, 2).join(" ")));
+    const missing = (await routeHandlers()).map((r) => r.name).filter((n) => !PUBLIC_ROUTES.has(n) && !covered.has(n));
+    expect(missing).toEqual([]);
+  });
+
+  it("every server action is tested above, or is one of the account forms used before signing in", async () => {
+    const files = ["app/scenarios/[id]/actions", "app/library/actions", "app/(account)/actions"];
+    const exported: string[] = [];
+    for (const f of files) {
+      const mod = (await import(`@/${f}`)) as Record<string, unknown>;
+      exported.push(...Object.keys(mod).filter((k) => typeof mod[k] === "function"));
+    }
+    const inMatrix = ["saveScenarioRevision", "forkScenario", "setScenarioDeleted", "commentOnScenario", "switchTeamAction", "startFromEntryAction", "setTolerancesAction", "signInAction"];
+    // Before signing in, or ending one's own session: they act on no team's data (tests in accounts and hardening).
+    const accountForms = ["signUpAction", "signOutAction", "signOutEverywhereAction", "forgotPasswordAction", "resetPasswordAction", "acceptInvitationAction", "acceptWithNewAccountAction", "createTeamAction"];
+    expect(exported.filter((n) => !inMatrix.includes(n) && !accountForms.includes(n))).toEqual([]);
+  });
+});
+
+describe("every route answers 401 to anonymous requests before reading the body", () => {
+  it("401 for each route and method, and the request body is never pulled", async () => {
+    const routes = (await routeHandlers()).filter((r) => !PUBLIC_ROUTES.has(r.name));
+    expect(routes.length).toBeGreaterThan(15);
+    const got: Record<string, string> = {};
+    for (const r of routes) {
+      let pulled = false;
+      // highWaterMark 0: nothing is pulled until someone reads the body.
+      const body = new ReadableStream<Uint8Array>(
+        {
+          pull(c) {
+            pulled = true;
+            c.enqueue(new TextEncoder().encode("{not json"));
+            c.close();
+          },
+        },
+        { highWaterMark: 0 },
+      );
+      const method = r.name.split(" ")[0]!;
+      const url = `http://127.0.0.1:3999${r.name.split(" ")[1]!.replace("[id]", "not-an-id")}?page=-1&userId=x&id=y`;
+      const init: RequestInit & { duplex?: "half" } = { method, headers: { host: "127.0.0.1:3999", "content-type": "application/json", cookie: "quell_session=garbage" } };
+      if (method !== "GET") Object.assign(init, { body, duplex: "half" });
+      const res = await r.handler(new Request(url, init), ctx({ id: "not-an-id" }));
+      got[r.name] = `${res.status}${pulled ? " (body read)" : ""}`;
+    }
+    expect(got).toEqual(Object.fromEntries(routes.map((r) => [r.name, "401"])));
+  });
+
+  it("the probe does see a body being read (a signed-in request of the same shape)", async () => {
+    let pulled = false;
+    const body = new ReadableStream<Uint8Array>(
+      {
+        pull(c) {
+          pulled = true;
+          c.enqueue(new TextEncoder().encode("{not json"));
+          c.close();
+        },
+      },
+      { highWaterMark: 0 },
+    );
+    const init = { method: "POST", headers: { host: "127.0.0.1:3999", "content-type": "application/json", cookie: (await cookieFor(f.designer))! }, body, duplex: "half" };
+    const res = await scenarios.POST(new Request("http://127.0.0.1:3999/api/scenarios", init as RequestInit), ctx({}));
+    expect([res.status, pulled]).toEqual([400, true]);
+  });
+});

@@ -1,5 +1,5 @@
 import { AccountCard } from "@/components/account/AccountForms";
-import { signOutAction } from "../actions";
+import { signOutAction, signOutEverywhereAction } from "../actions";
 
 export const metadata = { title: "Sign out" };
 
@@ -9,6 +9,11 @@ export default function SignOutPage() {
       <form action={signOutAction}>
         <button type="submit" className="rounded bg-signal px-4 py-2 text-sm font-medium text-white hover:bg-signal-dark">
           Sign out
+        </button>
+      </form>
+      <form action={signOutEverywhereAction} className="mt-4">
+        <button type="submit" className="text-sm text-ink-muted underline hover:text-ink">
+          Sign out everywhere
         </button>
       </form>
     </AccountCard>

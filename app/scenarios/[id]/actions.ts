@@ -6,6 +6,7 @@ import { forkRevision } from "@/lib/db/revisions";
 import { softDeleteScenario, restoreScenario } from "@/lib/db/scenarios";
 import { addComment } from "@/lib/db/comments";
 import { saveRevision } from "@/lib/scenarios/save";
+import { storedText } from "@/lib/shared/text";
 
 /**
  * Saves the workbench's scenario as a new immutable revision with a note. A stale base revision is refused with
@@ -15,7 +16,7 @@ export const saveScenarioRevision = validatedInputAction(
   z.object({
     scenarioId: z.string().uuid("scenarioId must be a scenario id"),
     baseRevisionId: z.string().uuid("baseRevisionId must be a revision id"),
-    note: z.string().max(2000, "note: at most 2000 characters"),
+    note: storedText("note").max(2000, "note: at most 2000 characters"),
     body: z.unknown(),
   }),
   async (data, user) => {
@@ -28,7 +29,7 @@ export const saveScenarioRevision = validatedInputAction(
 
 /** Copies a revision into a new scenario owned by the user (designers and leads). */
 export const forkScenario = validatedInputAction(
-  z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: z.string().max(200).optional() }),
+  z.object({ revisionId: z.string().uuid("revisionId must be a revision id"), title: storedText("title").max(200, "title: at most 200 characters").optional() }),
   async (data, user) => {
     const r = await forkRevision(user, data.revisionId, data.title);
     revalidatePath("/scenarios");
@@ -53,7 +54,7 @@ export const commentOnScenario = validatedInputAction(
   z.object({
     scenarioId: z.string().uuid("scenarioId must be a scenario id"),
     revisionId: z.string().uuid("revisionId must be a revision id").optional(),
-    body: z.string().trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters."),
+    body: storedText("comment").trim().min(1, "Write a comment first.").max(4000, "Comments are at most 4000 characters."),
   }),
   async (data, user) => {
     const c = await addComment(user, data.scenarioId, data);

@@ -71,10 +71,16 @@ export async function makeFixture(label: string): Promise<Fixture> {
   return { tag, lead, designer, viewer, outsider, scenarioId: s.id, revisionId: r.id };
 }
 
-/** A Cookie header value holding a sealed session for the actor, as the browser would send it. */
+/** A server-side session row for the user, as signing in makes one (table `sessions`). */
+export async function sessionRowFor(userId: string): Promise<string> {
+  const [r] = await db()("sessions").insert({ user_id: userId, expires_at: new Date(Date.now() + SESSION_TTL_S * 1000) }).returning("id");
+  return String(r.id);
+}
+
+/** A Cookie header value holding a sealed session for the actor (with a live session row), as the browser would send it. */
 export async function cookieFor(a: Actor | null): Promise<string | undefined> {
   if (!a) return undefined;
-  const seal = await sealData({ userId: a.id, teamId: a.teamId, sv: a.sessionVersion }, { password: sessionPassword(), ttl: SESSION_TTL_S });
+  const seal = await sealData({ userId: a.id, teamId: a.teamId, sv: a.sessionVersion, sid: await sessionRowFor(a.id) }, { password: sessionPassword(), ttl: SESSION_TTL_S });
   return `${SESSION_COOKIE}=${seal}`;
 }
 

@@ -3,6 +3,7 @@ import { apiRoute, ApiError } from "@/lib/api/handler";
 import { getEntry } from "@/lib/db/library";
 import { actionForStatus, changeEntryStatus, commentOnEntry } from "@/lib/library/workflow";
 import { LIBRARY_STATUSES } from "@/lib/shared/statuses";
+import { storedText } from "@/lib/shared/text";
 
 type P = { id: string };
 
@@ -15,7 +16,7 @@ const patchBody = z
     status: z.enum(LIBRARY_STATUSES, { error: `status must be one of ${LIBRARY_STATUSES.join(", ")}` }).optional(),
     /** The submitter (or a lead) withdraws a submission. */
     withdraw: z.literal(true).optional(),
-    comment: z.string().max(4000, "comment: at most 4000 characters").optional(),
+    comment: storedText("comment").max(4000, "comment: at most 4000 characters").optional(),
   })
   .strict()
   .refine((b) => b.status !== undefined || b.withdraw || (b.comment ?? "").trim() !== "", {

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { notFound } from "next/navigation";
 import { openPublicLink } from "@/lib/db/shareLinks";
 import { RevisionView } from "@/components/scenarios/RevisionView";
 import { templateTitle } from "@/components/scenarios/RevisionView";
@@ -6,25 +7,14 @@ import { templateTitle } from "@/components/scenarios/RevisionView";
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shared scenario", robots: { index: false, follow: false }, referrer: "no-referrer" };
 
-const WHY = {
-  revoked: "This link has been revoked by the people who shared it.",
-  expired: "This link has expired.",
-  unknown: "This link is not valid.",
-} as const;
-
-/** A public read-only link: anyone holding the token sees one revision; revoked or expired links say so. */
+/**
+ * A public read-only link: anyone holding the token sees one revision. An unknown, expired or revoked link answers
+ * 404 (not-found.tsx), decided before anything streams.
+ */
 export default async function PublicSharePage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const link = await openPublicLink(token);
-  if (link.state !== "active") {
-    return (
-      <main className="mx-auto max-w-xl px-6 py-16">
-        <h1 className="text-2xl font-semibold">Shared scenario</h1>
-        <p role="alert" className="mt-3">{WHY[link.state]}</p>
-        <p className="mt-2 text-sm text-ink-muted">Ask whoever sent it for a new link.</p>
-      </main>
-    );
-  }
+  if (link.state !== "active") notFound();
   const r = link.revision;
   return (
     <main className="mx-auto max-w-4xl px-6 py-8">
