@@ -1,6 +1,9 @@
 import type { z } from "zod";
 
-/** Thrown by query modules for expected refusals; route handlers and actions map `status` to HTTP or to a message. */
+/**
+ * Thrown for expected refusals (query modules, the scenario-body check, the library workflow); route handlers and
+ * actions map `status` to HTTP or to a message.
+ */
 export class DomainError extends Error {
   constructor(
     public readonly status: 400 | 403 | 404 | 409 | 410 | 413 | 429,

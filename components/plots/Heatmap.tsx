@@ -3,9 +3,10 @@
  * A 2D map drawn on a canvas: one cell per grid point, coloured on a sequential ramp between the finite minimum and
  * maximum; cells not yet computed are left pale, failed cells are crossed. Hovering reads a cell out.
  */
-import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from "react";
+import { forwardRef, useEffect, useImperativeHandle, useState } from "react";
 import { formatEng } from "@/lib/units/eng";
 import { ramp } from "./palette";
+import { useHiDpiCanvas } from "./useHiDpiCanvas";
 
 export interface HeatmapProps {
   xValues: ArrayLike<number>;
@@ -27,29 +28,9 @@ const PAD = { left: 64, right: 78, top: 10, bottom: 40 };
 
 export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(function Heatmap(props, ref) {
   const { xValues, yValues, values, failed, xLabel, yLabel, xUnit, yUnit, metricLabel, metricUnit, height = 300 } = props;
-  const canvas = useRef<HTMLCanvasElement>(null);
   const [width, setWidth] = useState(600);
   const [hover, setHover] = useState<string | null>(null);
-  useImperativeHandle(ref, () => ({ toPng: () => canvas.current?.toDataURL("image/png") ?? null }));
-
-  useEffect(() => {
-    const el = canvas.current?.parentElement;
-    if (!el) return;
-    const ro = new ResizeObserver(() => setWidth(Math.max(300, el.clientWidth)));
-    ro.observe(el);
-    return () => ro.disconnect();
-  }, []);
-
-  useEffect(() => {
-    const c = canvas.current;
-    if (!c) return;
-    const pr = window.devicePixelRatio || 1;
-    c.width = Math.round(width * pr);
-    c.height = Math.round(height * pr);
-    const ctx = c.getContext("2d");
-    if (!ctx) return;
-    ctx.setTransform(pr, 0, 0, pr, 0, 0);
-    ctx.clearRect(0, 0, width, height);
+  const canvas = useHiDpiCanvas((ctx) => {
     const nx = xValues.length, ny = yValues.length;
     if (nx === 0 || ny === 0) return;
     let lo = Infinity, hi = -Infinity;
@@ -112,7 +93,16 @@ export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(func
       ctx.fillText(formatEng(hi, metricUnit), bx + 15, PAD.top + 9);
       ctx.fillText(formatEng(lo, metricUnit), bx + 15, PAD.top + h);
     }
-  }, [xValues, yValues, values, failed, width, height, xLabel, yLabel, xUnit, yUnit, metricUnit]);
+  }, [xValues, yValues, values, failed, width, height, xLabel, yLabel, xUnit, yUnit, metricUnit], { width, height });
+  useImperativeHandle(ref, () => ({ toPng: () => canvas.current?.toDataURL("image/png") ?? null }));
+
+  useEffect(() => {
+    const el = canvas.current?.parentElement;
+    if (!el) return;
+    const ro = new ResizeObserver(() => setWidth(Math.max(300, el.clientWidth)));
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, [canvas]);
 
   const onMove = (e: React.MouseEvent<HTMLCanvasElement>) => {
     const r = e.currentTarget.getBoundingClientRect();

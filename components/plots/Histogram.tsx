@@ -1,8 +1,9 @@
 "use client";
 /** A histogram drawn on a canvas from bin edges and counts (the design layer's `histogram`). */
-import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
+import { forwardRef, useImperativeHandle } from "react";
 import { formatEng } from "@/lib/units/eng";
 import { OKABE_ITO } from "./palette";
+import { useHiDpiCanvas } from "./useHiDpiCanvas";
 
 export interface HistogramProps {
   edges: ArrayLike<number>; counts: ArrayLike<number>; label: string; unit: string; color?: string; height?: number; testId?: string;
@@ -10,19 +11,7 @@ export interface HistogramProps {
 
 export const Histogram = forwardRef<{ toPng(): string | null }, HistogramProps>(function Histogram(props, handle) {
   const { edges, counts, label, unit, color = OKABE_ITO[0], height = 160, testId } = props;
-  const ref = useRef<HTMLCanvasElement>(null);
-  useImperativeHandle(handle, () => ({ toPng: () => ref.current?.toDataURL("image/png") ?? null }));
-  useEffect(() => {
-    const c = ref.current;
-    if (!c) return;
-    const width = Math.max(200, c.clientWidth);
-    const pr = window.devicePixelRatio || 1;
-    c.width = Math.round(width * pr);
-    c.height = Math.round(height * pr);
-    const ctx = c.getContext("2d");
-    if (!ctx) return;
-    ctx.setTransform(pr, 0, 0, pr, 0, 0);
-    ctx.clearRect(0, 0, width, height);
+  const ref = useHiDpiCanvas((ctx, width) => {
     const n = counts.length;
     if (n === 0 || edges.length !== n + 1) return;
     let max = 0;
@@ -56,6 +45,7 @@ export const Histogram = forwardRef<{ toPng(): string | null }, HistogramProps>(
     ctx.textAlign = "right";
     ctx.fillText(String(max), L - 4, T + 9);
     ctx.fillText("0", L - 4, T + h);
-  }, [edges, counts, label, unit, color, height]);
+  }, [edges, counts, label, unit, color, height], { height, minWidth: 200 });
+  useImperativeHandle(handle, () => ({ toPng: () => ref.current?.toDataURL("image/png") ?? null }));
   return <canvas ref={ref} style={{ width: "100%", height }} role="img" aria-label={`Histogram of ${label}`} data-testid={testId} />;
 });

@@ -277,3 +277,125 @@ export async function storeTeamTolerances(actor: CurrentUser, tolerances: Record
     await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.tolerances", subjectType: "team", subjectId: actor.teamId, detail: tolerances }, trx);
   });
 }
+
+/** Runs `fn` in one transaction: the workflow's checks and its writes see and lock the same rows. */
+export function libraryTransaction<T>(fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  return db().transaction(fn);
+}
+
+/** The team's scenario (not deleted), or undefined. */
+export function scenarioInTeam(trx: Knex.Transaction, teamId: string, scenarioId: string) {
+  return trx("scenarios").where({ id: scenarioId, team_id: teamId }).whereNull("deleted_at").first();
+}
+
+/** A revision of the scenario, or undefined. */
+export function revisionOfScenario(trx: Knex.Transaction, scenarioId: string, revisionId: string) {
+  return trx("revisions").where({ id: revisionId, scenario_id: scenarioId }).first();
+}
+
+/**
+ * The team's bench traces among `ids` (id, revision_id), locked FOR SHARE: a trace being deleted right now is
+ * waited for (then it is missing), and one attached here cannot be deleted until the transaction commits (then
+ * deleteTrace sees it is evidence).
+ */
+export function traceRevisionsForShare(trx: Knex.Transaction, teamId: string, ids: string[]): Promise<{ id: string; revision_id: string }[]> {
+  return trx("bench_traces").whereIn("id", ids).andWhere({ team_id: teamId }).forShare().select("id", "revision_id");
+}
+
+/**
+ * The revision's entry locked FOR UPDATE, or undefined. A revision has at most one entry (unique index); FOR UPDATE
+ * locks nothing while there is no row yet, so two concurrent first submissions both inserted and one died on the
+ * index with a server error: an advisory lock on the revision serialises them first.
+ */
+export async function lockEntryOfRevision(trx: Knex.Transaction, revisionId: string) {
+  await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`library-entry:${revisionId}`]);
+  return trx("library_entries").where({ revision_id: revisionId }).forUpdate().first();
+}
+
+/** What a submission writes on the entry. */
+export interface SubmissionFields {
+  title: string;
+  facets: { template: string; passElement: string; loadType: string; currentMin: number | null; currentMax: number | null };
+  keyFigures: KeyFigures;
+  evidence: Evidence;
+  note: string;
+}
+
+/**
+ * Writes a submission: over the entry `existingId` (a returned draft), or as a new entry of the revision. Returns
+ * the entry's id.
+ */
+export async function writeSubmission(
+  trx: Knex.Transaction, actor: CurrentUser, at: { existingId: string | null; scenarioId: string; revisionId: string }, f: SubmissionFields,
+): Promise<string> {
+  const fields = {
+    status: "submitted",
+    title: f.title,
+    template: f.facets.template,
+    pass_element: f.facets.passElement,
+    load_type: f.facets.loadType,
+    current_min: f.facets.currentMin,
+    current_max: f.facets.currentMax,
+    key_figures: JSON.stringify(f.keyFigures),
+    evidence: JSON.stringify(f.evidence),
+    note: f.note,
+    submitted_by: actor.id,
+    submitted_at: trx.fn.now(),
+    validated_by: null,
+    validated_at: null,
+    updated_at: trx.fn.now(),
+  };
+  if (at.existingId) {
+    await trx("library_entries").where({ id: at.existingId }).update(fields);
+    return at.existingId;
+  }
+  const [row] = await trx("library_entries")
+    .insert({ ...fields, team_id: actor.teamId, scenario_id: at.scenarioId, revision_id: at.revisionId, created_by: actor.id })
+    .returning("id");
+  return row.id as string;
+}
+
+/** The team's entry, or undefined; locked FOR UPDATE when `forUpdate`. */
+export function entryInTeam(trx: Knex.Transaction, teamId: string, entryId: string, opts: { forUpdate?: boolean } = {}) {
+  const q = trx("library_entries").where({ id: entryId, team_id: teamId });
+  return (opts.forUpdate ? q.forUpdate() : q).first();
+}
+
+/** Sets an entry's status; `validatedBy` records who validated it, and when. */
+export async function setEntryStatus(trx: Knex.Transaction, entryId: string, status: LibraryStatus, validatedBy?: string): Promise<void> {
+  const patch: Record<string, unknown> = { status, updated_at: trx.fn.now() };
+  if (validatedBy) Object.assign(patch, { validated_by: validatedBy, validated_at: trx.fn.now() });
+  await trx("library_entries").where({ id: entryId }).update(patch);
+}
+
+/** The owner of the entry's scenario and the number of its revision (for the mails). */
+export async function entryOwnerAndNumber(trx: Knex.Transaction, entry: { scenario_id: string; revision_id: string }): Promise<{ ownerId: string | undefined; number: number }> {
+  const owner = await trx("scenarios").where({ id: entry.scenario_id }).first("owner_id");
+  const rev = await trx("revisions").where({ id: entry.revision_id }).first("number");
+  return { ownerId: owner?.owner_id as string | undefined, number: rev?.number as number };
+}
+
+/** The team's entry with its revision's id, number and body, or undefined. */
+export function entryWithRevision(trx: Knex.Transaction, teamId: string, entryId: string) {
+  return trx("library_entries as e")
+    .join("revisions as r", "r.id", "e.revision_id")
+    .where({ "e.id": entryId, "e.team_id": teamId })
+    .first("e.id", "e.status", "e.title", "e.template", "r.id as revision_id", "r.number", "r.body");
+}
+
+/** A new scenario owned by the actor whose revision 1 copies the entry's revision; audited. */
+export async function insertScenarioFromEntry(
+  trx: Knex.Transaction, actor: CurrentUser,
+  e: { id: string; title: string; template: string; revision_id: string; number: number; body: unknown }, title: string,
+): Promise<{ scenarioId: string; revisionId: string }> {
+  const [s] = await trx("scenarios").insert({ team_id: actor.teamId, owner_id: actor.id, title, template: e.template }).returning("id");
+  const [rev] = await trx("revisions")
+    .insert({
+      scenario_id: s.id, number: 1, parent_id: e.revision_id, author_id: actor.id,
+      note: `Started from the library: “${e.title}” revision ${e.number}`, body: JSON.stringify(e.body),
+    })
+    .returning("id");
+  await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id });
+  await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.start_from", subjectType: "scenario", subjectId: s.id, detail: { entryId: e.id, revisionId: e.revision_id } }, trx);
+  return { scenarioId: s.id as string, revisionId: rev.id as string };
+}

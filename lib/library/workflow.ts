@@ -2,12 +2,15 @@ import "server-only";
 /**
  * The library's status workflow: submit for validation, validate, return with comments, retire, withdraw, comment,
  * and start a new scenario from a validated entry. Who may do what is checked here, on the server; the people
- * concerned are told by mail (lib/library/mail.ts). Rows and queries are lib/db/library.ts.
+ * concerned are told by mail (lib/library/mail.ts). The rows and every query, locks included, are lib/db/library.ts;
+ * this module decides, inside one transaction, what they may do.
  */
-import { db } from "@/lib/db/knex";
-import { audit } from "@/lib/db/audit";
 import { isUuid } from "@/lib/db/users";
-import { recordEvent, teamLeads, usersByIds, type Evidence, type SubmitInput } from "@/lib/db/library";
+import {
+  entryInTeam, entryOwnerAndNumber, entryWithRevision, insertScenarioFromEntry, libraryTransaction, lockEntryOfRevision, recordEvent,
+  revisionOfScenario, scenarioInTeam, setEntryStatus, teamLeads, traceRevisionsForShare, usersByIds, writeSubmission,
+  type Evidence, type SubmitInput,
+} from "@/lib/db/library";
 import { DomainError } from "@/lib/errors";
 import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 import type { LibraryStatus } from "@/lib/shared/statuses";
@@ -29,15 +32,14 @@ export interface WorkflowResult {
 export async function submitForValidation(actor: CurrentUser, scenarioId: string, input: SubmitInput): Promise<WorkflowResult> {
   if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot submit revisions for validation.");
   if (!isUuid(scenarioId)) throw new DomainError(404, "No such scenario.");
-  const result = await db().transaction(async (trx) => {
-    const s = await trx("scenarios").where({ id: scenarioId, team_id: actor.teamId }).whereNull("deleted_at").first();
+  const result = await libraryTransaction(async (trx) => {
+    const s = await scenarioInTeam(trx, actor.teamId, scenarioId);
     if (!s) throw new DomainError(404, "No such scenario.");
     const revisionId = input.revisionId ?? s.current_revision_id;
-    const rev = revisionId ? await trx("revisions").where({ id: revisionId, scenario_id: s.id }).first() : null;
+    const rev = revisionId ? await revisionOfScenario(trx, s.id, revisionId) : null;
     if (!rev) throw new DomainError(400, "revisionId: not a revision of this scenario.");
-    // FOR SHARE: a trace being deleted right now is waited for (then it is missing, 400), and one attached here
-    // cannot be deleted until this submission commits (then deleteTrace sees it is evidence, 409).
-    const traces = await trx("bench_traces").whereIn("id", input.traceIds).andWhere({ team_id: actor.teamId }).forShare().select("id", "revision_id");
+    // Locked FOR SHARE: no trace attached here can be deleted until the submission commits.
+    const traces = await traceRevisionsForShare(trx, actor.teamId, input.traceIds);
     const missing = input.traceIds.filter((id) => !traces.some((t) => t.id === id));
     if (missing.length) throw new DomainError(400, `traceIds: no such bench trace ${missing[0]}.`);
     const foreign = traces.find((t) => t.revision_id !== rev.id);
@@ -48,44 +50,16 @@ export async function submitForValidation(actor: CurrentUser, scenarioId: string
     const tolerances = await getTeamTolerances(actor.teamId, trx);
     const facets = scenarioFacets(rev.body, s.template);
     const evidence: Evidence = { traceIds: input.traceIds, comparisons: input.comparisons, tolerances };
-    // A revision has at most one entry (unique index). FOR UPDATE locks nothing while there is no row yet, so two
-    // concurrent first submissions both inserted and one died on the index with a server error: serialise them.
-    await trx.raw("select pg_advisory_xact_lock(hashtext(?))", [`library-entry:${rev.id}`]);
-    const existing = await trx("library_entries").where({ revision_id: rev.id }).forUpdate().first();
-    const fields = {
-      status: "submitted",
-      title: s.title,
-      template: facets.template,
-      pass_element: facets.passElement,
-      load_type: facets.loadType,
-      current_min: facets.currentMin,
-      current_max: facets.currentMax,
-      key_figures: JSON.stringify(input.keyFigures),
-      evidence: JSON.stringify(evidence),
-      note: input.note,
-      submitted_by: actor.id,
-      submitted_at: trx.fn.now(),
-      validated_by: null,
-      validated_at: null,
-      updated_at: trx.fn.now(),
-    };
-    let entryId: string;
-    let from: string | null = null;
-    if (existing) {
-      if (existing.status !== "draft") {
-        throw new DomainError(409, `Revision ${rev.number} is already ${existing.status}; save a new revision to submit changes.`);
-      }
-      from = existing.status;
-      entryId = existing.id;
-      await trx("library_entries").where({ id: entryId }).update(fields);
-    } else {
-      const [row] = await trx("library_entries")
-        .insert({ ...fields, team_id: actor.teamId, scenario_id: s.id, revision_id: rev.id, created_by: actor.id })
-        .returning("id");
-      entryId = row.id;
-      await recordEvent(trx, actor, entryId, "created", null, "draft", "", { revisionNumber: rev.number });
-      from = "draft";
+    const existing = await lockEntryOfRevision(trx, rev.id);
+    if (existing && existing.status !== "draft") {
+      throw new DomainError(409, `Revision ${rev.number} is already ${existing.status}; save a new revision to submit changes.`);
     }
+    const entryId = await writeSubmission(
+      trx, actor, { existingId: existing ? existing.id : null, scenarioId: s.id, revisionId: rev.id },
+      { title: s.title, facets, keyFigures: input.keyFigures, evidence, note: input.note },
+    );
+    if (!existing) await recordEvent(trx, actor, entryId, "created", null, "draft", "", { revisionNumber: rev.number });
+    const from: string = existing ? existing.status : "draft";
     await recordEvent(trx, actor, entryId, "submitted", from, "submitted", input.note, { traceIds: input.traceIds, revisionNumber: rev.number });
     return { entryId, title: s.title as string, number: rev.number as number };
   });
@@ -133,20 +107,16 @@ export async function changeEntryStatus(actor: CurrentUser, entryId: string, act
   if (!t.lead && !roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot change library entries.");
   const text = comment.trim().slice(0, 4000);
   if (t.needsComment && !text) throw new DomainError(400, "comment: say what needs to change before returning the entry.");
-  const r = await db().transaction(async (trx) => {
-    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).forUpdate().first();
+  const r = await libraryTransaction(async (trx) => {
+    const e = await entryInTeam(trx, actor.teamId, entryId, { forUpdate: true });
     if (!e) throw new DomainError(404, "No such library entry.");
     if (action === "withdraw" && e.submitted_by !== actor.id && actor.role !== "lead") {
       throw new DomainError(403, "Only the submitter or a lead can withdraw a submission.");
     }
     if (!t.from.includes(e.status)) throw new DomainError(409, `The entry is ${e.status}; it cannot be ${t.verb === "withdrew" ? "withdrawn" : t.verb} from there.`);
-    const patch: Record<string, unknown> = { status: t.to, updated_at: trx.fn.now() };
-    if (action === "validate") Object.assign(patch, { validated_by: actor.id, validated_at: trx.fn.now() });
-    await trx("library_entries").where({ id: entryId }).update(patch);
+    await setEntryStatus(trx, entryId, t.to, action === "validate" ? actor.id : undefined);
     await recordEvent(trx, actor, entryId, action === "withdraw" ? "withdrawn" : t.verb, e.status, t.to, text);
-    const owner = await trx("scenarios").where({ id: e.scenario_id }).first("owner_id");
-    const rev = await trx("revisions").where({ id: e.revision_id }).first("number");
-    return { e, ownerId: owner?.owner_id as string | undefined, number: rev?.number as number };
+    return { e, ...(await entryOwnerAndNumber(trx, e)) };
   });
   const concerned = others(
     [...(await usersByIds([r.e.submitted_by, r.ownerId])), ...(action === "withdraw" || action === "retire" ? await teamLeads(actor.teamId) : [])],
@@ -175,8 +145,8 @@ export async function commentOnEntry(actor: CurrentUser, entryId: string, commen
   const text = comment.trim().slice(0, 4000);
   if (!text) throw new DomainError(400, "comment: write something.");
   if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
-  const e = await db().transaction(async (trx) => {
-    const e = await trx("library_entries").where({ id: entryId, team_id: actor.teamId }).first();
+  const e = await libraryTransaction(async (trx) => {
+    const e = await entryInTeam(trx, actor.teamId, entryId);
     if (!e) throw new DomainError(404, "No such library entry.");
     await recordEvent(trx, actor, entryId, "commented", e.status, e.status, text);
     return e;
@@ -192,23 +162,11 @@ export async function commentOnEntry(actor: CurrentUser, entryId: string, commen
 export async function startFromEntry(actor: CurrentUser, entryId: string, title?: string): Promise<{ scenarioId: string; revisionId: string }> {
   if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot create scenarios.");
   if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
-  return db().transaction(async (trx) => {
-    const e = await trx("library_entries as e")
-      .join("revisions as r", "r.id", "e.revision_id")
-      .where({ "e.id": entryId, "e.team_id": actor.teamId })
-      .first("e.id", "e.status", "e.title", "e.template", "r.id as revision_id", "r.number", "r.body");
+  return libraryTransaction(async (trx) => {
+    const e = await entryWithRevision(trx, actor.teamId, entryId);
     if (!e) throw new DomainError(404, "No such library entry.");
     if (e.status !== "validated") throw new DomainError(409, `Only validated entries are starting points; this one is ${e.status}.`);
     const name = (title?.trim() || `${e.title} (from library)`).slice(0, 200);
-    const [s] = await trx("scenarios").insert({ team_id: actor.teamId, owner_id: actor.id, title: name, template: e.template }).returning("id");
-    const [rev] = await trx("revisions")
-      .insert({
-        scenario_id: s.id, number: 1, parent_id: e.revision_id, author_id: actor.id,
-        note: `Started from the library: “${e.title}” revision ${e.number}`, body: JSON.stringify(e.body),
-      })
-      .returning("id");
-    await trx("scenarios").where({ id: s.id }).update({ current_revision_id: rev.id });
-    await audit({ teamId: actor.teamId, actorId: actor.id, action: "library.start_from", subjectType: "scenario", subjectId: s.id, detail: { entryId, revisionId: e.revision_id } }, trx);
-    return { scenarioId: s.id as string, revisionId: rev.id as string };
+    return insertScenarioFromEntry(trx, actor, { ...e, id: entryId }, name);
   });
 }

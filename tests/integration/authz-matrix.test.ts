@@ -3,7 +3,6 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 // Server actions read the session through next/headers; outside Next there is no request scope, so the cookie
 // jar is replaced by one holding the sealed cookie of the actor under test (the same seal the browser sends).
 const jar: { cookie?: string } = {};
-vi.mock("server-only", () => ({}));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 vi.mock("next/headers", () => ({
   cookies: async () => ({

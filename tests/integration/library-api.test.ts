@@ -1,6 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-vi.mock("server-only", () => ({}));
 
 import { db } from "@/lib/db/knex";
 import * as library from "@/app/api/library/route";

@@ -1,6 +1,5 @@
-import { afterAll, describe, expect, it, vi } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 
-vi.mock("server-only", () => ({}));
 
 import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";

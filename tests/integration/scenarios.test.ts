@@ -1,5 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-vi.mock("server-only", () => ({}));
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { db } from "@/lib/db/knex";
 import {

@@ -1,7 +1,7 @@
 /**
  * Test fixtures for the account and scenario tests: a throwaway team per test file (a lead, a designer, a viewer)
  * plus an outsider who leads another team, sealed session cookies for them, and Request builders.
- * Test files must `vi.mock("server-only", () => ({}))` before importing this (the marker throws outside Next).
+ * The `server-only` marker of the modules it imports is aliased to its empty variant in vitest.config.ts.
  */
 import { randomBytes } from "node:crypto";
 import { sealData } from "iron-session";
