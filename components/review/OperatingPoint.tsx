@@ -1,4 +1,5 @@
 /** The operating point: node voltages and the devices' currents, voltages and dissipation. */
+import { DEVICE_WORDS } from "@/lib/design/op-words";
 import type { OpResult } from "@/lib/sim";
 import { formatEng } from "@/lib/units/eng";
 import { formatQuantity } from "@/lib/units/quantity";
@@ -23,10 +24,6 @@ const NODE_WORDS: Record<string, string> = {
   lc: "inside the coil, between its resistance and inductance",
   ld: "between the LED string and the load resistance",
   lcell: "cell terminal",
-};
-
-const DEVICE_WORDS: Record<string, string> = {
-  U1: "op-amp", Q1: "pass transistor", Q2: "pass transistor (output)", M1: "pass MOSFET", DCLAMP: "clamp diode", DLED: "LED string",
 };
 
 export function OperatingPoint({ op }: { op: OpResult }) {

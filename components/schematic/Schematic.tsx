@@ -5,6 +5,7 @@
  * node voltages and the load current are written beside the nodes. One layout per template family:
  * SinkLayout (low-side sinks), HighSideLayout (high-side source), HowlandLayout (Howland pump).
  */
+import { opHighlights } from "@/lib/design/op-words";
 import { formatEng } from "@/lib/units/eng";
 import type { Scenario } from "@/lib/design/schema";
 import type { OperatingPointView } from "./parts";
@@ -17,20 +18,10 @@ export type { OperatingPointView };
 /** Branch currents and device figures worth reading off the operating point, as one line. */
 function opSummary(op: OperatingPointView): string {
   const parts: string[] = [];
-  const ib = op.currents.RBASE;
-  if (ib !== undefined) parts.push(`I(drive) ${formatEng(Math.abs(ib), "A")}`);
-  let p = 0;
-  let any = false;
-  for (const name of ["Q1", "Q2", "M1"]) {
-    const d = op.devices?.[name] as { power?: number } | undefined;
-    if (d?.power !== undefined) {
-      p += d.power;
-      any = true;
-    }
-  }
-  if (any) parts.push(`P(pass) ${formatEng(p, "W")}`);
-  const u = op.devices?.U1 as { limiting?: boolean } | undefined;
-  if (u?.limiting) parts.push("op-amp limiting");
+  const h = opHighlights(op);
+  if (h.driveCurrent !== null) parts.push(`I(drive) ${formatEng(h.driveCurrent, "A")}`);
+  if (h.passPower !== null) parts.push(`P(pass) ${formatEng(h.passPower, "W")}`);
+  if (h.opampLimiting) parts.push("op-amp limiting");
   return parts.join(" · ");
 }
 
@@ -44,7 +35,7 @@ export interface SchematicProps {
 
 export function Schematic({ scenario, selected, onSelect, op, showOp }: SchematicProps) {
   const view = showOp ? op : null;
-  const loadCurrent = view?.currents.VMEAS;
+  const loadCurrent = view ? (opHighlights(view).loadCurrent ?? undefined) : undefined;
   return (
     <svg
       viewBox="0 0 590 400"

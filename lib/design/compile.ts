@@ -1,10 +1,11 @@
 /**
  * Templates → engine netlists. One builder per template; the load, cable, supplies and stimulus are shared.
  *
- * Fixed names the runners rely on (see `NAMES`): the command source VCMD, the load-current ammeter VMEAS (a 0 V
- * source in series with the load whose current is positive in the regulated direction), the op-amp U1 with its
- * output at node "oa", the pass-device terminal "c" (collector/drain), and for loop gain the probe VPROBE/IPROBE
- * between the op-amp's output pin ("oa_i") and the node it drives ("oa") — the one wire every loop passes through.
+ * Elements get descriptive names of our own (the netlist's `kind` already says what each is). Fixed names the runners
+ * rely on (see `NAMES`): the command source "command", the load-current meter "load-meter" (a 0 V source in series
+ * with the load whose current is positive in the regulated direction), the op-amp "amplifier" with its output at
+ * node "oa", the pass device "pass" with its collector/drain at node "c", ground "gnd", and for loop gain the probe
+ * pair "probe-series"/"probe-shunt" in the wire of the loop being broken (see CompileOptions.loop).
  */
 import type { AnalysisJson, NetlistElementJson, NetlistJson, Wave } from "./netlist";
 import type { Scenario } from "./schema";
@@ -35,15 +36,22 @@ export interface CompileOptions {
 export type LoopName = "current" | "local";
 
 export const NAMES = {
-  command: "VCMD",
-  ammeter: "VMEAS",
-  probeV: "VPROBE",
-  probeI: "IPROBE",
-  opamp: "U1",
+  command: "command",
+  ammeter: "load-meter",
+  probeV: "probe-series",
+  probeI: "probe-shunt",
+  opamp: "amplifier",
   /** the source-side terminal of the load path (after the cable) */
   nodeTerminal: "lw",
-  loadSupply: "VLOAD",
-  sense: "RSENSE",
+  loadSupply: "load-supply",
+  sense: "sense",
+  /** the pass device (the output transistor of a Darlington pair) and the Darlington's driver */
+  pass: "pass",
+  driver: "driver",
+  /** the base/gate resistor from the op-amp's output */
+  driveResistor: "drive-resistor",
+  /** ground, as every netlist we generate writes it (the engine also reads "0") */
+  ground: "gnd",
   nodeOpampOut: "oa",
   nodeOpampPin: "oa_i",
   /** the base/gate resistor's op-amp-side end when the current loop is probed */
@@ -147,13 +155,13 @@ function commandSource(b: Builder, plus: string, minus: string): void {
   if (wave) src.wave = wave;
   if (ac !== undefined) src.ac = ac;
   add(b, src);
-  if (st.sourceResistance > 0) res(b, "RCMD", out, plus, st.sourceResistance);
+  if (st.sourceResistance > 0) res(b, "command-source-r", out, plus, st.sourceResistance);
 }
 
 function supplySource(b: Builder, name: string, node: string, value: number, steps: boolean): void {
   const { s, purpose } = b;
   const st = s.stimulus;
-  const src: NetlistElementJson = { kind: "vsource", name, nodes: [node, "0"], dc: value };
+  const src: NetlistElementJson = { kind: "vsource", name, nodes: [node, NAMES.ground], dc: value };
   if (purpose === "step" && st.kind === "power-up") {
     src.dc = 0;
     src.wave = pwlStep(0, value, st.stepTime, Math.max(st.edgeTime, st.rampTime));
@@ -167,10 +175,10 @@ function supplySource(b: Builder, name: string, node: string, value: number, ste
 function opamp(b: Builder, inp: string, inn: string): void {
   const { s, purpose } = b;
   const o = s.opamp;
-  supplySource(b, "VCC", "vcc", s.supplies.opampPositive, false);
-  let vee = "0";
+  supplySource(b, "amp-supply-pos", "vcc", s.supplies.opampPositive, false);
+  let vee: string = NAMES.ground;
   if (s.supplies.opampNegative < 0) {
-    supplySource(b, "VEE", "vee", s.supplies.opampNegative, false);
+    supplySource(b, "amp-supply-neg", "vee", s.supplies.opampNegative, false);
     vee = "vee";
   }
   const probed = probedLoop(b) === "local";
@@ -200,7 +208,7 @@ function probedLoop(b: Builder): LoopName | null {
  */
 function probe(b: Builder, driver: string, driven: string): void {
   add(b, { kind: "vsource", name: NAMES.probeV, nodes: [driven, driver], dc: 0, ac: b.purpose === "loopgain-v" ? 1 : 0 });
-  add(b, { kind: "isource", name: NAMES.probeI, nodes: ["0", driven], dc: 0, ac: b.purpose === "loopgain-i" ? 1 : 0 });
+  add(b, { kind: "isource", name: NAMES.probeI, nodes: [NAMES.ground, driven], dc: 0, ac: b.purpose === "loopgain-i" ? 1 : 0 });
 }
 
 /** Node where the probe's injections are read: the driven side of the break. */
@@ -215,7 +223,7 @@ function driveResistor(b: Builder): void {
     probe(b, NAMES.nodeOpampOut, NAMES.nodeDrive);
     from = NAMES.nodeDrive;
   }
-  res(b, "RBASE", from, "b", b.s.parts.baseResistor);
+  res(b, NAMES.driveResistor, from, "b", b.s.parts.baseResistor);
 }
 
 function bjtModel(s: Scenario, scale = 1): Record<string, number | null> {
@@ -251,12 +259,12 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
       const mid = `cabm${k}`;
       const z = k === n - 1 ? "lw" : `cab${k + 1}`;
       if (lSec > 0) {
-        res(b, `RCAB${k}`, a, mid, Math.max(rSec, 1e-6));
-        add(b, { kind: "inductor", name: `LCAB${k}`, nodes: [mid, z], value: lSec });
+        res(b, `cable-r${k}`, a, mid, Math.max(rSec, 1e-6));
+        add(b, { kind: "inductor", name: `cable-l${k}`, nodes: [mid, z], value: lSec });
       } else {
-        res(b, `RCAB${k}`, a, z, Math.max(rSec, 1e-6));
+        res(b, `cable-r${k}`, a, z, Math.max(rSec, 1e-6));
       }
-      if (cSec > 0) add(b, { kind: "capacitor", name: `CCAB${k}`, nodes: [a, farNode], value: cSec });
+      if (cSec > 0) add(b, { kind: "capacitor", name: `cable-c${k}`, nodes: [a, farNode], value: cSec });
     }
     near = "lw";
   }
@@ -270,34 +278,34 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
   const rLoad = Math.max(L.resistance, 1e-6);
   switch (L.kind) {
     case "resistor":
-      res(b, "RLOAD", hi, lo, rLoad);
+      res(b, "load-r", hi, lo, rLoad);
       break;
     case "coil":
-      res(b, "RLOAD", hi, "lc", rLoad);
-      if (L.inductance > 0) add(b, { kind: "inductor", name: "LLOAD", nodes: ["lc", lo], value: L.inductance });
-      else res(b, "RLC", "lc", lo, 1e-6);
-      if (L.clampDiode) add(b, { kind: "diode", name: "DCLAMP", nodes: [lo, hi], model: { Is: 1e-12, n: 1.5, Rs: 0.05 } });
+      res(b, "load-r", hi, "lc", rLoad);
+      if (L.inductance > 0) add(b, { kind: "inductor", name: "load-l", nodes: ["lc", lo], value: L.inductance });
+      else res(b, "load-link", "lc", lo, 1e-6);
+      if (L.clampDiode) add(b, { kind: "diode", name: "clamp", nodes: [lo, hi], model: { Is: 1e-12, n: 1.5, Rs: 0.05 } });
       break;
     case "led":
       // N identical diodes in series carry the same current, so V = N·n·Vt·ln(I/Is + 1): exactly one diode with
       // emission coefficient N·n. One element instead of N keeps the matrix small.
-      add(b, { kind: "diode", name: "DLED", nodes: [hi, "ld"], model: { Is: L.ledIs, n: L.ledN * L.ledCount } });
-      res(b, "RLOAD", "ld", lo, rLoad);
+      add(b, { kind: "diode", name: "led-string", nodes: [hi, "ld"], model: { Is: L.ledIs, n: L.ledN * L.ledCount } });
+      res(b, "load-r", "ld", lo, rLoad);
       break;
     case "cell":
       // A sink discharges the cell: its + terminal faces the sink. A source charges it: + faces the source.
-      if (sink) add(b, { kind: "vsource", name: "VCELL", nodes: ["lcell", hi], dc: L.cellVoltage });
-      else add(b, { kind: "vsource", name: "VCELL", nodes: ["lcell", lo], dc: L.cellVoltage });
-      if (sink) res(b, "RLOAD", "lcell", lo, rLoad);
-      else res(b, "RLOAD", hi, "lcell", rLoad);
+      if (sink) add(b, { kind: "vsource", name: "cell", nodes: ["lcell", hi], dc: L.cellVoltage });
+      else add(b, { kind: "vsource", name: "cell", nodes: ["lcell", lo], dc: L.cellVoltage });
+      if (sink) res(b, "load-r", "lcell", lo, rLoad);
+      else res(b, "load-r", hi, "lcell", rLoad);
       break;
   }
-  if (L.extraCapacitance > 0) add(b, { kind: "capacitor", name: "CLOAD", nodes: [hi, lo], value: L.extraCapacitance });
+  if (L.extraCapacitance > 0) add(b, { kind: "capacitor", name: "load-c", nodes: [hi, lo], value: L.extraCapacitance });
   if (s.stimulus.kind === "load-step") {
     const t0 = purpose === "step" ? s.stimulus.stepTime : Number.MAX_SAFE_INTEGER;
-    res(b, "RSTEP", hi, "ls", s.load.stepResistance);
+    res(b, "step-r", hi, "ls", s.load.stepResistance);
     add(b, {
-      kind: "switch", name: "SSTEP", nodes: ["ls", lo], ron: 1e-3, roff: 1e9,
+      kind: "switch", name: "step-switch", nodes: ["ls", lo], ron: 1e-3, roff: 1e9,
       schedule: purpose === "step" ? [[0, "off"], [t0, "on"]] : [[0, "off"]],
       transition: s.stimulus.edgeTime,
     });
@@ -308,24 +316,24 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
 function buildSink(b: Builder): void {
   const { s } = b;
   const p = s.parts;
-  commandSource(b, NAMES.nodeCommand, "0");
+  commandSource(b, NAMES.nodeCommand, NAMES.ground);
   const ref = p.dividerTop > 0 ? "ref" : NAMES.nodeCommand;
-  if (p.dividerTop > 0) res(b, "RDIVT", NAMES.nodeCommand, "ref", p.dividerTop);
-  res(b, "RDIVB", ref, "0", p.dividerBottom);
+  if (p.dividerTop > 0) res(b, "divider-top", NAMES.nodeCommand, "ref", p.dividerTop);
+  res(b, "divider-bottom", ref, NAMES.ground, p.dividerBottom);
   opamp(b, ref, "inv");
   driveResistor(b);
-  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
-  res(b, "RFB", "e", "inv", p.feedbackResistor);
-  res(b, NAMES.sense, "e", "0", p.senseResistor);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "comp-capacitor", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
+  res(b, "feedback-resistor", "e", "inv", p.feedbackResistor);
+  res(b, NAMES.sense, "e", NAMES.ground, p.senseResistor);
   if (s.template === "sink-nmos") {
-    add(b, { kind: "mosfet", name: "M1", nodes: [NAMES.nodePass, "b", "e"], polarity: "n", model: mosModel(s) });
+    add(b, { kind: "mosfet", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "n", model: mosModel(s) });
   } else if (s.template === "sink-darlington") {
     // Driver transistor: a tenth of the output device's area (common practice for Darlington pairs).
-    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "bm"], polarity: "npn", model: bjtModel(s, 0.1) });
-    add(b, { kind: "bjt", name: "Q2", nodes: [NAMES.nodePass, "bm", "e"], polarity: "npn", model: bjtModel(s) });
-    if (p.darlingtonResistor !== null) res(b, "RDAR", "bm", "e", p.darlingtonResistor);
+    add(b, { kind: "bjt", name: NAMES.driver, nodes: [NAMES.nodePass, "b", "bm"], polarity: "npn", model: bjtModel(s, 0.1) });
+    add(b, { kind: "bjt", name: NAMES.pass, nodes: [NAMES.nodePass, "bm", "e"], polarity: "npn", model: bjtModel(s) });
+    if (p.darlingtonResistor !== null) res(b, "darlington-resistor", "bm", "e", p.darlingtonResistor);
   } else {
-    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "e"], polarity: "npn", model: bjtModel(s) });
+    add(b, { kind: "bjt", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "npn", model: bjtModel(s) });
   }
   supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);
   loadPath(b, true, "vs");
@@ -339,31 +347,31 @@ function buildHighSide(b: Builder): void {
   // The command is referred to the supply rail (as a level shifter would present it): cmd = vs − Vcommand.
   commandSource(b, "vs", NAMES.nodeCommand);
   const ref = "ref";
-  res(b, "RDIVB", "vs", ref, p.dividerBottom);
-  res(b, "RDIVT", ref, NAMES.nodeCommand, Math.max(p.dividerTop, 1e-3));
+  res(b, "divider-bottom", "vs", ref, p.dividerBottom);
+  res(b, "divider-top", ref, NAMES.nodeCommand, Math.max(p.dividerTop, 1e-3));
   opamp(b, ref, "inv");
   driveResistor(b);
-  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
-  res(b, "RFB", "e", "inv", p.feedbackResistor);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "comp-capacitor", nodes: [NAMES.nodeOpampOut, "inv"], value: p.compCapacitor });
+  res(b, "feedback-resistor", "e", "inv", p.feedbackResistor);
   res(b, NAMES.sense, "vs", "e", p.senseResistor);
   if (s.pass.kind === "pmos") {
-    add(b, { kind: "mosfet", name: "M1", nodes: [NAMES.nodePass, "b", "e"], polarity: "p", model: mosModel(s) });
+    add(b, { kind: "mosfet", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "p", model: mosModel(s) });
   } else {
-    add(b, { kind: "bjt", name: "Q1", nodes: [NAMES.nodePass, "b", "e"], polarity: "pnp", model: bjtModel(s) });
+    add(b, { kind: "bjt", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "pnp", model: bjtModel(s) });
   }
-  loadPath(b, false, "0");
+  loadPath(b, false, NAMES.ground);
 }
 
 /** Improved Howland pump: R1 command→P, R2 P→load node, R3 N→ground, R4 (∥ Ccomp) output→N, Rs output→load node. */
 function buildHowland(b: Builder): void {
   const { s } = b;
   const p = s.parts;
-  commandSource(b, NAMES.nodeCommand, "0");
-  res(b, "RH1", NAMES.nodeCommand, "p", p.howlandR1);
-  res(b, "RH2", "p", NAMES.nodePass, p.howlandR2);
-  res(b, "RH3", "n", "0", p.howlandR3);
-  res(b, "RH4", NAMES.nodeOpampOut, "n", p.howlandR4);
-  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "CCOMP", nodes: [NAMES.nodeOpampOut, "n"], value: p.compCapacitor });
+  commandSource(b, NAMES.nodeCommand, NAMES.ground);
+  res(b, "howland-r1", NAMES.nodeCommand, "p", p.howlandR1);
+  res(b, "howland-r2", "p", NAMES.nodePass, p.howlandR2);
+  res(b, "howland-r3", "n", NAMES.ground, p.howlandR3);
+  res(b, "howland-r4", NAMES.nodeOpampOut, "n", p.howlandR4);
+  if (p.compCapacitor > 0) add(b, { kind: "capacitor", name: "comp-capacitor", nodes: [NAMES.nodeOpampOut, "n"], value: p.compCapacitor });
   opamp(b, "p", "n");
   res(b, NAMES.sense, NAMES.nodeOpampOut, NAMES.nodePass, p.senseResistor);
   supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);

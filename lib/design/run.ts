@@ -41,10 +41,7 @@ export interface OperatingPointSummary {
 }
 
 function passDevice(s: Scenario): string | null {
-  if (s.template === "howland") return null;
-  if (s.template === "sink-darlington") return "Q2";
-  if (s.template === "sink-nmos" || (s.template === "source-highside" && s.pass.kind === "pmos")) return "M1";
-  return "Q1";
+  return s.template === "howland" ? null : NAMES.pass;
 }
 
 export function summarizeOp(s: Scenario, op: OpResult): OperatingPointSummary {
@@ -54,8 +51,8 @@ export function summarizeOp(s: Scenario, op: OpResult): OperatingPointSummary {
   const info = dev ? (op.devices[dev] as { power?: number; region?: string } | undefined) : undefined;
   let passPower = info?.power ?? null;
   if (s.template === "sink-darlington" && passPower !== null) {
-    const q1 = op.devices.Q1 as { power?: number } | undefined;
-    passPower += q1?.power ?? 0;
+    const driver = op.devices[NAMES.driver] as { power?: number } | undefined;
+    passPower += driver?.power ?? 0;
   }
   const u = op.devices[NAMES.opamp] as { limiting?: boolean } | undefined;
   return {

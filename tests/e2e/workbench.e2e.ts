@@ -123,7 +123,7 @@ describe("workbench", () => {
     const netlist = JSON.parse(await readDownload(json)) as { elements: { kind: string; name: string }[]; analysis: { kind: string } };
     expect(netlist.analysis.kind).toBe("tran");
     expect(netlist.elements.some((e) => e.kind === "opamp")).toBe(true);
-    expect(netlist.elements.some((e) => e.name === "CCOMP")).toBe(true);
+    expect(netlist.elements.some((e) => e.name === "comp-capacitor")).toBe(true);
   });
 
   it("marks a value that is not a number in place, with the reason, and does not apply it", async () => {

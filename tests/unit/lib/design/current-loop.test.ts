@@ -1,4 +1,5 @@
 import { Matrix, solve } from "ml-matrix";
+import { NAMES } from "@/lib/design/compile";
 import { describe, expect, it } from "vitest";
 import { compile, simulate, type AcResult, type Netlist, type TranResult } from "@/lib/sim";
 import { defaultScenario, runLoopGain, runOperatingPoint, thermalVoltage, type Scenario } from "@/lib/design";
@@ -70,7 +71,7 @@ describe("current loop broken at the base resistor", () => {
   it("equals an independent complex nodal solve of the linearised sink (ml-matrix, written in the test)", () => {
     const s = handSolvableSink();
     const { op } = runOperatingPoint(s);
-    const q = op.devices.Q1 as { ic: number; ib: number };
+    const q = op.devices[NAMES.pass] as { ic: number; ib: number };
     const vt = thermalVoltage(s.thermal.ambient);
     // forward-active transport model: gm = Ic/Vt, gπ = Ib/Vt (docs/references.md §1.3)
     const gm = q.ic / vt, gpi = q.ib / vt;

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { NAMES } from "@/lib/design/compile";
 import { simulate, type AcResult } from "@/lib/sim";
 import { compileNetlistJson, defaultScenario, fullScaleCurrent, runOperatingPoint, spread, spreadScenario, tianLoopGain, type Scenario, type TemplateId } from "@/lib/design";
 import { runLoopGain, runOperatingPointAndLoopGain } from "@/lib/design/run";
@@ -22,7 +23,7 @@ function separateRuns(s: Scenario, ppd: number, loop: "current" | "local"): { re
   const n = a.freq.length;
   const re = new Float64Array(n), im = new Float64Array(n);
   for (let k = 0; k < n; k++) {
-    const [r, i] = tianLoopGain(v1.re[k], v1.im[k], -b.currents.VPROBE.re[k], -b.currents.VPROBE.im[k]);
+    const [r, i] = tianLoopGain(v1.re[k], v1.im[k], -b.currents[NAMES.probeV].re[k], -b.currents[NAMES.probeV].im[k]);
     re[k] = r; im[k] = i;
   }
   return { re, im };

@@ -1,3 +1,4 @@
+import { NAMES } from "@/lib/design/compile";
 import { describe, expect, it } from "vitest";
 import { simulate, type AcResult } from "@/lib/sim";
 import { compileNetlistJson, defaultScenario, runLoopGain, runOperatingPoint, tianLoopGain, type Scenario, type TemplateId } from "@/lib/design";
@@ -20,8 +21,8 @@ function exactBreak(s: Scenario): AcResult {
   const elements = nl.elements.map((e) =>
     e.kind === "opamp" ? { ...e, nodes: [e.nodes[0], e.nodes[1], "oa_x", e.nodes[3], e.nodes[4]] as typeof e.nodes } : e,
   );
-  elements.push({ kind: "resistor", name: "RDUMMY", nodes: ["oa_x", "0"], value: 1e3 });
-  elements.push({ kind: "vsource", name: "VX", nodes: ["oa", "0"], dc: op.nodes.oa, ac: 1 });
+  elements.push({ kind: "resistor", name: "dummy-load", nodes: ["oa_x", "gnd"], value: 1e3 });
+  elements.push({ kind: "vsource", name: "drive", nodes: ["oa", "gnd"], dc: op.nodes.oa, ac: 1 });
   const r = simulate({ ...nl, elements, analysis: { kind: "ac", fStart: 10, fStop: 1e7, pointsPerDecade: 20 } });
   if (r.kind !== "ac") throw new Error("expected AC");
   return r;
@@ -57,7 +58,7 @@ describe("two-injection loop gain (Tian et al. 2001, docs/references.md §4.2)",
     const s = idealOutput("sink-npn");
     s.pass.VA = null; // no Early effect: the hand formula ignores it
     const { op, summary } = runOperatingPoint(s);
-    const q = op.devices.Q1 as { ic: number };
+    const q = op.devices[NAMES.pass] as { ic: number };
     const beta = s.pass.betaF;
     const vt = (1.380649e-23 * (s.thermal.ambient + 273.15)) / 1.602176634e-19;
     const rpi = (beta * vt) / q.ic;

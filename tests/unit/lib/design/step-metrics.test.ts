@@ -1,3 +1,4 @@
+import { NAMES } from "@/lib/design/compile";
 import { describe, expect, it } from "vitest";
 import { simulate, type TranResult } from "@/lib/sim";
 import { valveCoilDemo } from "@/lib/design/demos";
@@ -79,7 +80,7 @@ describe("the design layer's step: peak resolved where the record is coarse", ()
     const step = runStep(s);
     // Reference: the engine with its maximum step at stopTime/6000 everywhere (the default is stopTime/200).
     const fine = simulate(compileNetlist(s, "step", { maxStep: s.stimulus.stopTime / 6000, tStep: s.stimulus.stopTime / 6000 })) as TranResult;
-    const ref = stepMetrics(fine.time, fine.currents.VMEAS, s.stimulus.stepTime);
+    const ref = stepMetrics(fine.time, fine.currents[NAMES.ammeter], s.stimulus.stepTime);
     expect(Math.abs(step.metrics.overshootPct - ref.overshootPct)).toBeLessThan(0.3);
     expect(step.metrics.peakTime! / ref.peakTime!).toBeCloseTo(1, 2);
     expect(step.metrics.riseTime! / ref.riseTime!).toBeCloseTo(1, 2);

@@ -1,3 +1,4 @@
+import { NAMES } from "@/lib/design/compile";
 import { describe, expect, it } from "vitest";
 import { parseNetlist } from "@/lib/sim";
 import {
@@ -50,14 +51,14 @@ describe("base-current error ≈ 1/(β+1)", () => {
     s.pass = { ...s.pass, betaF: beta, VA: null };
     s.load.cable.length = 0;
     const { op } = runOperatingPoint(s);
-    const iLoad = op.currents.VMEAS;
-    const iEmitter = op.currents.RSENSE;
+    const iLoad = op.currents[NAMES.ammeter];
+    const iEmitter = op.currents[NAMES.sense];
     expect(1 - iLoad / iEmitter).toBeCloseTo(1 / (beta + 1), 6);
   });
   it("a MOSFET has no such error: the drain current equals the sense current", () => {
     const s = defaultScenario("sink-nmos");
     s.load.cable.length = 0;
     const { op } = runOperatingPoint(s);
-    expect(op.currents.VMEAS / op.currents.RSENSE).toBeCloseTo(1, 9);
+    expect(op.currents[NAMES.ammeter] / op.currents[NAMES.sense]).toBeCloseTo(1, 9);
   });
 });
