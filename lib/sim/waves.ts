@@ -3,6 +3,26 @@ import type { Wave } from "./schema";
 
 const MIN_EDGE = 1e-12;
 
+/**
+ * Steps per period a sine allows at most: 64 samples per period put every peak within 1 − cos(π/64) = 0.12 % of
+ * the amplitude of a computed point, so a peak is never stepped over and a plot drawn through the points is true.
+ */
+export const SINE_STEPS_PER_PERIOD = 64;
+/**
+ * Steps per period a pulse train allows at most. Its corners are breakpoints already; the bound keeps the step from
+ * growing past a fraction of the period, so each pulse's response is resolved alike from the first to the last.
+ */
+export const PULSE_STEPS_PER_PERIOD = 16;
+
+/** Largest transient step (s) a wave allows: a fraction of its period for periodic waves, Infinity otherwise. */
+export function waveMaxStep(w: Wave): number {
+  switch (w.shape) {
+    case "sine": return 1 / (w.freq * SINE_STEPS_PER_PERIOD);
+    case "pulse": return w.period === null ? Infinity : w.period / PULSE_STEPS_PER_PERIOD;
+    default: return Infinity;
+  }
+}
+
 /** Value of a wave at time t (s). */
 export function waveValue(w: Wave, t: number): number {
   switch (w.shape) {

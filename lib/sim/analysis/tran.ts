@@ -10,6 +10,18 @@ import { SimError } from "../errors";
 import type { TranResult } from "../results";
 import { checkBudget, newton, solveDc, worstName } from "./newton";
 
+/**
+ * Slope breaks. The trapezoidal error estimate h³·q'''/12 assumes a smooth charge; when a junction turns on or off
+ * inside a step, the current's slope breaks there, the rule's error is a large fraction of the predictor difference
+ * the estimate is built from, and the estimate falls short several-fold (measured: 4× on an emitter follower whose
+ * transistor cuts off each period). A step whose third-derivative estimate jumps above KINK_RATIO × the charge's
+ * recent level (the largest of the last estimates, each step's weight × KINK_DECAY) is treated as a break and held to
+ * KINK_TOLERANCE × the usual tolerance. Ringing does not trip it: its level stays up between the zeros of q'''.
+ */
+const KINK_RATIO = 4;
+const KINK_DECAY = 0.8;
+const KINK_TOLERANCE = 0.1;
+
 /** Growable columns for the accepted points. */
 class Columns {
   cap = 256;
@@ -29,7 +41,14 @@ export interface TranParams { tStop: number; tStep: number | null; maxStep: numb
 export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => void): TranResult {
   const { tStop } = a;
   const tStep = a.tStep ?? tStop / 1000;
-  const maxStep = Math.min(a.maxStep ?? tStop / 50, tStop);
+  // Accuracy defaults, unless the caller sets maxStep (and with it the step budget, as the design layer does):
+  // - the output step bounds the internal step (the classic TMAX default, min(tStep, tStop/50)): the truncation-error
+  //   control alone lets the step grow over the peaks of a drive that no charge sees (a sine through a diode into a
+  //   resistor), and its tolerance is relative, so coarse steps add up to visible errors;
+  // - slope breaks (a junction turning on or off within a step) get a tighter truncation-error tolerance (KINK_*).
+  // Periodic sources bound the step in both cases (their maxStepAt).
+  const accuracyDefaults = a.maxStep === null;
+  const maxStep = Math.min(a.maxStep ?? Math.min(tStep, tStop / 50), tStop);
   const hmin = tStop * 1e-13;
   const { reltol, abstol, trtol } = c.tol;
   const chgtol = 1e-14;
@@ -78,12 +97,22 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
   let t = 0;
   let tm1 = 0, tm2 = 0; // earlier accepted times
   let history = 0; // accepted steps so far (for the truncation-error estimate)
+  // The first two steps have no history for a truncation-error estimate: they start small (a tenth of the bounds,
+  // a hundredth with the accuracy defaults, where the periodic sources' bounds count too) and double from there.
   let h = Math.min(tStep, maxStep, bps[0]) / 10;
+  if (accuracyDefaults) {
+    for (let e = 0; e < els.length; e++) h = Math.min(h, els[e].maxStepAt(0) / 10);
+    h /= 10;
+  }
   let order = 1;
   let accepted = 0, rejected = 0;
   const startIter = c.newtonIterations;
   const maxNewtonTran = Math.max(20, Math.min(c.tol.maxNewton, 50));
   const nState = c.nState;
+  // slope-break detection (accuracy defaults only): per charge, the recent level of the third-derivative estimate
+  const kinkRatio = accuracyDefaults ? KINK_RATIO : Infinity;
+  const d3Level = new Float64Array(nState).fill(Infinity);
+  const d3New = new Float64Array(nState);
 
   while (t < tStop - hmin) {
     if (accepted + rejected >= c.tol.maxSteps) {
@@ -142,8 +171,10 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
           const d12 = (q2 - c.q3[s]) / (t2 - t3);
           const d21 = (d11 - d12) / (t1 - t3);
           const q3rd = Math.abs(6 * (d20 - d21) / (t0 - t3));
+          d3New[s] = q3rd;
           if (q3rd === 0) continue;
-          hs = Math.sqrt((12 * trtol * tol) / q3rd);
+          const k = q3rd > kinkRatio * d3Level[s] ? KINK_TOLERANCE : 1;
+          hs = Math.sqrt((12 * trtol * tol * k) / q3rd);
         }
         if (hs < hNew) hNew = hs;
       }
@@ -160,6 +191,9 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
     history++;
     tm2 = tm1; tm1 = t; t = tn;
     c.q3.set(c.q2); c.q2.set(c.q1); c.q1.set(c.q0); c.i1.set(c.i0);
+    if (order === 2 && history >= 4) {
+      for (let s = 0; s < nState; s++) { const l = d3Level[s]; d3Level[s] = l === Infinity ? d3New[s] : Math.max(d3New[s], KINK_DECAY * l); }
+    } else d3Level.fill(Infinity); // after a breakpoint the level starts again from the first trapezoidal step
     record(t);
     const hPrev = h;
     if (hitBp) {

@@ -5,7 +5,7 @@
 import { Builder, Circuit, Element, MODE_TRAN, stampG } from "../circuit";
 import { isGround } from "../netlist";
 import type { Wave } from "../schema";
-import { waveBreakpoints, waveValue } from "../waves";
+import { waveBreakpoints, waveMaxStep, waveValue } from "../waves";
 
 /** Placeholder for a user node (ground → -1). */
 export function nodeOf(b: Builder, name: string): number {
@@ -143,12 +143,15 @@ function sourceValue(sweepValue: number | null, wave: Wave | null, dc: number, c
 export class VSource extends BranchElement {
   /** value that replaces `dc` during a DC sweep, or null */
   sweepValue: number | null = null;
+  /** largest step (s) the wave allows */
+  private readonly stepBound: number;
   /** AC excitation (real, imaginary); replaced for one excitation set of a multi-excitation AC run, then restored */
   acRe: number;
   acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "vsource", nodes);
     [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
+    this.stepBound = wave ? waveMaxStep(wave) : Infinity;
   }
   value(c: Circuit): number {
     return sourceValue(this.sweepValue, this.wave, this.dc, c);
@@ -158,16 +161,21 @@ export class VSource extends BranchElement {
   }
   override loadAc(_c: Circuit, br: Float64Array, bi: Float64Array): void { br[this.k] += this.acRe; bi[this.k] += this.acIm; }
   override breakpoints(tStop: number, out: number[]): void { if (this.wave) waveBreakpoints(this.wave, tStop, out); }
+  /** a periodic wave bounds the step to a fraction of its period (waves.ts) */
+  override maxStepAt(): number { return this.stepBound; }
 }
 
 export class ISource extends TwoTerminal {
   sweepValue: number | null = null;
+  /** largest step (s) the wave allows */
+  private readonly stepBound: number;
   /** AC excitation (real, imaginary); see VSource */
   acRe: number;
   acIm: number;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "isource", nodes);
     [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
+    this.stepBound = wave ? waveMaxStep(wave) : Infinity;
   }
   value(c: Circuit): number {
     return sourceValue(this.sweepValue, this.wave, this.dc, c);
@@ -186,6 +194,8 @@ export class ISource extends TwoTerminal {
     out[0] = this.acRe; out[1] = this.acIm;
   }
   override breakpoints(tStop: number, out: number[]): void { if (this.wave) waveBreakpoints(this.wave, tStop, out); }
+  /** a periodic wave bounds the step to a fraction of its period (waves.ts) */
+  override maxStepAt(): number { return this.stepBound; }
 }
 
 export class Vcvs extends BranchElement {
