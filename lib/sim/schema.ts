@@ -128,9 +128,10 @@ export const analysisSchema = z.discriminatedUnion("kind", [
   }),
   z.object({
     kind: z.literal("tran"), tStop: positive(),
-    /** s: first step and output-resolution hint; default tStop/1000 */
+    /** s: output resolution, and the largest step unless maxStep is given; default tStop/1000 */
     tStep: positive().nullable().default(null),
-    /** s: largest step; default tStop/50 */
+    /** s: largest step; null = the accuracy defaults (step ≤ tStep, truncation error per unit step relative to each
+     *  charge's full scale; see analysis/tran.ts). Giving it keeps the classic truncation-error tolerance. */
     maxStep: positive().nullable().default(null),
     start: z.enum(["op", "ic"]).default("op"),
   }),

@@ -53,6 +53,36 @@ describe("transient accuracy by default against RK4 references integrated in the
     expect(w.err, `worst at t = ${w.at}`).toBeLessThan(TOL);
   });
 
+  it("a device charge alone sets the step: reverse-biased diode (depletion charge only, no capacitor) behind 10 kΩ, 1 MHz sine", () => {
+    const Is = 1e-14, n = 1, Cj0 = 10e-12, Vj = 0.7, m = 0.5, R = 10e3, off = -2, A = 1.5, f = 1e6;
+    const tStop = 10e-6;
+    const r = runTran({
+      temperature: T300C,
+      elements: [
+        { kind: "vsource", name: "V1", nodes: ["in", "gnd"], dc: off, wave: { shape: "sine", offset: off, amplitude: A, freq: f } },
+        { kind: "resistor", name: "R1", nodes: ["in", "k"], value: R },
+        { kind: "diode", name: "D1", nodes: ["k", "gnd"], model: { Is, n, Cj0, Vj, m } },
+      ],
+      analysis: { kind: "tran", tStop, tStep: tStop / 500 },
+      options: { gmin: 0 },
+    });
+    // Reference: the junction stays below Fc·Vj (reverse biased), so its charge is the depletion charge with
+    // C(v) = Cj0/(1 − v/Vj)^m (REFERENCES §1.4) and (vin − v)/R = Is·(e^{v/(n·Vt)} − 1) + C(v)·dv/dt;
+    // v(0) is the DC point with vin = −2 V (bisection on the monotonic KCL), RK4 with 1 ns steps.
+    const nvt = n * VT300;
+    const kcl = (vin: number, v: number) => (vin - v) / R - Is * (Math.exp(v / nvt) - 1);
+    const rhs: Rhs = (t, y, dy) => {
+      const vin = off + A * Math.sin(2 * Math.PI * f * t);
+      dy[0] = kcl(vin, y[0]) / (Cj0 / Math.pow(1 - y[0] / Vj, m));
+    };
+    let lo = -5, hi = 0;
+    for (let k = 0; k < 200; k++) { const mid = 0.5 * (lo + hi); if (kcl(off, mid) > 0) lo = mid; else hi = mid; }
+    const ref = rk4(rhs, [0.5 * (lo + hi)], tStop, 10_000);
+    const w = worstError(r.time, r.nodes.k, (t) => stateAt(ref, rhs, t, 0));
+    expect(w.fullScale).toBeGreaterThan(1); // the RC corner (≈ 1/(2π·10 kΩ·5 pF) ≈ 3 MHz) passes most of the 3 V swing
+    expect(w.err, `worst at t = ${w.at}`).toBeLessThan(TOL);
+  });
+
   it("clamp-diode coil turn-off: 12 V, 24 Ω + 10 mH coil (1 kΩ across it), switch opens at 1 ms, current freewheels through the diode", () => {
     const Vs = 12, Rc = 24, L = 10e-3, Rp = 1e3, Is = 1e-14, n = 1, ron = 0.01, roff = 1e9, tr = 1e-6, tOff = 1e-3;
     const tStop = 3e-3;
