@@ -9,6 +9,7 @@
  */
 import type { SimTolerances } from "./schema";
 import { StaticLU } from "./sparse";
+import { checkpoint } from "./checkpoint";
 
 export const MODE_DC = 0;
 export const MODE_TRAN = 1;
@@ -168,6 +169,7 @@ export class Circuit {
     this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
     for (const el of elements) el.bind(this);
     this.lu = new StaticLU(this.n, this.stride, this.structure);
+    this.lu.poll = () => checkpoint(this);
     this.staticMat = new Float64Array(this.stride * this.stride);
     for (const el of elements) el.loadStatic(this.staticMat);
     this.dynamicElements = elements.filter((e) => e.dynamic);

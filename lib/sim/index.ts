@@ -116,5 +116,9 @@ export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
 
 /** Validate and run the netlist's analysis. Throws SimError (see errors.ts for the codes). */
 export function simulate(netlist: Netlist | ParsedNetlist, options: SimOptions = {}): SimResult {
-  return compile(netlist).run(options);
+  // the budget covers validation and compilation too (a large netlist's dense matrices take a while to build)
+  const start = performance.now();
+  const compiled = compile(netlist);
+  const budget = options.timeBudgetMs ?? DEFAULT_TIME_BUDGET_MS;
+  return compiled.run({ ...options, timeBudgetMs: budget - (performance.now() - start) });
 }

@@ -128,7 +128,8 @@ export const analysisSchema = z.discriminatedUnion("kind", [
   }),
   z.object({
     kind: z.literal("tran"), tStop: positive(),
-    /** s: output resolution, and the largest step unless maxStep is given; default tStop/1000 */
+    /** s: output resolution; when given (and maxStep is not), also the largest step. Default: none (tStop/50 bounds
+     *  the step, and the first steps start from tStop/1000) */
     tStep: positive().nullable().default(null),
     /** s: largest step; null = the accuracy defaults (step ≤ tStep, truncation error per unit step relative to each
      *  charge's full scale; see analysis/tran.ts). Giving it keeps the classic truncation-error tolerance. */

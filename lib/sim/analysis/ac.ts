@@ -12,7 +12,8 @@ import { SimError } from "../errors";
 import { LU_REORDER, StaticLU } from "../sparse";
 import type { AcResult, ComplexColumn } from "../results";
 import { runOp } from "./dc";
-import { checkBudget, loadAll } from "./newton";
+import { checkpoint } from "../checkpoint";
+import { loadAll } from "./newton";
 
 export function logFrequencies(fStart: number, fStop: number, perDecade: number): Float64Array {
   const decades = Math.log10(fStop / fStart);
@@ -109,7 +110,9 @@ function acCore(
   const xr = new Float64Array(c.stride), xi = new Float64Array(c.stride);
   const n = c.n;
   const lu = new StaticLU(n, c.stride, c.structure);
+  lu.poll = c.lu.poll;
   for (let k = 0; k < count; k++) {
+    checkpoint(c);
     const w = 2 * Math.PI * freq[k];
     if (lu.analysed) {
       // only the structural non-zeros and fill-in take part in the factorisation
@@ -136,11 +139,7 @@ function acCore(
         cr[e][k] = out[0]; ci[e][k] = out[1];
       }
     }
-    if ((k & 31) === 31) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-      onProgress?.(k / count);
-    }
+    if ((k & 31) === 31) onProgress?.(k / count);
   }
   return results;
 }

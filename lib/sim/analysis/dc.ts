@@ -2,6 +2,7 @@
 import type { Circuit, DeviceInfo } from "../circuit";
 import { ISource, VSource } from "../elements/linear";
 import type { DcSweepResult, OpResult } from "../results";
+import { checkpoint } from "../checkpoint";
 import { solveDc } from "./newton";
 
 export function opResult(c: Circuit): OpResult {
@@ -37,6 +38,7 @@ export function runDcSweep(c: Circuit, source: string, from: number, to: number,
   c.time = 0;
   try {
     for (let p = 0; p < points; p++) {
+      checkpoint(c);
       const v = points === 1 ? from : from + ((to - from) * p) / (points - 1);
       sweep[p] = v;
       src.sweepValue = v;

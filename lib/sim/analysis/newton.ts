@@ -7,6 +7,7 @@
 import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
 import { LU_REORDER } from "../sparse";
+import { checkpoint } from "../checkpoint";
 
 /** V: largest node-voltage change per iteration in the damped-Newton stage of the DC solve */
 const DAMPED_STEP = 2;
@@ -17,12 +18,6 @@ const PLAIN_ITER = 25;
 let worstUnknown = -1;
 /** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
 let singularAt = "";
-
-export function checkBudget(c: Circuit): void {
-  if (performance.now() > c.deadline) {
-    throw new SimError("budget", `Time budget exhausted after ${c.newtonIterations} Newton iterations`);
-  }
-}
 
 /** One matrix load at c.x into c.mat / c.rhs: the constant stamps are copied in, then the dynamic ones added. */
 export function loadAll(c: Circuit): void {
@@ -129,10 +124,8 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
     if (worstRatio === Infinity) { worstUnknown = worst; c.x.fill(0); return false; }
     if (ok && c.noncon === 0 && iter > 0) return true;
     worstUnknown = worst;
-    if ((iter & 7) === 7) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-    }
+    // every 8th iteration of the whole run (continuation makes many short Newton runs)
+    if ((c.newtonIterations & 7) === 0) checkpoint(c);
   }
   return false;
 }

@@ -8,7 +8,8 @@ import { type Circuit, MODE_DC, MODE_TRAN } from "../circuit";
 import { Capacitor } from "../elements/linear";
 import { SimError } from "../errors";
 import type { TranResult } from "../results";
-import { checkBudget, newton, solveDc, worstName } from "./newton";
+import { checkpoint } from "../checkpoint";
+import { newton, solveDc, worstName } from "./newton";
 
 /**
  * Truncation-error control with the accuracy defaults (no maxStep given): error per unit step, relative to the
@@ -46,13 +47,13 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
   const { tStop } = a;
   const tStep = a.tStep ?? tStop / 1000;
   // Accuracy defaults, unless the caller sets maxStep (and with it the step budget, as the design layer does):
-  // - the output step bounds the internal step (the classic TMAX default, min(tStep, tStop/50)): the truncation-error
-  //   control alone lets the step grow over the peaks of a drive that no charge sees (a sine through a diode into a
-  //   resistor), and its tolerance is relative, so coarse steps add up to visible errors;
+  // - the output step, when given, bounds the internal step (the classic TMAX default, min(tStep, tStop/50)): the
+  //   truncation-error control alone lets the step grow over what no charge sees (a sine through a diode into a
+  //   resistor);
   // - the truncation-error tolerance is per unit step and relative to each charge's full scale (ACCURACY_TRTOL).
   // Periodic sources bound the step in both cases (their maxStepAt).
   const accuracyDefaults = a.maxStep === null;
-  const maxStep = Math.min(a.maxStep ?? Math.min(tStep, tStop / 50), tStop);
+  const maxStep = Math.min(a.maxStep ?? Math.min(a.tStep ?? Infinity, tStop / 50), tStop);
   const hmin = tStop * 1e-13;
   const { reltol, abstol, trtol } = c.tol;
   const chgtol = 1e-14;
@@ -120,11 +121,8 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
     if (accepted + rejected >= c.tol.maxSteps) {
       throw new SimError("budget", `Transient step budget (${c.tol.maxSteps} steps) exhausted at t = ${t.toPrecision(6)} s`);
     }
-    if (((accepted + rejected) & 31) === 0) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-      onProgress?.(t / tStop);
-    }
+    checkpoint(c);
+    if (((accepted + rejected) & 31) === 0) onProgress?.(t / tStop);
     const nextBp = bps[bpIdx];
     let hmax = maxStep;
     for (let e = 0; e < els.length; e++) { const m = els[e].maxStepAt(t); if (m < hmax) hmax = m; }

@@ -149,9 +149,9 @@ describe("step-control contract (README, engine: tran)", () => {
     expect(steps(r.time).largest).toBeLessThanOrEqual(1e-5 * (1 + 1e-9));
     expect(r.time[r.time.length - 1]).toBe(1e-3);
   });
-  it("with only tStop, the default tStep (tStop/1000) bounds every step", () => {
+  it("with only tStop, tStop/50 bounds every step", () => {
     const r = runTran({ elements: rc, analysis: { kind: "tran", tStop: 1e-3 } });
-    expect(steps(r.time).largest).toBeLessThanOrEqual(1e-6 * (1 + 1e-9));
+    expect(steps(r.time).largest).toBeLessThanOrEqual((1e-3 / 50) * (1 + 1e-9));
   });
   it("a given maxStep replaces the tStep bound (the caller sets the step budget)", () => {
     const r = runTran({ elements: rc, analysis: { kind: "tran", tStop: 1e-3, tStep: 1e-6, maxStep: 5e-5 } });

@@ -1,0 +1,16 @@
+/**
+ * Budget and cancellation, one way for every loop: the Newton iterations, the transient's steps, the AC frequencies,
+ * the DC sweep's points and the LU's ordering (through StaticLU.poll). Each loop calls checkpoint(c) once per turn
+ * (the Newton loop every few iterations, its turns being the cheapest), so a run stops within one turn of its
+ * deadline or of the caller's shouldStop returning true.
+ */
+import type { Circuit } from "./circuit";
+import { SimError } from "./errors";
+
+/** Throws SimError "cancelled" when the caller's shouldStop returns true, "budget" once the deadline has passed. */
+export function checkpoint(c: Circuit): void {
+  if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
+  if (performance.now() > c.deadline) {
+    throw new SimError("budget", `Time budget exhausted after ${c.newtonIterations} Newton iterations`);
+  }
+}
