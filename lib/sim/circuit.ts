@@ -137,6 +137,10 @@ export class Circuit {
 
   /** a singular matrix at the next Newton iteration is reported as the circuit's fault (first iteration only) */
   strictSingular = true;
+  /** set when the last Newton run failed: index of the unknown with the largest normalised update, or -1 */
+  worstUnknown = -1;
+  /** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
+  singularAt = "";
   /** which DC method produced the last operating point */
   dcMethod: "newton" | "damped" | "gmin" | "source" = "newton";
   /** work counters */

@@ -10,8 +10,8 @@
  *
  * Module map: schema.ts (zod netlist contract) · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
  * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
- * device models) · lu.ts (dense LU with partial pivoting, kept as the benchmark's comparison) · sparse.ts (LU with a
- * reused order and fill pattern, the hot path) ·
+ * device models) · lu.ts (dense LU with partial pivoting, the benchmark's comparison; production code does not import
+ * it) · sparse.ts (LU with a reused order and fill pattern, the hot path) · checkpoint.ts (budget and cancellation) ·
  * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts) · waves.ts · results.ts · cli.ts (Node only).
  */
 import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";

@@ -10,7 +10,9 @@
  * Storage is the circuit's row-major (n+1)×(n+1) array: rows are never moved; `rowOf[k]` says which stored row is
  * the k-th pivot row.
  */
-import { SINGULAR_PIVOT } from "./lu";
+
+/** |pivot| at or below this is treated as exactly singular (shared with the dense LU kept for the benchmark). */
+export const SINGULAR_PIVOT = 1e-300;
 
 /** Largest multiplier accepted before asking for a new pivot order (the order was chosen with multipliers ≤ 10;
  *  a reused one may drift to 1e3 before it is replaced — a chain of large multipliers compounds). */

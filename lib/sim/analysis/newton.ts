@@ -14,11 +14,6 @@ const DAMPED_STEP = 2;
 /** iterations of plain Newton before the damped stage */
 const PLAIN_ITER = 25;
 
-/** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
-let worstUnknown = -1;
-/** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
-let singularAt = "";
-
 /** One matrix load at c.x into c.mat / c.rhs: the constant stamps are copied in, then the dynamic ones added. */
 export function loadAll(c: Circuit): void {
   const m = c.mat;
@@ -92,8 +87,8 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
       // such); one that turns singular later (a device driven into a corner where its slopes vanish) is a failed
       // Newton run, for the caller's next strategy or a smaller time step.
       if (!(e instanceof SimError) || e.code !== "singular" || (iter === 0 && c.strictSingular)) throw e;
-      worstUnknown = -1;
-      singularAt = e.message;
+      c.worstUnknown = -1;
+      c.singularAt = e.message;
       return false;
     }
     c.strictSingular = false;
@@ -121,9 +116,9 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
     }
     c.xNew = xo;
     c.x = xn;
-    if (worstRatio === Infinity) { worstUnknown = worst; c.x.fill(0); return false; }
+    if (worstRatio === Infinity) { c.worstUnknown = worst; c.x.fill(0); return false; }
     if (ok && c.noncon === 0 && iter > 0) return true;
-    worstUnknown = worst;
+    c.worstUnknown = worst;
     // every 8th iteration of the whole run (continuation makes many short Newton runs)
     if ((c.newtonIterations & 7) === 0) checkpoint(c);
   }
@@ -132,8 +127,8 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
 
 /** Name of the unknown that moved most in the last failed Newton run. */
 export function worstName(c: Circuit): string {
-  if (worstUnknown >= 0) return c.unknownNames[worstUnknown] ?? "?";
-  return singularAt ? `a singular matrix (${singularAt.replace(/ \(check.*$/, "")})` : "(none)";
+  if (c.worstUnknown >= 0) return c.unknownNames[c.worstUnknown] ?? "?";
+  return c.singularAt ? `a singular matrix (${c.singularAt.replace(/ \(check.*$/, "")})` : "(none)";
 }
 
 /**
@@ -143,7 +138,7 @@ export function worstName(c: Circuit): string {
 export function solveDc(c: Circuit, what: string): void {
   c.mode = MODE_DC;
   c.strictSingular = true;
-  singularAt = "";
+  c.singularAt = "";
   const maxIter = c.tol.maxNewton;
   const guess = c.x.slice();
   c.dcMethod = "newton";
