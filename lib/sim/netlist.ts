@@ -7,7 +7,7 @@ import type { core } from "zod";
 import { SimError } from "./errors";
 import { ELEMENT_KINDS, netlistSchema, type ParsedElement, type ParsedNetlist } from "./schema";
 
-/** True for the ground node's names ("0", "gnd" in any case). */
+/** True for the ground node's names ("gnd" in any case, and "0"). */
 export function isGround(node: string): boolean {
   return node === "0" || node.toLowerCase() === "gnd";
 }
@@ -108,7 +108,7 @@ function checkTopology(n: ParsedNetlist): void {
         }
       }
     }
-    if ((el.kind === "vsource" || el.kind === "isource") && el.wave?.shape === "pwl") {
+    if ((el.kind === "vsource" || el.kind === "isource") && el.wave?.shape === "piecewise") {
       const p = el.wave.points;
       for (let i = 1; i < p.length; i++) {
         if (p[i][0] < p[i - 1][0]) {
@@ -118,7 +118,7 @@ function checkTopology(n: ParsedNetlist): void {
     }
   }
   if (!hasGround) {
-    throw new SimError("invalid", `Invalid netlist: no element connects to ground (node "0" or "gnd")`);
+    throw new SimError("invalid", `Invalid netlist: no element connects to ground (node "gnd" or "0")`);
   }
   const a = n.analysis;
   if (a.kind === "dcsweep") {

@@ -31,12 +31,13 @@ export const sineWaveSchema = z.object({
   freq: positive(),
   delay: nonNegative().default(0),
 });
-export const pwlWaveSchema = z.object({
-  shape: z.literal("pwl"),
+/** Piecewise-linear wave. "pwl", the shape's earlier name, is still read and becomes "piecewise" when parsed. */
+export const piecewiseWaveSchema = z.object({
+  shape: z.literal(["piecewise", "pwl"]),
   /** [time s, value] pairs, times non-decreasing; the value holds after the last point */
   points: z.array(z.tuple([nonNegative(), finite()])).min(1, { error: "needs at least one [t, value] point" }),
-});
-export const waveSchema = z.discriminatedUnion("shape", [pulseWaveSchema, sineWaveSchema, pwlWaveSchema]);
+}).transform((w) => ({ ...w, shape: "piecewise" as const }));
+export const waveSchema = z.discriminatedUnion("shape", [pulseWaveSchema, sineWaveSchema, piecewiseWaveSchema]);
 
 const two = z.tuple([node, node]);
 

@@ -42,7 +42,7 @@ export function waveValue(w: Wave, t: number): number {
     case "sine":
       if (t <= w.delay) return w.offset;
       return w.offset + w.amplitude * Math.sin(2 * Math.PI * w.freq * (t - w.delay));
-    case "pwl": {
+    case "piecewise": {
       const p = w.points;
       if (t <= p[0][0]) return p[0][1];
       for (let i = 1; i < p.length; i++) {
@@ -75,7 +75,7 @@ export function waveBreakpoints(w: Wave, tStop: number, out: number[]): void {
     case "sine":
       if (w.delay > 0 && w.delay <= tStop) out.push(w.delay);
       return;
-    case "pwl":
+    case "piecewise":
       for (const [t] of w.points) if (t > 0 && t <= tStop) out.push(t);
       return;
   }

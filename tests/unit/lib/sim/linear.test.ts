@@ -115,7 +115,7 @@ describe("transient: source corners are hit exactly", () => {
     const pts: [number, number][] = [[0, 0], [1e-4, 0], [1.5e-4, 2], [4e-4, 2], [4.001e-4, -1], [7e-4, 0.25]];
     const r = runTran({
       elements: [
-        { kind: "vsource", name: "V1", nodes: ["in", "0"], wave: { shape: "pwl", points: pts } },
+        { kind: "vsource", name: "V1", nodes: ["in", "0"], wave: { shape: "piecewise", points: pts } },
         { kind: "resistor", name: "R1", nodes: ["in", "out"], value: 1000 },
         { kind: "capacitor", name: "C1", nodes: ["out", "0"], value: 1e-8 },
       ],

@@ -92,7 +92,7 @@ describe("transient accuracy by default against closed forms (0.2 % of full scal
     const tStop = 1e-3;
     const r = runTran({
       elements: [
-        { kind: "vsource", name: "V1", nodes: ["in", "gnd"], wave: { shape: "pwl", points: pts } },
+        { kind: "vsource", name: "V1", nodes: ["in", "gnd"], wave: { shape: "piecewise", points: pts } },
         { kind: "resistor", name: "R1", nodes: ["in", "out"], value: R },
         { kind: "capacitor", name: "C1", nodes: ["out", "gnd"], value: C },
       ],
