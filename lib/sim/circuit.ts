@@ -10,6 +10,7 @@
 import type { SimTolerances } from "./schema";
 import { StaticLU } from "./sparse";
 import { checkpoint } from "./checkpoint";
+import { SimError } from "./errors";
 
 export const MODE_DC = 0;
 export const MODE_TRAN = 1;
@@ -80,6 +81,16 @@ export abstract class Element {
   initState(_c: Circuit, _fromIc: boolean): void {}
   /** Largest step (s) allowed at time t (e.g. inside a switch transition); Infinity for none. */
   maxStepAt(_t: number): number { return Infinity; }
+  /** Start from initial conditions: write the unknowns the element's initial condition fixes into c.x (before
+   *  initState; e.g. a grounded capacitor's node voltage). */
+  applyInitialCondition(_c: Circuit): void {}
+  /** Independent sources: their AC excitation [re, im], which loadAc stamps; a multi-excitation AC run replaces it
+   *  for one set and restores it afterwards. null for every other element. */
+  readonly acExcitation: Float64Array | null = null;
+  /** DC sweep: hold the element's value at v instead of its dc (null: back to dc). Only independent sources sweep. */
+  setSweepValue(_v: number | null): void {
+    throw new SimError("invalid", `${this.kind} "${this.name}" cannot be swept (only a vsource or isource)`);
+  }
 }
 
 export class Circuit {

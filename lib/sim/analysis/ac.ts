@@ -7,7 +7,6 @@
  * per frequency: only b depends on the sources' AC values, (G + jωC) does not (runAcMulti).
  */
 import { type Circuit, MODE_DC } from "../circuit";
-import { ISource, VSource } from "../elements/linear";
 import { SimError } from "../errors";
 import { LU_REORDER, StaticLU } from "../sparse";
 import type { AcResult, ComplexColumn } from "../results";
@@ -39,8 +38,9 @@ export function runAcMulti(
   c: Circuit, fStart: number, fStop: number, perDecade: number, excitations: readonly AcExcitation[],
   onProgress?: (f: number) => void, skipOp = false,
 ): AcResult[] {
-  const sources = c.elements.filter((e): e is VSource | ISource => e instanceof VSource || e instanceof ISource);
-  const base = sources.map((e) => [e.acRe, e.acIm] as const);
+  const sources = c.elements.filter((e) => e.acExcitation !== null);
+  const phasors = sources.map((e) => e.acExcitation as Float64Array);
+  const base = phasors.map((p) => [p[0], p[1]] as const);
   const byName = new Map(sources.map((e, i) => [e.name, i]));
   const m = excitations.length;
   // per set: every source's [re, im]
@@ -61,12 +61,12 @@ export function runAcMulti(
   }
   const apply = (j: number) => {
     const re = setRe[j], im = setIm[j];
-    for (let i = 0; i < sources.length; i++) { sources[i].acRe = re[i]; sources[i].acIm = im[i]; }
+    for (let i = 0; i < phasors.length; i++) { phasors[i][0] = re[i]; phasors[i][1] = im[i]; }
   };
   try {
     return acCore(c, fStart, fStop, perDecade, m, apply, onProgress, skipOp);
   } finally {
-    for (let i = 0; i < sources.length; i++) { sources[i].acRe = base[i][0]; sources[i].acIm = base[i][1]; }
+    for (let i = 0; i < phasors.length; i++) { phasors[i][0] = base[i][0]; phasors[i][1] = base[i][1]; }
   }
 }
 

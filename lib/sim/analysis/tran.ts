@@ -5,7 +5,6 @@
  * step after each breakpoint (a slope discontinuity would otherwise excite trapezoidal ringing).
  */
 import { type Circuit, MODE_DC, MODE_TRAN } from "../circuit";
-import { Capacitor } from "../elements/linear";
 import { SimError } from "../errors";
 import type { TranResult } from "../results";
 import { checkpoint } from "../checkpoint";
@@ -67,10 +66,7 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
     solveDc(c, "the transient's initial operating point");
   } else {
     c.strictSingular = true; // a singular matrix at the first step is the circuit's fault
-    for (const el of els) if (el instanceof Capacitor) {
-      const [i, v] = el.icNode(c);
-      if (i >= 0) c.x[i] = v;
-    }
+    for (const el of els) el.applyInitialCondition(c);
   }
   for (const el of els) el.initState(c, a.start === "ic");
   c.q2.set(c.q1); c.q3.set(c.q1);
