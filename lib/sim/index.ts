@@ -8,7 +8,8 @@
  * repeatedly (each run restarts from a zero guess; device limiting state is reused as a warm start). Build a new one
  * when element values change — compiling is cheap next to solving.
  *
- * Module map: schema.ts (zod netlist contract) · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
+ * Module map: schema.ts (zod netlist contract) · registry.ts (every element kind: schema, factory, topology rules;
+ * each defined beside its element via kind.ts) · fields.ts (shared schema fields, waves) · ground.ts · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
  * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
  * device models) · lu.ts (dense LU with partial pivoting, the benchmark's comparison; production code does not import
  * it) · sparse.ts (LU with a reused order and fill pattern, the hot path) · checkpoint.ts (budget and cancellation) ·
@@ -22,6 +23,7 @@ import { runDcSweep, runOp } from "./analysis/dc";
 import { runAc, runAcMulti, type AcExcitation } from "./analysis/ac";
 import { runTran } from "./analysis/tran";
 import { SimError } from "./errors";
+import { rulesOf } from "./registry";
 import type { SimResult } from "./results";
 
 export { netlistSchema, elementSchema, analysisSchema, waveSchema, ELEMENT_KINDS } from "./schema";
@@ -90,7 +92,7 @@ export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
     const r = analysisSchema.safeParse(analysis);
     if (!r.success) throw new SimError("invalid", `Invalid analysis: ${r.error.issues.map((i) => `field "${i.path.join(".")}" ${i.message}`).join("; ")}`);
     const a = r.data;
-    if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === a.source && (e.kind === "vsource" || e.kind === "isource"))) {
+    if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === a.source && rulesOf(e).sweepable)) {
       throw new SimError("invalid", `Invalid analysis: field "source" names "${a.source}", which is not a vsource or isource`);
     }
     return a;

@@ -1,5 +1,5 @@
 /** Time-dependent source values and their corners (transient breakpoints). */
-import type { Wave } from "./schema";
+import type { Wave } from "./fields";
 
 const MIN_EDGE = 1e-12;
 

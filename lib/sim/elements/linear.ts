@@ -3,8 +3,8 @@
  * Stamps: REFERENCES §2.1 (Ho et al. 1975; Vlach & Singhal 1994). Companion models: REFERENCES §2.2.
  */
 import { Builder, Circuit, Element, MODE_TRAN, stampG } from "../circuit";
-import { isGround } from "../netlist";
-import type { Wave } from "../schema";
+import type { Wave } from "../fields";
+import { isGround } from "../ground";
 import { waveBreakpoints, waveMaxStep, waveValue } from "../waves";
 
 /** Placeholder for a user node (ground → -1). */
