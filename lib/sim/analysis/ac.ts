@@ -112,7 +112,8 @@ function acCore(
   const lu = new StaticLU(n, c.stride, c.structure);
   lu.poll = c.lu.poll;
   for (let k = 0; k < count; k++) {
-    checkpoint(c);
+    // every 8th frequency (a small circuit's frequency costs a few µs; a large one's factorisation polls on its own)
+    if ((k & 7) === 0) checkpoint(c);
     const w = 2 * Math.PI * freq[k];
     if (lu.analysed) {
       // only the structural non-zeros and fill-in take part in the factorisation
