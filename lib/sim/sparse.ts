@@ -20,7 +20,8 @@ const GROWTH = 1e3;
 /** A pivot candidate must be at least this fraction of its column's largest entry. */
 const PIVOT_THRESHOLD = 0.1;
 
-/** columns between two polls of a long ordering or factorisation (a power of two minus one is the mask) */
+/** columns between two polls of a long ordering or factorisation (a power of two minus one is the mask); a matrix
+ *  smaller than that is never polled inside (its whole factorisation takes microseconds) */
 const POLL_MASK = 63;
 
 export const LU_OK = -1;
@@ -177,9 +178,10 @@ export class StaticLU {
 
   /** Numeric factorisation in place with the stored order. Returns LU_OK, LU_REORDER, or a singular column. */
   factor(a: Float64Array): number {
-    const { n, base, lStart, lRows, uStart, uCols, poll } = this;
+    const { n, base, lStart, lRows, uStart, uCols } = this;
+    const poll = n > POLL_MASK ? this.poll : null;
     for (let k = 0; k < n; k++) {
-      if ((k & POLL_MASK) === POLL_MASK && poll !== null) poll();
+      if (poll !== null && (k & POLL_MASK) === POLL_MASK) poll();
       const bk = base[k];
       const d = a[bk + k];
       if (!(Math.abs(d) > SINGULAR_PIVOT)) return LU_REORDER;
@@ -218,9 +220,10 @@ export class StaticLU {
 
   /** Complex numeric factorisation (split storage) with the stored order. */
   factorComplex(re: Float64Array, im: Float64Array): number {
-    const { n, base, lStart, lRows, uStart, uCols, poll } = this;
+    const { n, base, lStart, lRows, uStart, uCols } = this;
+    const poll = n > POLL_MASK ? this.poll : null;
     for (let k = 0; k < n; k++) {
-      if ((k & POLL_MASK) === POLL_MASK && poll !== null) poll();
+      if (poll !== null && (k & POLL_MASK) === POLL_MASK) poll();
       const bk = base[k];
       const dr = re[bk + k], di = im[bk + k];
       const den = dr * dr + di * di;

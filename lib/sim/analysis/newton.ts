@@ -119,8 +119,9 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
     if (worstRatio === Infinity) { c.worstUnknown = worst; c.x.fill(0); return false; }
     if (ok && c.noncon === 0 && iter > 0) return true;
     c.worstUnknown = worst;
-    // every 8th iteration of the whole run (continuation makes many short Newton runs)
-    if ((c.newtonIterations & 7) === 0) checkpoint(c);
+    // every 32nd iteration of the whole analysis (continuation makes many short Newton runs; a transient's step loop
+    // polls on its own)
+    if ((c.newtonIterations & 31) === 0) checkpoint(c);
   }
   return false;
 }

@@ -191,7 +191,7 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
     history++;
     tm2 = tm1; tm1 = t; t = tn;
     c.q3.set(c.q2); c.q2.set(c.q1); c.q1.set(c.q0); c.i1.set(c.i0);
-    for (let s = 0; s < nState; s++) { const i = Math.abs(c.i0[s]); if (i > iPeak[s]) iPeak[s] = i; }
+    if (accuracyDefaults) for (let s = 0; s < nState; s++) { const i = Math.abs(c.i0[s]); if (i > iPeak[s]) iPeak[s] = i; }
     record(t);
     const hPrev = h;
     if (hitBp) {

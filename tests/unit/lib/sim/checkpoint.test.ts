@@ -65,9 +65,9 @@ describe("checkpoint: shouldStop stops every analysis loop part way (SimError \"
     expect(Math.max(...progress)).toBeLessThan(0.2); // stopped in the first fifth of the run
   });
 
-  it("Newton: polled every 8 iterations of the run, also across continuation's many short Newton runs", () => {
+  it("Newton: polled every 32 iterations of the analysis, also across continuation's many short Newton runs", () => {
     // three diodes from 100 V through 10 Ω with Newton capped at 4 iterations per solve: only the continuation
-    // stages (damped Newton, gmin and source stepping) reach the answer, after well over 8 iterations in all
+    // stages (damped Newton, gmin and source stepping) reach the answer, after well over 64 iterations in all
     const stop = stopAfter(2);
     const code = codeOf(() => simulate(
       {
