@@ -128,8 +128,8 @@ function res(b: Builder, name: string, n1: string, n2: string, value: number): v
   add(b, { kind: "resistor", name, nodes: [n1, n2], value });
 }
 
-function pwlStep(low: number, high: number, t0: number, edge: number): Wave {
-  return { shape: "pwl", points: [[0, low], [t0, low], [t0 + edge, high]] };
+function pieceStep(low: number, high: number, t0: number, edge: number): Wave {
+  return { shape: "piecewise", points: [[0, low], [t0, low], [t0 + edge, high]] };
 }
 
 /** Command source (with its output resistance) driving node "cmd" relative to `ref`. */
@@ -143,10 +143,10 @@ function commandSource(b: Builder, plus: string, minus: string): void {
   if (purpose === "step") {
     if (st.kind === "command-step") {
       dc = st.commandLow;
-      wave = pwlStep(st.commandLow, st.commandHigh, st.stepTime, st.edgeTime);
+      wave = pieceStep(st.commandLow, st.commandHigh, st.stepTime, st.edgeTime);
     } else if (st.kind === "command-ramp") {
       dc = st.commandLow;
-      wave = pwlStep(st.commandLow, st.commandHigh, st.stepTime, st.rampTime);
+      wave = pieceStep(st.commandLow, st.commandHigh, st.stepTime, st.rampTime);
     }
   }
   if (purpose === "closedloop") ac = 1;
@@ -164,9 +164,9 @@ function supplySource(b: Builder, name: string, node: string, value: number, ste
   const src: NetlistElementJson = { kind: "vsource", name, nodes: [node, NAMES.ground], dc: value };
   if (purpose === "step" && st.kind === "power-up") {
     src.dc = 0;
-    src.wave = pwlStep(0, value, st.stepTime, Math.max(st.edgeTime, st.rampTime));
+    src.wave = pieceStep(0, value, st.stepTime, Math.max(st.edgeTime, st.rampTime));
   } else if (purpose === "step" && steps && st.kind === "supply-step") {
-    src.wave = pwlStep(value, value + st.supplyStep, st.stepTime, st.edgeTime);
+    src.wave = pieceStep(value, value + st.supplyStep, st.stepTime, st.edgeTime);
   }
   add(b, src);
 }
@@ -226,7 +226,9 @@ function driveResistor(b: Builder): void {
   res(b, NAMES.driveResistor, from, "b", b.s.parts.baseResistor);
 }
 
-function bjtModel(s: Scenario, scale = 1): Record<string, number | null> {
+type ModelOf<K extends NetlistElementJson["kind"]> = NonNullable<Extract<NetlistElementJson, { kind: K }> extends { model?: infer M } ? M : never>;
+
+function bjtModel(s: Scenario, scale = 1): ModelOf<"bjt"> {
   const p = s.pass;
   return {
     Is: p.Is * scale, betaF: p.betaF, betaR: p.betaR, VA: p.VA,
@@ -234,7 +236,7 @@ function bjtModel(s: Scenario, scale = 1): Record<string, number | null> {
   };
 }
 
-function mosModel(s: Scenario): Record<string, number | null> {
+function mosModel(s: Scenario): ModelOf<"mosfet"> {
   const p = s.pass;
   return { Vth: p.Vth, K: p.K, lambda: p.lambda, Cgs: p.Cgs, Cgd: p.Cgd };
 }

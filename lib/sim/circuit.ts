@@ -9,6 +9,8 @@
  */
 import type { SimTolerances } from "./schema";
 import { StaticLU } from "./sparse";
+import { checkpoint } from "./checkpoint";
+import { SimError } from "./errors";
 
 export const MODE_DC = 0;
 export const MODE_TRAN = 1;
@@ -79,6 +81,16 @@ export abstract class Element {
   initState(_c: Circuit, _fromIc: boolean): void {}
   /** Largest step (s) allowed at time t (e.g. inside a switch transition); Infinity for none. */
   maxStepAt(_t: number): number { return Infinity; }
+  /** Start from initial conditions: write the unknowns the element's initial condition fixes into c.x (before
+   *  initState; e.g. a grounded capacitor's node voltage). */
+  applyInitialCondition(_c: Circuit): void {}
+  /** Independent sources: their AC excitation [re, im], which loadAc stamps; a multi-excitation AC run replaces it
+   *  for one set and restores it afterwards. null for every other element. */
+  readonly acExcitation: Float64Array | null = null;
+  /** DC sweep: hold the element's value at v instead of its dc (null: back to dc). Only independent sources sweep. */
+  setSweepValue(_v: number | null): void {
+    throw new SimError("invalid", `${this.kind} "${this.name}" cannot be swept (only a vsource or isource)`);
+  }
 }
 
 export class Circuit {
@@ -136,6 +148,10 @@ export class Circuit {
 
   /** a singular matrix at the next Newton iteration is reported as the circuit's fault (first iteration only) */
   strictSingular = true;
+  /** set when the last Newton run failed: index of the unknown with the largest normalised update, or -1 */
+  worstUnknown = -1;
+  /** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
+  singularAt = "";
   /** which DC method produced the last operating point */
   dcMethod: "newton" | "damped" | "gmin" | "source" = "newton";
   /** work counters */
@@ -168,6 +184,7 @@ export class Circuit {
     this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
     for (const el of elements) el.bind(this);
     this.lu = new StaticLU(this.n, this.stride, this.structure);
+    this.lu.poll = () => checkpoint(this);
     this.staticMat = new Float64Array(this.stride * this.stride);
     for (const el of elements) el.loadStatic(this.staticMat);
     this.dynamicElements = elements.filter((e) => e.dynamic);

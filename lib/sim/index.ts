@@ -8,10 +8,11 @@
  * repeatedly (each run restarts from a zero guess; device limiting state is reused as a warm start). Build a new one
  * when element values change — compiling is cheap next to solving.
  *
- * Module map: schema.ts (zod netlist contract) · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
+ * Module map: schema.ts (zod netlist contract) · registry.ts (every element kind: schema, factory, topology rules;
+ * each defined beside its element via kind.ts) · fields.ts (shared schema fields, waves) · ground.ts · netlist.ts (validation, topology rules) · errors.ts (SimError) ·
  * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
- * device models) · lu.ts (dense LU with partial pivoting, kept as the benchmark's comparison) · sparse.ts (LU with a
- * reused order and fill pattern, the hot path) ·
+ * device models) · lu.ts (dense LU with partial pivoting, the benchmark's comparison; production code does not import
+ * it) · sparse.ts (LU with a reused order and fill pattern, the hot path) · checkpoint.ts (budget and cancellation) ·
  * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts) · waves.ts · results.ts · cli.ts (Node only).
  */
 import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";
@@ -23,6 +24,7 @@ import { runAc, runAcMulti, type AcExcitation } from "./analysis/ac";
 import { runTran } from "./analysis/tran";
 import { runLinearStep, type LinearStepResult } from "./analysis/linstep";
 import { SimError } from "./errors";
+import { rulesOf } from "./registry";
 import type { SimResult } from "./results";
 
 export { netlistSchema, elementSchema, analysisSchema, waveSchema, ELEMENT_KINDS } from "./schema";
@@ -98,7 +100,7 @@ export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
     const r = analysisSchema.safeParse(analysis);
     if (!r.success) throw new SimError("invalid", `Invalid analysis: ${r.error.issues.map((i) => `field "${i.path.join(".")}" ${i.message}`).join("; ")}`);
     const a = r.data;
-    if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === a.source && (e.kind === "vsource" || e.kind === "isource"))) {
+    if (a.kind === "dcsweep" && !parsed.elements.some((e) => e.name === a.source && rulesOf(e).sweepable)) {
       throw new SimError("invalid", `Invalid analysis: field "source" names "${a.source}", which is not a vsource or isource`);
     }
     return a;
@@ -128,5 +130,9 @@ export function compile(netlist: Netlist | ParsedNetlist): CompiledNetlist {
 
 /** Validate and run the netlist's analysis. Throws SimError (see errors.ts for the codes). */
 export function simulate(netlist: Netlist | ParsedNetlist, options: SimOptions = {}): SimResult {
-  return compile(netlist).run(options);
+  // the budget covers validation and compilation too (a large netlist's dense matrices take a while to build)
+  const start = performance.now();
+  const compiled = compile(netlist);
+  const budget = options.timeBudgetMs ?? DEFAULT_TIME_BUDGET_MS;
+  return compiled.run({ ...options, timeBudgetMs: budget - (performance.now() - start) });
 }

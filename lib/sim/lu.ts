@@ -5,8 +5,9 @@
  * that the factorisation never touches. Zero multipliers are skipped, which is where MNA's sparsity pays off.
  */
 
-/** |pivot| at or below this is treated as exactly singular. */
-export const SINGULAR_PIVOT = 1e-300;
+import { SINGULAR_PIVOT } from "./sparse";
+
+export { SINGULAR_PIVOT };
 
 /**
  * Factor the leading n×n block of `a` (row stride `stride`) in place into L (unit, below the diagonal) and U.

@@ -5,12 +5,11 @@
  */
 import type { core } from "zod";
 import { SimError } from "./errors";
-import { ELEMENT_KINDS, netlistSchema, type ParsedElement, type ParsedNetlist } from "./schema";
+import { ELEMENT_KINDS, netlistSchema, type ParsedNetlist } from "./schema";
+import { GROUND, isGround } from "./ground";
+import { rulesOf } from "./registry";
 
-/** True for the ground node's names ("0", "gnd" in any case). */
-export function isGround(node: string): boolean {
-  return node === "0" || node.toLowerCase() === "gnd";
-}
+export { isGround };
 
 function describeIssue(input: unknown, issue: core.$ZodIssue): string {
   const path = issue.path;
@@ -62,30 +61,7 @@ class Sets {
   }
 }
 
-const GND = "\u0000ground";
-const canon = (n: string) => (isGround(n) ? GND : n);
-
-/** Pairs of terminals an element joins with a DC path (used for the floating-node check). */
-function dcPaths(el: ParsedElement): [string, string][] {
-  switch (el.kind) {
-    case "resistor": case "inductor": case "vsource": case "switch": case "diode": case "vcvs":
-      return [[el.nodes[0], el.nodes[1]]];
-    case "bjt": return [[el.nodes[1], el.nodes[2]], [el.nodes[1], el.nodes[0]]];
-    case "mosfet": return [[el.nodes[0], el.nodes[2]]];
-    case "opamp": return [[el.nodes[2], GND]];
-    default: return [];
-  }
-}
-
-/** Branches that fix a voltage at DC (a loop of them makes the matrix singular). */
-function voltageBranches(el: ParsedElement): [string, string][] {
-  switch (el.kind) {
-    case "vsource": case "inductor": case "vcvs": return [[el.nodes[0], el.nodes[1]]];
-    case "opamp":
-      return el.model.Rout === 0 && el.model.Iout === null ? [[el.nodes[2], GND]] : [];
-    default: return [];
-  }
-}
+const canon = (n: string) => (isGround(n) ? GROUND : n);
 
 function checkTopology(n: ParsedNetlist): void {
   const names = new Set<string>();
@@ -94,36 +70,24 @@ function checkTopology(n: ParsedNetlist): void {
   for (const el of n.elements) {
     if (names.has(el.name)) throw new SimError("invalid", `Invalid netlist: element name "${el.name}" is used twice`);
     names.add(el.name);
-    const all = el.kind === "vcvs" || el.kind === "vccs" ? [...el.nodes, ...el.control] : [...el.nodes];
+    const rules = rulesOf(el);
+    const all = rules.terminals ? rules.terminals(el) : el.nodes;
     for (const nd of all) {
       if (isGround(nd)) { hasGround = true; continue; }
       const u = nodeUsers.get(nd) ?? [];
       u.push(el.name);
       nodeUsers.set(nd, u);
     }
-    if (el.kind === "switch") {
-      for (let i = 1; i < el.schedule.length; i++) {
-        if (el.schedule[i][0] < el.schedule[i - 1][0]) {
-          throw new SimError("invalid", `Invalid netlist: element "${el.name}" (switch): field "schedule" times must be non-decreasing (entry ${i})`);
-        }
-      }
-    }
-    if ((el.kind === "vsource" || el.kind === "isource") && el.wave?.shape === "pwl") {
-      const p = el.wave.points;
-      for (let i = 1; i < p.length; i++) {
-        if (p[i][0] < p[i - 1][0]) {
-          throw new SimError("invalid", `Invalid netlist: element "${el.name}" (${el.kind}): field "wave.points" times must be non-decreasing (point ${i})`);
-        }
-      }
-    }
+    const broken = rules.check?.(el) ?? null;
+    if (broken !== null) throw new SimError("invalid", `Invalid netlist: element "${el.name}" (${el.kind}): ${broken}`);
   }
   if (!hasGround) {
-    throw new SimError("invalid", `Invalid netlist: no element connects to ground (node "0" or "gnd")`);
+    throw new SimError("invalid", `Invalid netlist: no element connects to ground (node "gnd" or "0")`);
   }
   const a = n.analysis;
   if (a.kind === "dcsweep") {
     const src = n.elements.find((e) => e.name === a.source);
-    if (!src || (src.kind !== "vsource" && src.kind !== "isource")) {
+    if (!src || !rulesOf(src).sweepable) {
       throw new SimError("invalid", `Invalid netlist: field "analysis.source" names "${a.source}", which is not a vsource or isource in the netlist`);
     }
   }
@@ -133,7 +97,7 @@ function checkTopology(n: ParsedNetlist): void {
   // Voltage-source / inductor loops (Kirchhoff's voltage law would over-determine the loop).
   const vs = new Sets();
   for (const el of n.elements) {
-    for (const [p, q] of voltageBranches(el)) {
+    for (const [p, q] of rulesOf(el).voltageBranches?.(el) ?? []) {
       if (canon(p) === canon(q) || !vs.union(canon(p), canon(q))) {
         throw new SimError(
           "invalid",
@@ -145,8 +109,8 @@ function checkTopology(n: ParsedNetlist): void {
   }
   // Floating nodes: every node needs a DC path to ground.
   const dc = new Sets();
-  for (const el of n.elements) for (const [p, q] of dcPaths(el)) dc.union(canon(p), canon(q));
-  const groundRoot = dc.find(GND);
+  for (const el of n.elements) for (const [p, q] of rulesOf(el).dcPaths(el)) dc.union(canon(p), canon(q));
+  const groundRoot = dc.find(GROUND);
   for (const [nd, users] of nodeUsers) {
     if (dc.find(nd) !== groundRoot) {
       throw new SimError(

@@ -10,13 +10,19 @@
  * Storage is the circuit's row-major (n+1)×(n+1) array: rows are never moved; `rowOf[k]` says which stored row is
  * the k-th pivot row.
  */
-import { SINGULAR_PIVOT } from "./lu";
+
+/** |pivot| at or below this is treated as exactly singular (shared with the dense LU kept for the benchmark). */
+export const SINGULAR_PIVOT = 1e-300;
 
 /** Largest multiplier accepted before asking for a new pivot order (the order was chosen with multipliers ≤ 10;
  *  a reused one may drift to 1e3 before it is replaced — a chain of large multipliers compounds). */
 const GROWTH = 1e3;
 /** A pivot candidate must be at least this fraction of its column's largest entry. */
 const PIVOT_THRESHOLD = 0.1;
+
+/** columns between two polls of a long ordering or factorisation (a power of two minus one is the mask); a matrix
+ *  smaller than that is never polled inside (its whole factorisation takes microseconds) */
+const POLL_MASK = 63;
 
 export const LU_OK = -1;
 /** factor() result: the reused order is numerically poor at this matrix; call analyse() and factor again. */
@@ -41,6 +47,9 @@ export class StaticLU {
   private scratchIm: Float64Array;
   private y: Float64Array;
   private yi: Float64Array;
+  /** called every POLL_COLUMNS columns of an ordering or a factorisation (the circuit's checkpoint: budget and
+   *  cancellation); it may throw, which leaves the LU unanalysed or its factors incomplete */
+  poll: (() => void) | null = null;
 
   constructor(n: number, stride: number, structure: Uint8Array) {
     this.n = n;
@@ -74,7 +83,9 @@ export class StaticLU {
     for (let k = 0; k < n; k++) s[k * n + k] = 1;
     const lStart = new Int32Array(n + 1), uStart = new Int32Array(n + 1);
     const lRows: number[] = [], uCols: number[] = [];
+    const poll = this.poll;
     for (let k = 0; k < n; k++) {
+      if ((k & POLL_MASK) === POLL_MASK && poll !== null) poll();
       lStart[k] = lRows.length;
       uStart[k] = uCols.length;
       for (let j = k + 1; j < n; j++) if (s[k * n + j]) uCols.push(j);
@@ -110,7 +121,9 @@ export class StaticLU {
     const used = new Uint8Array(n);
     const nz = new Uint8Array(n * n);
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) nz[i * n + j] = this.structure[i * stride + j];
+    const poll = this.poll;
     for (let k = 0; k < n; k++) {
+      if ((k & POLL_MASK) === POLL_MASK && poll !== null) poll();
       let colMax = 0;
       for (let r = 0; r < n; r++) {
         if (used[r]) continue;
@@ -166,7 +179,9 @@ export class StaticLU {
   /** Numeric factorisation in place with the stored order. Returns LU_OK, LU_REORDER, or a singular column. */
   factor(a: Float64Array): number {
     const { n, base, lStart, lRows, uStart, uCols } = this;
+    const poll = n > POLL_MASK ? this.poll : null;
     for (let k = 0; k < n; k++) {
+      if (poll !== null && (k & POLL_MASK) === POLL_MASK) poll();
       const bk = base[k];
       const d = a[bk + k];
       if (!(Math.abs(d) > SINGULAR_PIVOT)) return LU_REORDER;
@@ -206,7 +221,9 @@ export class StaticLU {
   /** Complex numeric factorisation (split storage) with the stored order. */
   factorComplex(re: Float64Array, im: Float64Array): number {
     const { n, base, lStart, lRows, uStart, uCols } = this;
+    const poll = n > POLL_MASK ? this.poll : null;
     for (let k = 0; k < n; k++) {
+      if (poll !== null && (k & POLL_MASK) === POLL_MASK) poll();
       const bk = base[k];
       const dr = re[bk + k], di = im[bk + k];
       const den = dr * dr + di * di;

@@ -1,7 +1,27 @@
 /** Time-dependent source values and their corners (transient breakpoints). */
-import type { Wave } from "./schema";
+import type { Wave } from "./fields";
 
 const MIN_EDGE = 1e-12;
+
+/**
+ * Steps per period a sine allows at most: 64 samples per period put every peak within 1 − cos(π/64) = 0.12 % of
+ * the amplitude of a computed point, so a peak is never stepped over and a plot drawn through the points is true.
+ */
+export const SINE_STEPS_PER_PERIOD = 64;
+/**
+ * Steps per period a pulse train allows at most. Its corners are breakpoints already; the bound keeps the step from
+ * growing past a fraction of the period, so each pulse's response is resolved alike from the first to the last.
+ */
+export const PULSE_STEPS_PER_PERIOD = 16;
+
+/** Largest transient step (s) a wave allows: a fraction of its period for periodic waves, Infinity otherwise. */
+export function waveMaxStep(w: Wave): number {
+  switch (w.shape) {
+    case "sine": return 1 / (w.freq * SINE_STEPS_PER_PERIOD);
+    case "pulse": return w.period === null ? Infinity : w.period / PULSE_STEPS_PER_PERIOD;
+    default: return Infinity;
+  }
+}
 
 /** Value of a wave at time t (s). */
 export function waveValue(w: Wave, t: number): number {
@@ -22,7 +42,7 @@ export function waveValue(w: Wave, t: number): number {
     case "sine":
       if (t <= w.delay) return w.offset;
       return w.offset + w.amplitude * Math.sin(2 * Math.PI * w.freq * (t - w.delay));
-    case "pwl": {
+    case "piecewise": {
       const p = w.points;
       if (t <= p[0][0]) return p[0][1];
       for (let i = 1; i < p.length; i++) {
@@ -55,7 +75,7 @@ export function waveBreakpoints(w: Wave, tStop: number, out: number[]): void {
     case "sine":
       if (w.delay > 0 && w.delay <= tStop) out.push(w.delay);
       return;
-    case "pwl":
+    case "piecewise":
       for (const [t] of w.points) if (t > 0 && t <= tStop) out.push(t);
       return;
   }

@@ -7,12 +7,12 @@
  * per frequency: only b depends on the sources' AC values, (G + jωC) does not (runAcMulti).
  */
 import { type Circuit, MODE_DC } from "../circuit";
-import { ISource, VSource } from "../elements/linear";
 import { SimError } from "../errors";
 import { LU_REORDER, StaticLU } from "../sparse";
 import type { AcResult, ComplexColumn } from "../results";
 import { runOp } from "./dc";
-import { checkBudget, loadAll } from "./newton";
+import { checkpoint } from "../checkpoint";
+import { loadAll } from "./newton";
 
 export function logFrequencies(fStart: number, fStop: number, perDecade: number): Float64Array {
   const decades = Math.log10(fStop / fStart);
@@ -38,8 +38,9 @@ export function runAcMulti(
   c: Circuit, fStart: number, fStop: number, perDecade: number, excitations: readonly AcExcitation[],
   onProgress?: (f: number) => void, skipOp = false,
 ): AcResult[] {
-  const sources = c.elements.filter((e): e is VSource | ISource => e instanceof VSource || e instanceof ISource);
-  const base = sources.map((e) => [e.acRe, e.acIm] as const);
+  const sources = c.elements.filter((e) => e.acExcitation !== null);
+  const phasors = sources.map((e) => e.acExcitation as Float64Array);
+  const base = phasors.map((p) => [p[0], p[1]] as const);
   const byName = new Map(sources.map((e, i) => [e.name, i]));
   const m = excitations.length;
   // per set: every source's [re, im]
@@ -60,19 +61,21 @@ export function runAcMulti(
   }
   const apply = (j: number) => {
     const re = setRe[j], im = setIm[j];
-    for (let i = 0; i < sources.length; i++) { sources[i].acRe = re[i]; sources[i].acIm = im[i]; }
+    for (let i = 0; i < phasors.length; i++) { phasors[i][0] = re[i]; phasors[i][1] = im[i]; }
   };
   try {
     return acCore(c, fStart, fStop, perDecade, m, apply, onProgress, skipOp);
   } finally {
-    for (let i = 0; i < sources.length; i++) { sources[i].acRe = base[i][0]; sources[i].acIm = base[i][1]; }
+    for (let i = 0; i < phasors.length; i++) { phasors[i][0] = base[i][0]; phasors[i][1] = base[i][1]; }
   }
 }
 
-function acCore(
-  c: Circuit, fStart: number, fStop: number, perDecade: number, m: number, apply: (j: number) => void,
-  onProgress: ((f: number) => void) | undefined, skipOp: boolean,
-): AcResult[] {
+/**
+ * The circuit linearised at its operating point (solved first unless `skipOp`: c.x already holds it): G, the
+ * converged Newton Jacobian, and C, the matrix of dq/dv, both in the circuit's dense storage; each element's
+ * small-signal state is prepared (acPrepare). The AC analysis and the small-signal step share it.
+ */
+export function linearise(c: Circuit, skipOp = false): { g: Float64Array; cap: Float64Array } {
   if (!skipOp) runOp(c);
   c.mode = MODE_DC;
   loadAll(c); // Jacobian at the OP
@@ -81,6 +84,15 @@ function acCore(
   for (let i = 0; i < size; i++) if (c.structure[i]) g[i] = c.mat[i];
   const cap = new Float64Array(size);
   for (const el of c.elements) { el.loadCap(c, cap); el.acPrepare(c); }
+  return { g, cap };
+}
+
+function acCore(
+  c: Circuit, fStart: number, fStop: number, perDecade: number, m: number, apply: (j: number) => void,
+  onProgress: ((f: number) => void) | undefined, skipOp: boolean,
+): AcResult[] {
+  const { g, cap } = linearise(c, skipOp);
+  const size = g.length;
   const els = c.elements;
   const nEl = els.length;
   const freq = logFrequencies(fStart, fStop, perDecade);
@@ -109,7 +121,10 @@ function acCore(
   const xr = new Float64Array(c.stride), xi = new Float64Array(c.stride);
   const n = c.n;
   const lu = new StaticLU(n, c.stride, c.structure);
+  lu.poll = c.lu.poll;
   for (let k = 0; k < count; k++) {
+    // every 8th frequency (a small circuit's frequency costs a few µs; a large one's factorisation polls on its own)
+    if ((k & 7) === 0) checkpoint(c);
     const w = 2 * Math.PI * freq[k];
     if (lu.analysed) {
       // only the structural non-zeros and fill-in take part in the factorisation
@@ -136,11 +151,7 @@ function acCore(
         cr[e][k] = out[0]; ci[e][k] = out[1];
       }
     }
-    if ((k & 31) === 31) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-      onProgress?.(k / count);
-    }
+    if ((k & 31) === 31) onProgress?.(k / count);
   }
   return results;
 }

@@ -1,7 +1,8 @@
 /** Operating point and DC sweep. */
 import type { Circuit, DeviceInfo } from "../circuit";
-import { ISource, VSource } from "../elements/linear";
+import { SimError } from "../errors";
 import type { DcSweepResult, OpResult } from "../results";
+import { checkpoint } from "../checkpoint";
 import { solveDc } from "./newton";
 
 export function opResult(c: Circuit): OpResult {
@@ -26,7 +27,8 @@ export function runOp(c: Circuit): OpResult {
 }
 
 export function runDcSweep(c: Circuit, source: string, from: number, to: number, points: number, onProgress?: (f: number) => void): DcSweepResult {
-  const src = c.elements.find((e) => e.name === source) as VSource | ISource;
+  const src = c.elements.find((e) => e.name === source);
+  if (!src) throw new SimError("invalid", `Invalid analysis: field "source" names "${source}", which is not in the netlist`);
   const sweep = new Float64Array(points);
   const nodes: Record<string, Float64Array> = {};
   const currents: Record<string, Float64Array> = {};
@@ -37,9 +39,10 @@ export function runDcSweep(c: Circuit, source: string, from: number, to: number,
   c.time = 0;
   try {
     for (let p = 0; p < points; p++) {
+      checkpoint(c);
       const v = points === 1 ? from : from + ((to - from) * p) / (points - 1);
       sweep[p] = v;
-      src.sweepValue = v;
+      src.setSweepValue(v);
       // continuation: starts from the previous point's solution
       solveDc(c, `${source} = ${v.toPrecision(6)} in the DC sweep`);
       for (let i = 0; i < c.userNodeNames.length; i++) nodes[c.userNodeNames[i]][p] = c.x[i];
@@ -47,7 +50,7 @@ export function runDcSweep(c: Circuit, source: string, from: number, to: number,
       if (onProgress && (p & 15) === 0) onProgress(p / points);
     }
   } finally {
-    src.sweepValue = null;
+    src.setSweepValue(null);
   }
   return { kind: "dcsweep", sweep, nodes, currents };
 }

@@ -8,12 +8,11 @@
  * carry an undamped alternating error in the algebraic unknowns). Two factorisations (one per rule), then one solve
  * per step: a few thousand steps cost about as much as a few hundred AC frequencies.
  */
-import { type Circuit, MODE_DC } from "../circuit";
-import { ISource, VSource } from "../elements/linear";
+import type { Circuit } from "../circuit";
+import { checkpoint } from "../checkpoint";
 import { SimError } from "../errors";
 import { LU_OK, LU_REORDER, StaticLU } from "../sparse";
-import { runOp } from "./dc";
-import { checkBudget, loadAll } from "./newton";
+import { linearise } from "./ac";
 
 export interface LinearStepResult {
   kind: "linstep";
@@ -45,25 +44,19 @@ export function runLinearStep(c: Circuit, source: string, tStop: number, steps: 
   if (!(tStop > 0) || !Number.isInteger(steps) || steps < 2 || !(edge >= 0)) {
     throw new SimError("invalid", "Invalid small-signal step: tStop > 0, steps ≥ 2 and edge ≥ 0 are required");
   }
-  const src = c.elements.find((e): e is VSource | ISource => (e instanceof VSource || e instanceof ISource) && e.name === source);
+  const src = c.elements.find((e) => e.acExcitation !== null && e.name === source);
   if (!src) throw new SimError("invalid", `Small-signal step names "${source}", which is not a vsource or isource`);
-  runOp(c);
-  c.mode = MODE_DC;
-  loadAll(c); // Jacobian at the OP
-  const size = c.mat.length;
-  const g = new Float64Array(size);
-  for (let i = 0; i < size; i++) if (c.structure[i]) g[i] = c.mat[i];
-  const cap = new Float64Array(size);
-  for (const el of c.elements) el.loadCap(c, cap);
-  // b: the unit excitation of the chosen source alone
-  const sources = c.elements.filter((e): e is VSource | ISource => e instanceof VSource || e instanceof ISource);
-  const saved = sources.map((e) => [e.acRe, e.acIm] as const);
+  const { g, cap } = linearise(c);
+  const size = g.length;
+  // b: the unit excitation of the chosen source alone (every source's AC phasor swapped for the load, then restored)
+  const sources = c.elements.filter((e) => e.acExcitation !== null);
+  const saved = sources.map((e) => [e.acExcitation![0], e.acExcitation![1]] as const);
   const b = new Float64Array(c.stride), bi = new Float64Array(c.stride);
   try {
-    for (const e of sources) { e.acRe = e === src ? 1 : 0; e.acIm = 0; }
+    for (const e of sources) { e.acExcitation![0] = e === src ? 1 : 0; e.acExcitation![1] = 0; }
     for (const el of c.elements) el.loadAc(c, b, bi);
   } finally {
-    sources.forEach((e, i) => { e.acRe = saved[i][0]; e.acIm = saved[i][1]; });
+    sources.forEach((e, i) => { e.acExcitation![0] = saved[i][0]; e.acExcitation![1] = saved[i][1]; });
   }
   const h = tStop / steps;
   const edgeSteps = edge > 0 ? Math.max(1, Math.round(edge / h)) : 0;
@@ -76,7 +69,8 @@ export function runLinearStep(c: Circuit, source: string, tStop: number, steps: 
   factorReal(luBE, aBE, "backward-Euler matrix");
   factorReal(luTR, aTR, "trapezoidal matrix");
   const nUser = c.userNodeNames.length;
-  const vsrc = c.elements.filter((e): e is VSource => e instanceof VSource);
+  // voltage sources carry their current as an unknown: the meters and supplies of the netlist
+  const vsrc = c.elements.filter((e) => e.acExcitation !== null && e.kind === "vsource");
   const time = new Float64Array(steps + 1);
   const nodeCols = c.userNodeNames.map(() => new Float64Array(steps + 1));
   const curCols = vsrc.map(() => new Float64Array(steps + 1));
@@ -110,10 +104,7 @@ export function runLinearStep(c: Circuit, source: string, tStop: number, steps: 
       curCols[e][k] = out[0];
     }
     x0.set(x1);
-    if ((k & 255) === 0) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-    }
+    if ((k & 255) === 0) checkpoint(c);
   }
   const nodes: Record<string, Float64Array> = {};
   c.userNodeNames.forEach((nm, i) => { nodes[nm] = nodeCols[i]; });

@@ -7,22 +7,12 @@
 import { type Circuit, MODE_DC } from "../circuit";
 import { SimError } from "../errors";
 import { LU_REORDER } from "../sparse";
+import { checkpoint } from "../checkpoint";
 
 /** V: largest node-voltage change per iteration in the damped-Newton stage of the DC solve */
 const DAMPED_STEP = 2;
 /** iterations of plain Newton before the damped stage */
 const PLAIN_ITER = 25;
-
-/** Set when the last Newton run failed: index of the unknown with the largest normalised update. */
-let worstUnknown = -1;
-/** message of the last singular matrix met inside a Newton run (reported if every strategy fails) */
-let singularAt = "";
-
-export function checkBudget(c: Circuit): void {
-  if (performance.now() > c.deadline) {
-    throw new SimError("budget", `Time budget exhausted after ${c.newtonIterations} Newton iterations`);
-  }
-}
 
 /** One matrix load at c.x into c.mat / c.rhs: the constant stamps are copied in, then the dynamic ones added. */
 export function loadAll(c: Circuit): void {
@@ -97,8 +87,8 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
       // such); one that turns singular later (a device driven into a corner where its slopes vanish) is a failed
       // Newton run, for the caller's next strategy or a smaller time step.
       if (!(e instanceof SimError) || e.code !== "singular" || (iter === 0 && c.strictSingular)) throw e;
-      worstUnknown = -1;
-      singularAt = e.message;
+      c.worstUnknown = -1;
+      c.singularAt = e.message;
       return false;
     }
     c.strictSingular = false;
@@ -126,21 +116,20 @@ export function newton(c: Circuit, maxIter: number, maxNodeStep = 0): boolean {
     }
     c.xNew = xo;
     c.x = xn;
-    if (worstRatio === Infinity) { worstUnknown = worst; c.x.fill(0); return false; }
+    if (worstRatio === Infinity) { c.worstUnknown = worst; c.x.fill(0); return false; }
     if (ok && c.noncon === 0 && iter > 0) return true;
-    worstUnknown = worst;
-    if ((iter & 7) === 7) {
-      checkBudget(c);
-      if (c.shouldStop?.()) throw new SimError("cancelled", "Simulation cancelled");
-    }
+    c.worstUnknown = worst;
+    // every 32nd iteration of the whole analysis (continuation makes many short Newton runs; a transient's step loop
+    // polls on its own)
+    if ((c.newtonIterations & 31) === 0) checkpoint(c);
   }
   return false;
 }
 
 /** Name of the unknown that moved most in the last failed Newton run. */
 export function worstName(c: Circuit): string {
-  if (worstUnknown >= 0) return c.unknownNames[worstUnknown] ?? "?";
-  return singularAt ? `a singular matrix (${singularAt.replace(/ \(check.*$/, "")})` : "(none)";
+  if (c.worstUnknown >= 0) return c.unknownNames[c.worstUnknown] ?? "?";
+  return c.singularAt ? `a singular matrix (${c.singularAt.replace(/ \(check.*$/, "")})` : "(none)";
 }
 
 /**
@@ -150,7 +139,7 @@ export function worstName(c: Circuit): string {
 export function solveDc(c: Circuit, what: string): void {
   c.mode = MODE_DC;
   c.strictSingular = true;
-  singularAt = "";
+  c.singularAt = "";
   const maxIter = c.tol.maxNewton;
   const guess = c.x.slice();
   c.dcMethod = "newton";

@@ -8,6 +8,9 @@
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
 import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
+import { z } from "zod";
+import { grading, name, nonNegative, positive, three } from "../fields";
+import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
 export interface BjtModel {
@@ -237,3 +240,20 @@ export class Bjt extends Element {
     return { kind: "bjt", ic, ib, ie, vbe, vce, power: ic * vce + ib * vbe, region };
   }
 }
+
+export const bjtKind = defineKind("bjt", z.object({
+  kind: z.literal("bjt"), name, nodes: three,
+  polarity: z.enum(["npn", "pnp"]).default("npn"),
+  model: z.strictObject({
+    Is: positive().default(1e-14), betaF: positive().default(100), betaR: positive().default(1),
+    VA: positive().nullable().default(null),
+    Cje0: nonNegative().default(0), Vje: positive().default(0.75), mje: grading().default(0.33),
+    Cjc0: nonNegative().default(0), Vjc: positive().default(0.75), mjc: grading().default(0.33),
+    tauF: nonNegative().default(0), tauR: nonNegative().default(0),
+    rb: nonNegative().default(0), rc: nonNegative().default(0), re: nonNegative().default(0),
+  }).prefault({}),
+}), {
+  create: (e) => new Bjt(e.name, e.nodes, e.polarity, e.model),
+  // base–emitter and base–collector junctions (gmin keeps each conducting at DC)
+  dcPaths: (e) => [[e.nodes[1], e.nodes[2]], [e.nodes[1], e.nodes[0]]],
+});

@@ -4,6 +4,9 @@
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
 import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
+import { z } from "zod";
+import { grading, name, nonNegative, positive, two } from "../fields";
+import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
 export interface DiodeModel { Is: number; n: number; Rs: number; Cj0: number; Vj: number; m: number; tau: number; BV: number | null }
@@ -130,3 +133,15 @@ export class Diode extends Element {
     return { kind: "diode", id, vd, power: id * vd };
   }
 }
+
+export const diodeKind = defineKind("diode", z.object({
+  kind: z.literal("diode"), name, nodes: two,
+  model: z.strictObject({
+    Is: positive().default(1e-14), n: positive().default(1), Rs: nonNegative().default(0),
+    Cj0: nonNegative().default(0), Vj: positive().default(0.7), m: grading().default(0.5),
+    tau: nonNegative().default(0), BV: positive().nullable().default(null),
+  }).prefault({}),
+}), {
+  create: (e) => new Diode(e.name, e.nodes, e.model),
+  dcPaths: (e) => [[e.nodes[0], e.nodes[1]]],
+});

@@ -3,9 +3,9 @@
  * Stamps: REFERENCES §2.1 (Ho et al. 1975; Vlach & Singhal 1994). Companion models: REFERENCES §2.2.
  */
 import { Builder, Circuit, Element, MODE_TRAN, stampG } from "../circuit";
-import { isGround } from "../netlist";
-import type { Wave } from "../schema";
-import { waveBreakpoints, waveValue } from "../waves";
+import type { Wave } from "../fields";
+import { isGround } from "../ground";
+import { waveBreakpoints, waveMaxStep, waveValue } from "../waves";
 
 /** Placeholder for a user node (ground → -1). */
 export function nodeOf(b: Builder, name: string): number {
@@ -75,11 +75,10 @@ export class Capacitor extends TwoTerminal {
     out[0] = -(xi[this.a] - xi[this.b]) * wc;
     out[1] = (xr[this.a] - xr[this.b]) * wc;
   }
-  /** the node (index) that an initial condition sets when the other terminal is ground, or -1 */
-  icNode(c: Circuit): [number, number] {
-    if (this.b === c.n && this.a !== c.n) return [this.a, this.ic];
-    if (this.a === c.n && this.b !== c.n) return [this.b, -this.ic];
-    return [-1, 0];
+  /** a capacitor to ground fixes its node's voltage (a floating one leaves both nodes to the first step) */
+  override applyInitialCondition(c: Circuit): void {
+    if (this.b === c.n && this.a !== c.n) c.x[this.a] = this.ic;
+    else if (this.a === c.n && this.b !== c.n) c.x[this.b] = -this.ic;
   }
 }
 
@@ -135,40 +134,47 @@ function acPhasor(ac: number, phaseDeg: number): [number, number] {
 }
 
 /** Present value of an independent source: the DC-sweep value, else its wave in a transient, else its DC value. */
-function sourceValue(sweepValue: number | null, wave: Wave | null, dc: number, c: Circuit): number {
-  if (sweepValue !== null) return sweepValue;
+function sourceValue(sweepValue: number, wave: Wave | null, dc: number, c: Circuit): number {
+  if (sweepValue === sweepValue) return sweepValue; // not NaN: a DC sweep holds the value
   return c.useWaves && wave !== null ? waveValue(wave, c.time) : dc;
 }
 
 export class VSource extends BranchElement {
-  /** value that replaces `dc` during a DC sweep, or null */
-  sweepValue: number | null = null;
-  /** AC excitation (real, imaginary); replaced for one excitation set of a multi-excitation AC run, then restored */
-  acRe: number;
-  acIm: number;
+  /** value that replaces `dc` during a DC sweep, NaN when none */
+  private sweepValue = NaN;
+  /** largest step (s) the wave allows */
+  private readonly stepBound: number;
+  override readonly acExcitation: Float64Array;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "vsource", nodes);
-    [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
+    this.acExcitation = Float64Array.from(acPhasor(ac, acPhaseDeg));
+    this.stepBound = wave ? waveMaxStep(wave) : Infinity;
   }
+  override setSweepValue(v: number | null): void { this.sweepValue = v ?? NaN; }
   value(c: Circuit): number {
     return sourceValue(this.sweepValue, this.wave, this.dc, c);
   }
   load(c: Circuit): void {
     c.rhs[this.k] += this.value(c) * c.srcScale;
   }
-  override loadAc(_c: Circuit, br: Float64Array, bi: Float64Array): void { br[this.k] += this.acRe; bi[this.k] += this.acIm; }
+  override loadAc(_c: Circuit, br: Float64Array, bi: Float64Array): void { br[this.k] += this.acExcitation[0]; bi[this.k] += this.acExcitation[1]; }
   override breakpoints(tStop: number, out: number[]): void { if (this.wave) waveBreakpoints(this.wave, tStop, out); }
+  /** a periodic wave bounds the step to a fraction of its period (waves.ts) */
+  override maxStepAt(): number { return this.stepBound; }
 }
 
 export class ISource extends TwoTerminal {
-  sweepValue: number | null = null;
-  /** AC excitation (real, imaginary); see VSource */
-  acRe: number;
-  acIm: number;
+  /** value that replaces `dc` during a DC sweep, NaN when none */
+  private sweepValue = NaN;
+  /** largest step (s) the wave allows */
+  private readonly stepBound: number;
+  override readonly acExcitation: Float64Array;
   constructor(name: string, nodes: readonly [string, string], private readonly dc: number, ac: number, acPhaseDeg: number, private readonly wave: Wave | null) {
     super(name, "isource", nodes);
-    [this.acRe, this.acIm] = acPhasor(ac, acPhaseDeg);
+    this.acExcitation = Float64Array.from(acPhasor(ac, acPhaseDeg));
+    this.stepBound = wave ? waveMaxStep(wave) : Infinity;
   }
+  override setSweepValue(v: number | null): void { this.sweepValue = v ?? NaN; }
   value(c: Circuit): number {
     return sourceValue(this.sweepValue, this.wave, this.dc, c);
   }
@@ -178,14 +184,17 @@ export class ISource extends TwoTerminal {
     c.rhs[this.b] += i;
   }
   override loadAc(_c: Circuit, br: Float64Array, bi: Float64Array): void {
-    br[this.a] -= this.acRe; bi[this.a] -= this.acIm;
-    br[this.b] += this.acRe; bi[this.b] += this.acIm;
+    const [re, im] = this.acExcitation;
+    br[this.a] -= re; bi[this.a] -= im;
+    br[this.b] += re; bi[this.b] += im;
   }
   override current(c: Circuit): number { return this.value(c) * c.srcScale; }
   override acCurrent(_c: Circuit, _xr: Float64Array, _xi: Float64Array, _w: number, out: Float64Array): void {
-    out[0] = this.acRe; out[1] = this.acIm;
+    out[0] = this.acExcitation[0]; out[1] = this.acExcitation[1];
   }
   override breakpoints(tStop: number, out: number[]): void { if (this.wave) waveBreakpoints(this.wave, tStop, out); }
+  /** a periodic wave bounds the step to a fraction of its period (waves.ts) */
+  override maxStepAt(): number { return this.stepBound; }
 }
 
 export class Vcvs extends BranchElement {

@@ -5,6 +5,9 @@
  * Symmetric (drain and source swap when VDS < 0), N and P channel, fixed Cgs and Cgd, gmin from drain to source.
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
+import { z } from "zod";
+import { finite, name, nonNegative, positive, three } from "../fields";
+import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
 export interface MosfetModel { Vth: number; K: number; lambda: number; Cgs: number; Cgd: number }
@@ -173,3 +176,16 @@ export class Mosfet extends Element {
     return { kind: "mosfet", id, vgs, vds, power: id * vds, region };
   }
 }
+
+export const mosfetKind = defineKind("mosfet", z.object({
+  kind: z.literal("mosfet"), name, nodes: three,
+  polarity: z.enum(["n", "p"]).default("n"),
+  model: z.strictObject({
+    Vth: finite().default(2), K: positive().default(1), lambda: nonNegative().default(0),
+    Cgs: nonNegative().default(0), Cgd: nonNegative().default(0),
+  }).prefault({}),
+}), {
+  create: (e) => new Mosfet(e.name, e.nodes, e.polarity, e.model),
+  // drain–source channel (the gate has no DC path)
+  dcPaths: (e) => [[e.nodes[0], e.nodes[2]]],
+});

@@ -11,6 +11,10 @@
  * With Rout = 0, fp2 = null and no limits this is exactly Aol/(1 + s/ωp) with infinite input impedance.
  */
 import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN } from "../circuit";
+import { z } from "zod";
+import { finite, name, node, nonNegative, positive } from "../fields";
+import { GROUND } from "../ground";
+import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
 export interface OpampModel {
@@ -256,3 +260,19 @@ export class Opamp extends Element {
     return { kind: "opamp", vout: x[this.out], iout: this.current(c), limiting };
   }
 }
+
+export const opampKind = defineKind("opamp", z.object({
+  kind: z.literal("opamp"), name, nodes: z.tuple([node, node, node, node, node]),
+  model: z.strictObject({
+    Aol: positive().default(1e5), GBW: positive().default(1e6), fp2: positive().nullable().default(null),
+    Rout: nonNegative().default(0), slewRate: positive().nullable().default(null), Vos: finite().default(0),
+    Ib: finite().default(0), swingHigh: finite().nullable().default(null), swingLow: finite().nullable().default(null),
+    Iout: positive().nullable().default(null),
+  }).prefault({}),
+}), {
+  create: (e) => new Opamp(e.name, e.nodes, e.model),
+  // the output is driven from ground's side (the macro model's output stage)
+  dcPaths: (e) => [[e.nodes[2], GROUND]],
+  // an ideal output (no Rout, no current limit) fixes the output voltage
+  voltageBranches: (e) => (e.model.Rout === 0 && e.model.Iout === null ? [[e.nodes[2], GROUND]] : []),
+});

@@ -36,7 +36,7 @@ export function at(r: TranResult, col: Float64Array, t: number): number {
  */
 export function markers(times: number[]): Netlist["elements"] {
   return [
-    { kind: "vsource", name: "Vmark", nodes: ["mark", "0"], wave: { shape: "pwl", points: times.map((t) => [t, 0] as [number, number]) } },
+    { kind: "vsource", name: "Vmark", nodes: ["mark", "0"], wave: { shape: "piecewise", points: times.map((t) => [t, 0] as [number, number]) } },
     { kind: "resistor", name: "Rmark", nodes: ["mark", "0"], value: 1 },
   ];
 }

@@ -115,14 +115,14 @@ describe("transient: source corners are hit exactly", () => {
     const pts: [number, number][] = [[0, 0], [1e-4, 0], [1.5e-4, 2], [4e-4, 2], [4.001e-4, -1], [7e-4, 0.25]];
     const r = runTran({
       elements: [
-        { kind: "vsource", name: "V1", nodes: ["in", "0"], wave: { shape: "pwl", points: pts } },
+        { kind: "vsource", name: "V1", nodes: ["in", "0"], wave: { shape: "piecewise", points: pts } },
         { kind: "resistor", name: "R1", nodes: ["in", "out"], value: 1000 },
         { kind: "capacitor", name: "C1", nodes: ["out", "0"], value: 1e-8 },
       ],
       analysis: { kind: "tran", tStop: 1e-3 },
     });
     for (const [t, v] of pts.slice(1)) expect(at(r, r.nodes.in, t)).toBeCloseTo(v, 12);
-    // maxStep honoured: default tStop/50
+    // neither tStep nor maxStep given: the step is bounded by tStop/50 (README, transient step control)
     for (let i = 1; i < r.time.length; i++) expect(r.time[i] - r.time[i - 1]).toBeLessThanOrEqual(1e-3 / 50 + 1e-18);
   });
   it("an explicit maxStep is honoured", () => {
