@@ -37,7 +37,7 @@ function probedSink(vAc: number, iAc: number, iPhase = 0): Netlist {
   if (!u || u.kind !== "opamp") throw new Error("reference sink: op-amp missing");
   const out = u.nodes[2];
   // the example excites the command with AC 1: off here, so only the probes drive the small-signal system
-  for (const e of n.elements) if (e.kind === "vsource" && e.name === "Vcmd") e.ac = 0;
+  for (const e of n.elements) if (e.kind === "vsource" && e.name === "command") e.ac = 0;
   u.nodes = [u.nodes[0], u.nodes[1], "probe_i", u.nodes[3], u.nodes[4]];
   const extra: NetlistElement[] = [
     { kind: "vsource", name: "VPR", nodes: [out, "probe_i"], dc: 0, ac: vAc },

@@ -94,7 +94,7 @@ describe("headless CLI (lib/sim/cli.ts)", () => {
     const sink = "lib/sim/examples/reference-sink.json";
     for (const a of [
       { kind: "op" },
-      { kind: "dcsweep", source: "Vcmd", from: 0, to: 5, points: 6 },
+      { kind: "dcsweep", source: "command", from: 0, to: 5, points: 6 },
       { kind: "ac", fStart: 10, fStop: 1e7, pointsPerDecade: 5 },
     ]) {
       out = "";

@@ -59,12 +59,12 @@ describe("AC linearisation of the BJT: hybrid-π with Cπ = Cje(Vbe) + τF·gm a
 describe("reference sink (fixture): consistency of the analyses", () => {
   it("AC command→load transconductance at 0.01 Hz equals the slope of two operating points (dI/dV identity)", () => {
     const dv = 1e-3;
-    const hi = runOp(referenceSink({ kind: "op" }, 5 + dv)).currents.Q1;
-    const lo = runOp(referenceSink({ kind: "op" }, 5 - dv)).currents.Q1;
+    const hi = runOp(referenceSink({ kind: "op" }, 5 + dv)).currents.pass;
+    const lo = runOp(referenceSink({ kind: "op" }, 5 - dv)).currents.pass;
     const slope = (hi - lo) / (2 * dv);
     // (0.01 Hz: far below the loop's crossover, so the AC value is the DC derivative)
     const ac = runAc(referenceSink({ kind: "ac", fStart: 0.01, fStop: 0.01, pointsPerDecade: 1 }));
-    expect(ac.currents.Q1.re[0]).toBeCloseTo(slope, 5);
+    expect(ac.currents.pass.re[0]).toBeCloseTo(slope, 5);
     // ≈ (1/48)/0.1 · α: 1 kΩ/(47 kΩ + 1 kΩ) divider over the 0.1 Ω sense, times IC/IE
     expect(slope).toBeGreaterThan(0.2);
     expect(slope).toBeLessThan(0.2084);
@@ -73,16 +73,16 @@ describe("reference sink (fixture): consistency of the analyses", () => {
   it("the transient settles to the operating point of its final inputs (command 5 V, load step on)", () => {
     const tr = runTran(referenceSink({ kind: "tran", tStop: 10e-3 }));
     const n = referenceSink({ kind: "op" });
-    const sw = n.elements.find((e) => e.name === "Sstep");
+    const sw = n.elements.find((e) => e.name === "step-switch");
     if (!sw || sw.kind !== "switch") throw new Error("fixture");
     sw.schedule = [[0, "on"]];
     const op = runOp(n);
     const last = tr.time.length - 1;
     expect(tr.time[last]).toBe(10e-3);
-    expect(tr.currents.Q1[last] / op.currents.Q1).toBeCloseTo(1, 4);
+    expect(tr.currents.pass[last] / op.currents.pass).toBeCloseTo(1, 4);
     expect(tr.nodes.out[last]).toBeCloseTo(op.nodes.out, 3);
     // sense current ≈ Vcmd·(1k/48k)/0.1 Ω = 1.0417 A (the loop's purpose; within the op-amp's finite gain)
-    expect(tr.currents.Rs[last]).toBeCloseTo(5 / 48 / 0.1, 3);
+    expect(tr.currents.sense[last]).toBeCloseTo(5 / 48 / 0.1, 3);
     // the command step (0.2 ms) and the switch event (1 ms, 1 µs transition) are breakpoints
     expect(Array.from(tr.time)).toContain(2e-4);
     expect(Array.from(tr.time)).toContain(1e-3);
@@ -91,7 +91,7 @@ describe("reference sink (fixture): consistency of the analyses", () => {
 
   it("op-amp info reports the output stage, and the transistor's power is IC·VCE + IB·VBE", () => {
     const op = runOp(referenceSink({ kind: "op" }));
-    const q = op.devices.Q1, u = op.devices.U1;
+    const q = op.devices.pass, u = op.devices.amplifier;
     if (q.kind !== "bjt" || u.kind !== "opamp") throw new Error("device info");
     expect(q.region).toBe("active");
     expect(q.power).toBeCloseTo(q.ic * q.vce + q.ib * q.vbe, 12);
@@ -102,19 +102,19 @@ describe("reference sink (fixture): consistency of the analyses", () => {
   });
 
   it("a DC sweep of the command (each point continuing from the last) equals separate operating points", () => {
-    const sweep = runSweep(referenceSink({ kind: "dcsweep", source: "Vcmd", from: 0, to: 5, points: 11 }));
+    const sweep = runSweep(referenceSink({ kind: "dcsweep", source: "command", from: 0, to: 5, points: 11 }));
     for (const k of [0, 3, 7, 10]) {
       const op = runOp(referenceSink({ kind: "op" }, sweep.sweep[k]));
-      expect(sweep.currents.Q1[k]).toBeCloseTo(op.currents.Q1, 6);
+      expect(sweep.currents.pass[k]).toBeCloseTo(op.currents.pass, 6);
       expect(sweep.nodes.out[k]).toBeCloseTo(op.nodes.out, 4);
     }
     // the op-amp's internal stage cannot go below 1.2 V, so at zero command the sink still conducts (a property of
     // this design): the output sits at that floor less the base current's drop across Rout = 40 Ω
-    const u = runOp(referenceSink({ kind: "op" }, 0)).devices.U1;
+    const u = runOp(referenceSink({ kind: "op" }, 0)).devices.amplifier;
     if (u.kind !== "opamp") throw new Error("opamp");
     expect(u.limiting).toBe(true);
     expect(sweep.nodes.out[0] + 40 * u.iout).toBeGreaterThan(1.2);
     expect(sweep.nodes.out[0] + 40 * u.iout).toBeLessThan(1.25);
-    expect(sweep.currents.Q1[0]).toBeGreaterThan(0.1);
+    expect(sweep.currents.pass[0]).toBeGreaterThan(0.1);
   });
 });
