@@ -46,7 +46,7 @@ export function parseUnit(text: string): ParsedUnit | null {
   return null;
 }
 
-/** Split a column heading into its label and unit: "Time (ms)", "CH1 [mV]", "Time/s", "Current(A)". */
+/** Split a column heading into its label and unit: "Time (ms)", "CH1 [mV]", "Time/s", "Current(A)", "coil_current_A". */
 export function splitHeading(heading: string): { label: string; unit: ParsedUnit | null } {
   const h = heading.trim().replace(/^"|"$/g, "");
   const bracket = /^(.*?)\s*[([]\s*([^)\]]+?)\s*[)\]]\s*$/.exec(h);
@@ -58,6 +58,13 @@ export function splitHeading(heading: string): { label: string; unit: ParsedUnit
   if (slash) {
     const unit = parseUnit(slash[2]);
     if (unit) return { label: slash[1] || h, unit };
+  }
+  // A unit as the last word after an underscore ("coil_current_A", "current_mA"): only the exact SI spelling, so
+  // "channel_a" or "phase_v" are not read as amperes or volts (nor "Ch A", with a space, as amperes).
+  const suffix = /^(.+?)_+((?:p|n|u|µ|μ|m|k)?(?:s|V|A))$/.exec(h);
+  if (suffix) {
+    const unit = parseUnit(suffix[2]);
+    if (unit) return { label: suffix[1], unit };
   }
   return { label: h, unit: null };
 }

@@ -81,7 +81,7 @@ describe("bench-trace upload API", () => {
     const r = await upload("designer", f.scenarioId, lines.join("\n"));
     expect(r.status).toBe(400);
     const body = await r.json();
-    expect(body.error).toBe('bench.csv: line 18: column 2 (I): "seven hundred" is not a number');
+    expect(body.error).toBe('Line 18 of bench.csv: column 2 (I): "seven hundred" is not a number.');
     expect(body.problems).toEqual([{ line: 18, message: 'column 2 (I): "seven hundred" is not a number' }]);
     const bad = await upload("designer", f.scenarioId, csv(), { options: JSON.stringify({ channels: [{ scale: "ten" }] }) });
     expect(bad.status).toBe(400);
