@@ -179,7 +179,14 @@ export function ReviewDocument(p: ReviewProps) {
 
       <Section id="sign-off" title="Sign-off">
         {validated ? (
-          <p className="text-sm" data-testid="review-signed-off">Validated by <strong>{entry?.validatedByName}</strong> on {when(entry?.validatedAt)}.</p>
+          <>
+            <p className="text-sm" data-testid="review-signed-off">Validated by <strong>{entry?.validatedByName}</strong> on {when(entry?.validatedAt)}.</p>
+            {entry?.overrideReason && (
+              <p className="mt-1 text-sm text-verdict-fail" data-testid="review-override">
+                Validated with an override, against failing or missing bench evidence. Reason given: “{entry.overrideReason}”
+              </p>
+            )}
+          </>
         ) : (
           <p className="text-sm text-ink-muted" data-testid="review-signed-off">Not signed off: {entry ? `the entry is ${entry.status}` : "this revision has not been submitted for validation"}.</p>
         )}

@@ -7,7 +7,7 @@ import "server-only";
 import { db } from "@/lib/db/knex";
 import { audit } from "@/lib/db/audit";
 import { isUuid } from "@/lib/db/users";
-import { recordEvent, teamLeads, usersByIds, type Evidence, type SubmitInput } from "@/lib/db/library";
+import { evidenceProblem, recordEvent, teamLeads, usersByIds, type Evidence, type SubmitInput } from "@/lib/db/library";
 import { DomainError } from "@/lib/errors";
 import { roleAtLeast, type CurrentUser } from "@/lib/shared/roles";
 import type { LibraryStatus } from "@/lib/shared/statuses";
@@ -67,6 +67,7 @@ export async function submitForValidation(actor: CurrentUser, scenarioId: string
       submitted_at: trx.fn.now(),
       validated_by: null,
       validated_at: null,
+      override_reason: null,
       updated_at: trx.fn.now(),
     };
     let entryId: string;
@@ -121,11 +122,18 @@ export function actionForStatus(current: LibraryStatus, target: LibraryStatus): 
   return null;
 }
 
+/** Shortest written reason for validating against failing or missing evidence, characters. */
+export const MIN_OVERRIDE_REASON = 10;
+
 /**
  * Validate, return (with comments), retire or withdraw an entry. Validate, return and retire are for leads only;
  * the submitter may withdraw their own submission. The submitter (and the scenario owner) are told by mail.
+ * Validating an entry whose comparison failed or is missing needs `overrideReason`: the lead's written reason, stored
+ * on the entry, in its history and the audit log, and in the mail.
  */
-export async function changeEntryStatus(actor: CurrentUser, entryId: string, action: LibraryAction, comment = ""): Promise<WorkflowResult> {
+export async function changeEntryStatus(
+  actor: CurrentUser, entryId: string, action: LibraryAction, comment = "", overrideReason?: string,
+): Promise<WorkflowResult> {
   const t = TRANSITIONS[action];
   if (!t) throw new DomainError(400, `action: unknown action "${action}".`);
   if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
@@ -141,25 +149,41 @@ export async function changeEntryStatus(actor: CurrentUser, entryId: string, act
     }
     if (!t.from.includes(e.status)) throw new DomainError(409, `The entry is ${e.status}; it cannot be ${t.verb === "withdrew" ? "withdrawn" : t.verb} from there.`);
     const patch: Record<string, unknown> = { status: t.to, updated_at: trx.fn.now() };
-    if (action === "validate") Object.assign(patch, { validated_by: actor.id, validated_at: trx.fn.now() });
+    let override: { reason: string; problem: string } | null = null;
+    if (action === "validate") {
+      const problem = evidenceProblem({ traceIds: [], comparisons: [], ...(e.evidence ?? {}) } as Evidence);
+      if (problem) {
+        const reason = (overrideReason ?? "").trim().slice(0, 4000);
+        if (reason.length < MIN_OVERRIDE_REASON) {
+          throw new DomainError(400, `overrideReason: ${problem}; validating it anyway needs an override with a written reason (at least ${MIN_OVERRIDE_REASON} characters).`);
+        }
+        override = { reason, problem };
+      }
+      Object.assign(patch, { validated_by: actor.id, validated_at: trx.fn.now(), override_reason: override?.reason ?? null });
+    }
     await trx("library_entries").where({ id: entryId }).update(patch);
-    await recordEvent(trx, actor, entryId, action === "withdraw" ? "withdrawn" : t.verb, e.status, t.to, text);
+    await recordEvent(
+      trx, actor, entryId, action === "withdraw" ? "withdrawn" : override ? "validated with override" : t.verb, e.status, t.to, text,
+      override ? { override: true, overrideReason: override.reason, evidenceProblem: override.problem } : {},
+    );
     const owner = await trx("scenarios").where({ id: e.scenario_id }).first("owner_id");
     const rev = await trx("revisions").where({ id: e.revision_id }).first("number");
-    return { e, ownerId: owner?.owner_id as string | undefined, number: rev?.number as number };
+    return { e, ownerId: owner?.owner_id as string | undefined, number: rev?.number as number, override };
   });
   const concerned = others(
     [...(await usersByIds([r.e.submitted_by, r.ownerId])), ...(action === "withdraw" || action === "retire" ? await teamLeads(actor.teamId) : [])],
     actor,
   );
   const headline: Record<LibraryAction, string> = {
-    validate: `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
+    validate: r.override
+      ? `${actor.name} validated “${r.e.title}” revision ${r.number} with an override: ${r.override.problem}. Reason given: “${r.override.reason}”. The library marks it as validated against its evidence.`
+      : `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
     return: `${actor.name} returned “${r.e.title}” revision ${r.number} with comments.`,
     retire: `${actor.name} retired “${r.e.title}” revision ${r.number} from the library.`,
     withdraw: `${actor.name} withdrew “${r.e.title}” revision ${r.number} from validation.`,
   };
   const subject: Record<LibraryAction, string> = {
-    validate: `Validated: ${r.e.title} rev ${r.number}`,
+    validate: r.override ? `Validated with an override: ${r.e.title} rev ${r.number}` : `Validated: ${r.e.title} rev ${r.number}`,
     return: `Returned with comments: ${r.e.title} rev ${r.number}`,
     retire: `Retired: ${r.e.title} rev ${r.number}`,
     withdraw: `Withdrawn: ${r.e.title} rev ${r.number}`,

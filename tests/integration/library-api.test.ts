@@ -114,7 +114,7 @@ describe("library API", () => {
     expect(errors.traceIds[0]).toBe("Attach at least one bench trace");
     const viewer = await library.POST(await request("POST", "/api/library", f.viewer, { scenarioId: f.scenarioId, note: "n", traceIds: [traceId] }), ctx({}));
     expect(viewer.status).toBe(403);
-    const ok = await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: f.scenarioId, note: "Bench agrees.", traceIds: [traceId] }), ctx({}));
+    const ok = await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: f.scenarioId, note: "Bench agrees.", traceIds: [traceId], comparisons: [{ traceId, channel: 0, offset: 0, verdict: "pass", rows: [] }] }), ctx({}));
     expect(ok.status).toBe(201);
     entryId = (await ok.json()).entryId;
   });
