@@ -10,6 +10,7 @@ import { cannotCompareReason, compareStep, shiftTime, type Comparison, type Tole
 import type { SimulatedStep } from "@/lib/design/review";
 import { formatEng } from "@/lib/units/eng";
 import { WavePlot } from "./WavePlot";
+import { ChannelCorrection } from "./ChannelCorrection";
 import { ComparisonTable } from "./ComparisonTable";
 
 export interface TraceMeta {
@@ -47,6 +48,10 @@ export function BenchComparison(props: {
   onResult?: (r: ComparisonResult | null) => void;
   initialTraceId?: string;
   readOnly?: boolean;
+  /** Designers and leads may correct a channel's unit and scale after upload (the server checks). */
+  canCorrect?: boolean;
+  /** Called after a correction is stored (e.g. to refresh the trace list). */
+  onCorrected?: () => void;
 }) {
   const { traces, step, tolerances, onResult } = props;
   const [traceId, setTraceId] = useState(props.initialTraceId ?? traces[0]?.id ?? "");
@@ -58,7 +63,7 @@ export function BenchComparison(props: {
   const [windowUs, setWindowUs] = useState<{ from: string; to: string }>({ from: "", to: "" });
   useEffect(() => setChannel(defaultChannel), [traceId, defaultChannel]);
 
-  const { data, error, isLoading } = useSWR<TraceSamples>(meta ? `/api/traces/${meta.id}` : null, fetchJson);
+  const { data, error, isLoading, mutate } = useSWR<TraceSamples>(meta ? `/api/traces/${meta.id}` : null, fetchJson);
 
   const measured = useMemo(() => {
     if (!data || !data.channels[channel]) return null;
@@ -123,6 +128,15 @@ export function BenchComparison(props: {
             <input className="num w-20 rounded border border-hairline px-2 py-1" value={windowUs.to} placeholder="to" inputMode="decimal" onChange={(e) => setWindowUs({ ...windowUs, to: e.target.value })} aria-label="RMS window end in microseconds" />
           </fieldset>
         </div>
+      )}
+      {props.canCorrect && !props.readOnly && data?.channels[channel] && (
+        <ChannelCorrection
+          key={`${meta.id}-${channel}`}
+          traceId={meta.id}
+          channel={channel}
+          current={data.channels[channel]}
+          onSaved={() => { void mutate(); props.onCorrected?.(); }}
+        />
       )}
       {unitProblem && (
         <p role="alert" className="text-sm text-verdict-warn" data-testid="unit-warning">

@@ -78,3 +78,19 @@ export function isUnitsRow(cells: string[]): boolean {
 /** Time units offered in the upload form, with their factor to seconds. */
 export const TIME_UNITS = { s: 1, ms: 1e-3, "µs": 1e-6, ns: 1e-9 } as const;
 export type TimeUnitName = keyof typeof TIME_UNITS;
+
+/** Units a channel's numbers may be written in, for the correction after upload ("" = as written, no unit). */
+export const CHANNEL_SOURCE_UNITS = ["A", "mA", "µA", "V", "mV", "µV", ""] as const;
+export type ChannelSourceUnit = (typeof CHANNEL_SOURCE_UNITS)[number];
+
+/**
+ * A channel's settings from what the user says of it: the file's numbers are in `sourceUnit`, and `scale` (a probe's
+ * A/V, or 1/R of a sense resistor) turns them into `unit` (default: the source unit's base). Returns the unit of the
+ * stored values and the total factor from the file's numbers to them.
+ */
+export function channelSettings(sourceUnit: ChannelSourceUnit, scale = 1, unit?: "A" | "V"): { unit: string; sourceUnit: string; scale: number } {
+  if (!Number.isFinite(scale) || scale === 0) throw new RangeError("scale: a finite, non-zero number.");
+  const parsed = sourceUnit === "" ? null : parseUnit(sourceUnit);
+  if (sourceUnit !== "" && (!parsed || parsed.base === "s")) throw new RangeError(`sourceUnit: "${sourceUnit}" is not a voltage or current unit.`);
+  return { unit: unit ?? parsed?.base ?? "", sourceUnit, scale: (parsed?.factor ?? 1) * scale };
+}

@@ -397,6 +397,14 @@ const libraryCases: Case[] = [
     },
   },
   {
+    name: "PATCH /api/traces/[id] (correct a channel's unit)",
+    expect: { anonymous: 401, viewer: 403, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await designerTrace();
+      return traceRoute.PATCH(await request("PATCH", `/api/traces/${id}`, a, { channel: 0, sourceUnit: "mA" }), ctx({ id }));
+    },
+  },
+  {
     name: "DELETE /api/traces/[id] (uploaded by the designer)",
     expect: { anonymous: 401, viewer: 403, designer: 204, lead: 204, outsider: 404 },
     call: async (a) => {
