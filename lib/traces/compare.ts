@@ -111,6 +111,15 @@ export function alignmentOffset(measured: Waveform, simulated: Waveform, command
   return findStepEdge(simulated.time, simulated.values, { after: commandEdge }).time - findStepEdge(measured.time, measured.values).time;
 }
 
+/**
+ * The capture's time axis aligned as the comparison aligns it (its 50 % edge on the simulation's after the command
+ * edge), plus a hand offset, s; for overlays. Throws RangeError when either record has no step.
+ */
+export function alignCapture(measured: Waveform, simulated: Waveform, commandEdge: number, manualOffset = 0): { time: Float64Array; offset: number } {
+  const offset = alignmentOffset(measured, simulated, commandEdge) + manualOffset;
+  return { time: shiftTime(measured.time, offset), offset };
+}
+
 /** A copy of the measured time axis shifted by `offset`, s. */
 export function shiftTime(time: Float64Array, offset: number): Float64Array {
   const out = new Float64Array(time.length);
