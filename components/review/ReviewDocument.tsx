@@ -112,7 +112,7 @@ export function ReviewDocument(p: ReviewProps) {
             {figures && (
               <p className="num text-sm" data-testid="review-step-figures">
                 Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} %
-                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}
+                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
               </p>
             )}
             {notes.length > 0 && (

@@ -163,7 +163,7 @@ export async function changeEntryStatus(
     }
     await trx("library_entries").where({ id: entryId }).update(patch);
     await recordEvent(
-      trx, actor, entryId, action === "withdraw" ? "withdrawn" : override ? "validated with override" : t.verb, e.status, t.to, text,
+      trx, actor, entryId, action === "withdraw" ? "withdrawn" : override ? "validated_with_override" : t.verb, e.status, t.to, text,
       override ? { override: true, overrideReason: override.reason, evidenceProblem: override.problem } : {},
     );
     const owner = await trx("scenarios").where({ id: e.scenario_id }).first("owner_id");

@@ -89,7 +89,7 @@ describe("bench traces: labels, units, override", () => {
     expect(await page.getByTestId("trace-list").getByText("half-amplitude", { exact: true }).count()).toBe(1);
 
     // The newest trace is compared first: without a unit it cannot be, and no verdict shows.
-    await page.getByLabel("Bench trace").selectOption({ label: "no-unit-capture (rev 1)" });
+    await page.getByLabel("Bench trace", { exact: true }).selectOption({ label: "no-unit-capture (rev 1)" });
     await page.getByTestId("unit-warning").waitFor({ timeout: 60_000 });
     expect(await page.getByTestId("unit-warning").textContent()).toContain("Cannot compare: This channel has no unit");
     expect(await page.getByTestId("comparison-verdict").count()).toBe(0);
@@ -103,7 +103,7 @@ describe("bench traces: labels, units, override", () => {
     expect(await page.getByTestId("alignment-edges").textContent()).toContain("Edges: measured step");
 
     // The half-amplitude capture fails against the simulation (RMS about half the step).
-    await page.getByLabel("Bench trace").selectOption({ label: "half-amplitude (rev 1)" });
+    await page.getByLabel("Bench trace", { exact: true }).selectOption({ label: "half-amplitude (rev 1)" });
     await page.getByTestId("comparison-verdict").getByText("fail").waitFor({ timeout: 60_000 });
 
     await page.getByLabel("Note for the reviewer").fill("Half-amplitude capture: probe attenuation unknown.");

@@ -194,8 +194,8 @@ describe("library workflow", () => {
     expect(r.status).toBe("validated");
     const e = await getEntry(team.users.viewer, entryId);
     expect(e).toMatchObject({ status: "validated", overrideReason: reason });
-    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "validated with override"]);
-    const audit = await db()("audit_log").where({ subject_id: entryId, action: "library.validated with override", actor_id: team.users.lead.id }).first();
+    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "validated_with_override"]);
+    const audit = await db()("audit_log").where({ subject_id: entryId, action: "library.validated_with_override", actor_id: team.users.lead.id }).first();
     expect(audit.detail).toMatchObject({ override: true, overrideReason: reason });
     const [mail] = await mailTo(team.users.designer.email, /^Validated with an override:/);
     expect(mail.text_body).toContain(`Reason given: “${reason}”`);

@@ -59,7 +59,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
             <h2 className="mb-2 font-semibold">Key figures (simulated at submission)</h2>
             <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="entry-figures">
               {FIGURES.map(([k, label, fmt]) => (
-                <div key={k} className="contents"><dt className="text-ink-muted">{label}</dt><dd className="num">{typeof figures[k] === "number" ? fmt(figures[k] as number) : "—"}</dd></div>
+                <div key={k} className="contents"><dt className="text-ink-muted">{label}</dt><dd className="num">{typeof figures[k] === "number" ? fmt(figures[k] as number) : k === "settlingTime" && figures[k] === null ? "not within the record" : "—"}</dd></div>
               ))}
             </dl>
             <h3 className="mt-3 text-sm font-semibold">Submission note</h3>

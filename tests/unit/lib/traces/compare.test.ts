@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { alignmentOffset, cannotCompareReason, compareStep, DEFAULT_TOLERANCES } from "@/lib/traces";
+import { alignCapture, alignmentOffset, cannotCompareReason, compareStep, DEFAULT_TOLERANCES } from "@/lib/traces";
 import { findStepEdge } from "@/lib/design/step-edge";
 import { stepMetrics } from "@/lib/design/metrics";
 import { estimateRinging } from "@/lib/design/ringing";
@@ -7,7 +7,8 @@ import { createRng, normal } from "@/lib/design/stats";
 
 /**
  * The capture of issue 13 made from closed forms: a 3 ms record stepping at 100 µs, 7.08 kHz ringing, ζ = 0.18.
- * Second-order underdamped step (K. Ogata, Modern Control Engineering, 5th ed., §5-3, "Second-order systems"):
+ * Second-order underdamped step (K. Ogata, Modern Control Engineering, 5th ed., §5-3, "Second-order systems" — the
+ * edition and section recalled from memory [MEM]; the formulas are the ones of docs/references.md §5a, [DERIVED]):
  *   y(t) = 1 − e^{−ζωn t}[cos ωd t + ζ/√(1−ζ²) sin ωd t],  ωd = ωn√(1−ζ²),
  *   maximum overshoot Mp = e^{−ζπ/√(1−ζ²)}, peak time tp = π/ωd, ringing frequency ωd/2π, decay rate ζωn.
  * Ogata's rise time is 0–100 % ((π − β)/ωd); ours is 10–90 %, so its oracle is bisection on the same closed form.
@@ -164,6 +165,14 @@ describe("alignment on the measured step edge", () => {
       });
     }
   }
+
+  it("the workbench overlay's alignment is the comparison's: a 250 µs pre-trigger comes back within one sample", () => {
+    const c = capture(4000, { delay: 250e-6 });
+    const a = alignCapture(c, sim, T_STEP);
+    expect(Math.abs(a.offset + 250e-6)).toBeLessThan(c.dt); // the known delay, closed form
+    expect(a.offset).toBe(compareStep(c, sim, { commandEdge: T_STEP }).autoOffset);
+    expect(a.time[10] - c.time[10]).toBeCloseTo(a.offset, 15);
+  });
 
   it("the pre-step level is not cut off: a step at 2 % of the record still finds its baseline", () => {
     // 60 µs of baseline in a 3 ms record: the first 2 % straddles the edge, the refined level must not

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { parseTraceCsv, TraceParseError, MIN_TRACE_ROWS } from "@/lib/traces";
+import { channelSettings, parseTraceCsv, TraceParseError, MIN_TRACE_ROWS } from "@/lib/traces";
 
 /** Rows of a 1 kHz-sampled ramp: time k·dt, channel 1 = k·0.01, channel 2 = −k. Made here, so the values are known. */
 function rows(n: number, dt: number, fmt: (t: number, a: number, b: number) => string): string[] {
@@ -209,5 +209,23 @@ describe("parseTraceCsv: units from column names", () => {
     const r = parseTraceCsv(text, { timeUnit: "s", channels: [{ sourceUnit: "A" }] });
     expect(r.channels[0]).toMatchObject({ unit: "A", sourceUnit: "A", scale: 1 });
     expect(r.channels[0].values[3]).toBe(2); // amperes as written: factor 1
+  });
+});
+
+describe("channelSettings: a channel's unit and scale corrected after upload", () => {
+  it("mV across a 0.1 Ω sense resistor → A: factor 1e-3 × 10 = 0.01 (SI prefix m; Ohm's law)", () => {
+    const c = channelSettings("mV", 1 / 0.1, "A");
+    expect(c).toMatchObject({ unit: "A", sourceUnit: "mV" });
+    expect(c.scale).toBeCloseTo(0.01, 15);
+  });
+
+  it("already in amperes: unit A, factor 1; no unit: as written", () => {
+    expect(channelSettings("A")).toEqual({ unit: "A", sourceUnit: "A", scale: 1 });
+    expect(channelSettings("mA")).toEqual({ unit: "A", sourceUnit: "mA", scale: 1e-3 }); // SI prefix m = 1e-3
+    expect(channelSettings("")).toEqual({ unit: "", sourceUnit: "", scale: 1 });
+  });
+
+  it("refuses a zero scale with a message naming the field", () => {
+    expect(() => channelSettings("V", 0)).toThrow(/^scale: a finite, non-zero number\.$/);
   });
 });
