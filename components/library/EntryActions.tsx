@@ -10,6 +10,8 @@ import type { ActionState } from "@/lib/auth/action-state";
 export function EntryActions(props: {
   entryId: string;
   status: string;
+  /** What is wrong with the evidence (a failed or missing comparison), or null: validating then needs a reason. */
+  evidenceProblem: string | null;
   role: "viewer" | "designer" | "lead";
   isSubmitter: boolean;
   startAction: (s: ActionState, f: FormData) => Promise<ActionState>;
@@ -17,6 +19,7 @@ export function EntryActions(props: {
 }) {
   const router = useRouter();
   const [comment, setComment] = useState("");
+  const [overrideReason, setOverrideReason] = useState("");
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [startState, startFormAction, starting] = useActionState(props.startAction, {});
@@ -51,7 +54,18 @@ export function EntryActions(props: {
       <div className="flex flex-wrap gap-2">
         {lead && props.status === "submitted" && (
           <>
-            <button type="button" disabled={busy} className={`${btn} bg-verdict-pass text-white`} onClick={() => void patch({ status: "validated", comment }, "Validated.")}>Validate</button>
+            {props.evidenceProblem ? (
+              <div className="w-full space-y-2 rounded border border-verdict-fail/30 bg-red-50 p-2" data-testid="override-form">
+                <p className="text-sm text-verdict-fail">The evidence does not support validation: {props.evidenceProblem}. Validate only with an override and a written reason; it is kept on the entry, in the review, the mail and the audit log.</p>
+                <label className="flex flex-col text-sm">
+                  <span className="text-xs text-ink-muted">Override reason (at least 10 characters)</span>
+                  <textarea className="rounded border border-hairline p-2" rows={2} value={overrideReason} maxLength={4000} onChange={(e) => setOverrideReason(e.target.value)} aria-label="Override reason" />
+                </label>
+                <button type="button" disabled={busy || overrideReason.trim().length < 10} className={`${btn} bg-verdict-fail text-white`} onClick={() => void patch({ status: "validated", comment, overrideReason }, "Validated with an override.")}>Validate with override</button>
+              </div>
+            ) : (
+              <button type="button" disabled={busy} className={`${btn} bg-verdict-pass text-white`} onClick={() => void patch({ status: "validated", comment }, "Validated.")}>Validate</button>
+            )}
             <button type="button" disabled={busy} className={`${btn} border border-verdict-warn text-verdict-warn`} onClick={() => void patch({ status: "draft", comment }, "Returned with comments.")}>Return with comments</button>
           </>
         )}

@@ -3,7 +3,7 @@ import type { LibraryEvent } from "@/lib/db/library";
 
 const VERB: Record<string, string> = {
   created: "created the entry", submitted: "submitted it for validation", returned: "returned it with comments",
-  validated: "validated it", retired: "retired it", withdrawn: "withdrew it", commented: "commented",
+  validated: "validated it", validated_with_override: "validated it with an override", retired: "retired it", withdrawn: "withdrew it", commented: "commented",
 };
 
 export function EntryHistory({ events }: { events: LibraryEvent[] }) {

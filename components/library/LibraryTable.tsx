@@ -38,7 +38,7 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
                 <Link href={`/library/${e.id}`} className="font-medium text-signal hover:underline">{e.title}</Link>
                 <span className="block text-xs text-ink-muted">revision {e.revisionNumber}{e.submittedByName ? ` · submitted by ${e.submittedByName}` : ""}</span>
               </td>
-              <td className="px-3 py-2"><StatusBadge status={e.status} /></td>
+              <td className="px-3 py-2"><StatusBadge status={e.status} />{e.overrideReason && e.status === "validated" && <span className="ml-1 block text-xs font-medium text-verdict-fail" data-testid="library-override" title={`Override: ${e.overrideReason}`}>over failing evidence</span>}</td>
               <td className="px-3 py-2 text-xs">{templateTitle(e.template)} · {e.passElement || "—"} · {e.loadType || "—"}</td>
               <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatQuantity(e.currentMin ?? 0, "A")} – ${formatQuantity(e.currentMax, "A")}`}</td>
               <td className="num px-3 py-2 text-right">{formatQuantity(e.keyFigures.overshootPct, "%")}</td>

@@ -37,7 +37,13 @@ function PlotHeader({ title, children }: { title: string; children?: React.React
   );
 }
 
-export function StepPlot({ step, ghost, height = 230, title = "Step response" }: { step: StepView | null; ghost: StepView | null; height?: number; title?: string }) {
+/** A bench capture drawn over the simulated load current (already aligned on its time axis), in A. */
+export interface MeasuredOverlay { time: Float64Array; values: Float64Array; label: string }
+
+/** The bench capture's colour (Okabe–Ito vermilion, as in the bench comparison). */
+const MEASURED_COLOR = OKABE_ITO[1];
+
+export function StepPlot({ step, ghost, measured = null, height = 230, title = "Step response" }: { step: StepView | null; ghost: StepView | null; measured?: MeasuredOverlay | null; height?: number; title?: string }) {
   const ref = useRef<UPlotHandle>(null);
   const options = useMemo<Omit<uPlot.Options, "width" | "height">>(() => ({
     legend: { live: true },
@@ -69,8 +75,9 @@ export function StepPlot({ step, ghost, height = 230, title = "Step response" }:
       : [];
     // the linearised circuit's step, dotted in the load current's colour
     if (step?.small) list.push({ x: step.small.time, y: step.small.iLoad, stroke: SMALL_SIGNAL_COLOR, scale: "A", dash: [2, 3], alpha: 0.8, width: 1.4 });
+    if (measured) list.push({ x: measured.time, y: measured.values, stroke: MEASURED_COLOR, scale: "A", alpha: 0.85, width: 1.2 });
     return list;
-  }, [ghost, step]);
+  }, [ghost, step, measured]);
   const columns = (): CsvColumn[] | null =>
     step ? [{ name: "time", unit: "s", data: step.time }, ...STEP_SERIES.map((s) => ({ name: s.label, unit: s.unit, data: step[s.key] }))] : null;
   return (
@@ -80,6 +87,12 @@ export function StepPlot({ step, ghost, height = 230, title = "Step response" }:
           <span className="mr-auto pl-3 text-[11px] text-ink-muted" data-testid="small-signal-legend">
             <span aria-hidden className="mr-1 inline-block w-5 border-t-2 border-dotted align-middle" style={{ borderColor: SMALL_SIGNAL_COLOR }} />
             small-signal step (linearised circuit): overshoot {step.small.metrics.overshootPct.toFixed(1)} %
+          </span>
+        )}
+        {measured && (
+          <span className="pl-3 text-[11px] text-ink-muted" data-testid="measured-legend">
+            <span aria-hidden className="mr-1 inline-block w-5 border-t-2 align-middle" style={{ borderColor: MEASURED_COLOR }} />
+            bench: {measured.label}
           </span>
         )}
         <ExportButtons name={title} columns={columns} png={() => ref.current?.toPng() ?? null} testId="export-step" />

@@ -112,7 +112,7 @@ export function ReviewDocument(p: ReviewProps) {
             {figures && (
               <p className="num text-sm" data-testid="review-step-figures">
                 Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} %
-                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}
+                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
               </p>
             )}
             {notes.length > 0 && (
@@ -179,7 +179,14 @@ export function ReviewDocument(p: ReviewProps) {
 
       <Section id="sign-off" title="Sign-off">
         {validated ? (
-          <p className="text-sm" data-testid="review-signed-off">Validated by <strong>{entry?.validatedByName}</strong> on {when(entry?.validatedAt)}.</p>
+          <>
+            <p className="text-sm" data-testid="review-signed-off">Validated by <strong>{entry?.validatedByName}</strong> on {when(entry?.validatedAt)}.</p>
+            {entry?.overrideReason && (
+              <p className="mt-1 text-sm text-verdict-fail" data-testid="review-override">
+                Validated with an override, against failing or missing bench evidence. Reason given: “{entry.overrideReason}”
+              </p>
+            )}
+          </>
         ) : (
           <p className="text-sm text-ink-muted" data-testid="review-signed-off">Not signed off: {entry ? `the entry is ${entry.status}` : "this revision has not been submitted for validation"}.</p>
         )}

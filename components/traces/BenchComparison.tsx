@@ -6,10 +6,11 @@
  */
 import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
-import { compareStep, shiftTime, type Comparison, type Tolerances } from "@/lib/traces/compare";
+import { cannotCompareReason, compareStep, shiftTime, type Comparison, type Tolerances } from "@/lib/traces/compare";
 import type { SimulatedStep } from "@/lib/design/review";
 import { formatEng } from "@/lib/units/eng";
 import { WavePlot } from "./WavePlot";
+import { ChannelCorrection } from "./ChannelCorrection";
 import { ComparisonTable } from "./ComparisonTable";
 
 export interface TraceMeta {
@@ -47,6 +48,10 @@ export function BenchComparison(props: {
   onResult?: (r: ComparisonResult | null) => void;
   initialTraceId?: string;
   readOnly?: boolean;
+  /** Designers and leads may correct a channel's unit and scale after upload (the server checks). */
+  canCorrect?: boolean;
+  /** Called after a correction is stored (e.g. to refresh the trace list). */
+  onCorrected?: () => void;
 }) {
   const { traces, step, tolerances, onResult } = props;
   const [traceId, setTraceId] = useState(props.initialTraceId ?? traces[0]?.id ?? "");
@@ -58,15 +63,18 @@ export function BenchComparison(props: {
   const [windowUs, setWindowUs] = useState<{ from: string; to: string }>({ from: "", to: "" });
   useEffect(() => setChannel(defaultChannel), [traceId, defaultChannel]);
 
-  const { data, error, isLoading } = useSWR<TraceSamples>(meta ? `/api/traces/${meta.id}` : null, fetchJson);
+  const { data, error, isLoading, mutate } = useSWR<TraceSamples>(meta ? `/api/traces/${meta.id}` : null, fetchJson);
 
   const measured = useMemo(() => {
     if (!data || !data.channels[channel]) return null;
     return { time: Float64Array.from(data.time), values: Float64Array.from(data.channels[channel].values), unit: data.channels[channel].unit };
   }, [data, channel]);
 
+  const unitProblem = measured ? cannotCompareReason(measured.unit) : null;
   const result = useMemo((): { ok: true; c: Comparison } | { ok: false; error: string } | null => {
     if (!measured) return null;
+    // No figures, and so no verdicts, for a channel whose numbers are not amperes.
+    if (cannotCompareReason(measured.unit)) return null;
     try {
       const from = windowUs.from.trim() === "" ? null : Number(windowUs.from);
       const to = windowUs.to.trim() === "" ? null : Number(windowUs.to);
@@ -76,7 +84,7 @@ export function BenchComparison(props: {
         from === null && to === null
           ? undefined
           : [from === null ? -Infinity : step.stepTime + from * 1e-6, to === null ? Infinity : step.stepTime + to * 1e-6];
-      const c = compareStep(measured, { time: step.time, values: step.iLoad }, { manualOffset: manualUs * 1e-6, simulatedEdge: step.stepTime, tolerances, window });
+      const c = compareStep(measured, { time: step.time, values: step.iLoad }, { manualOffset: manualUs * 1e-6, commandEdge: step.stepTime, tolerances, window });
       return { ok: true, c };
     } catch (e) {
       return { ok: false, error: e instanceof Error ? e.message : String(e) };
@@ -121,10 +129,18 @@ export function BenchComparison(props: {
           </fieldset>
         </div>
       )}
-      {measured && measured.unit !== "A" && (
-        <p role="note" className="text-sm text-verdict-warn" data-testid="unit-warning">
-          This channel is in {measured.unit || "no unit"}; the simulation is the load current in A. Upload it again with a
-          probe factor or the sense resistor so the two compare.
+      {props.canCorrect && !props.readOnly && data?.channels[channel] && (
+        <ChannelCorrection
+          key={`${meta.id}-${channel}`}
+          traceId={meta.id}
+          channel={channel}
+          current={data.channels[channel]}
+          onSaved={() => { void mutate(); props.onCorrected?.(); }}
+        />
+      )}
+      {unitProblem && (
+        <p role="alert" className="text-sm text-verdict-warn" data-testid="unit-warning">
+          Cannot compare: {unitProblem}
         </p>
       )}
       {isLoading && <p role="status" className="text-sm text-ink-muted">Loading the trace…</p>}
@@ -137,12 +153,20 @@ export function BenchComparison(props: {
             title="Load current: measured (aligned) over simulated"
             yUnit={measured.unit || "A"}
             xRange={[step.time[0], step.time[step.time.length - 1]]}
-            markers={[{ t: step.stepTime, label: "step" }]}
+            markers={[
+              { t: step.stepTime, label: "command edge" },
+              { t: result.c.simulatedEdge, label: "simulated 50 %" },
+              { t: result.c.measuredEdge + result.c.offset, label: "measured 50 %" },
+            ]}
             series={[
               { label: "Simulated load current", time: step.time, values: step.iLoad, color: "#0072B2" },
               { label: `Measured: ${meta.label}`, time: shiftTime(measured.time, result.c.offset), values: measured.values, color: "#D55E00" },
             ]}
           />
+          <p className="text-xs text-ink-muted num" data-testid="alignment-edges">
+            Edges: measured step (50 % between its pre-step and final levels) at {formatEng(result.c.measuredEdge, "s")} in the capture;
+            simulated 50 % crossing at {formatEng(result.c.simulatedEdge, "s")}, {formatEng(result.c.simulatedEdge - result.c.commandEdge, "s")} after the command edge at {formatEng(result.c.commandEdge, "s")}.
+          </p>
           <p className="text-xs text-ink-muted num">
             Alignment: automatic {formatEng(result.c.autoOffset, "s")} + hand {formatEng(manualUs * 1e-6, "s")} = {formatEng(result.c.offset, "s")};
             RMS window {formatEng(result.c.window[0], "s")} to {formatEng(result.c.window[1], "s")}.

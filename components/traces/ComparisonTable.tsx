@@ -33,8 +33,8 @@ export function ComparisonTable({ rows, verdict, testId = "comparison-table" }: 
           {rows.map((r) => (
             <tr key={r.key} className="border-b border-hairline/60" data-testid={`comparison-${r.key}`}>
               <td className="py-1 pr-2">{r.label}{r.note && <span className="ml-1 text-xs text-ink-muted">({r.note})</span>}</td>
-              <td className="num py-1 pr-2 text-right">{formatQuantity(r.measured, r.unit)}</td>
-              <td className="num py-1 pr-2 text-right">{r.key === "rms" ? "—" : formatQuantity(r.simulated, r.unit)}</td>
+              <td className="num py-1 pr-2 text-right">{r.key === "settlingTime" && r.measured === null ? "not within the record" : formatQuantity(r.measured, r.unit)}</td>
+              <td className="num py-1 pr-2 text-right">{r.key === "rms" ? "—" : r.key === "settlingTime" && r.simulated === null ? "not within the record" : formatQuantity(r.simulated, r.unit)}</td>
               <td className="num py-1 pr-2 text-right">
                 {r.difference === null ? "—" : `${r.difference >= 0 && r.key !== "rms" ? "+" : ""}${r.difference.toFixed(1)} ${r.differenceUnit === "pts" ? "pts" : "%"}`}
               </td>

@@ -8,12 +8,27 @@ import { parseTraceCsv, TraceParseError, type ChannelOption, type ParsedTrace, t
 import { formatEng } from "@/lib/units/eng";
 import { FIELD } from "@/components/shell/classes";
 
-type Convert = "keep" | "factor" | "sense";
+type Convert = "keep" | "A" | "mA" | "V" | "mV" | "factor" | "sense";
 interface ChannelForm { name: string; convert: Convert; value: string; unit: "" | "V" | "A" }
+
+/** What the numbers of a channel are: the choices of the upload form and of the correction after upload. */
+export const CONVERSIONS: { value: Convert; label: string }[] = [
+  { value: "keep", label: "as the file says" },
+  { value: "A", label: "already in amperes (A)" },
+  { value: "mA", label: "in milliamperes (mA)" },
+  { value: "V", label: "already in volts (V)" },
+  { value: "mV", label: "in millivolts (mV)" },
+  { value: "factor", label: "multiply by a probe factor" },
+  { value: "sense", label: "volts across a sense resistor → amps" },
+];
 
 function channelOption(c: ChannelForm): { option: ChannelOption; error: string | null } {
   const option: ChannelOption = {};
   if (c.name.trim()) option.name = c.name.trim();
+  if (c.convert === "A" || c.convert === "mA" || c.convert === "V" || c.convert === "mV") {
+    option.sourceUnit = c.convert;
+    return { option, error: null };
+  }
   if (c.convert !== "keep") {
     const v = Number(c.value);
     if (!Number.isFinite(v) || v === 0) return { option, error: c.convert === "sense" ? "Sense resistor: enter a resistance in Ω, not zero" : "Scale factor: enter a non-zero number" };
@@ -27,6 +42,8 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
   const [file, setFile] = useState<File | null>(null);
   const [text, setText] = useState<string | null>(null);
   const [label, setLabel] = useState("");
+  // The label follows the chosen file until the user types in it.
+  const [labelEdited, setLabelEdited] = useState(false);
   const [timeUnit, setTimeUnit] = useState("");
   const [channels, setChannels] = useState<ChannelForm[]>([]);
   const [settings, setSettings] = useState({ probe: "", verticalScale: "", timebase: "", bandwidthLimit: "", notes: "" });
@@ -59,7 +76,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
     setServerError(null);
     setDone(null);
     if (!f) { setText(null); return; }
-    if (!label) setLabel(f.name.replace(/\.[^.]+$/, ""));
+    if (!labelEdited) setLabel(f.name.replace(/\.[^.]+$/, ""));
     const t = await f.text();
     setText(t);
     try {
@@ -86,7 +103,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
       const body = await r.json().catch(() => ({}));
       if (!r.ok) { setServerError({ error: body.error ?? `Upload failed (HTTP ${r.status})`, problems: body.problems }); return; }
       setDone(`Stored “${body.label}”: ${body.sampleCount} samples.`);
-      setFile(null); setText(null); setLabel(""); setChannels([]);
+      setFile(null); setText(null); setLabel(""); setLabelEdited(false); setChannels([]);
       const input = document.getElementById("trace-file") as HTMLInputElement | null;
       if (input) input.value = "";
       onUploaded();
@@ -106,7 +123,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
         </label>
         <label className="flex flex-col text-sm">
           <span className="text-xs text-ink-muted">Label</span>
-          <input className={FIELD} value={label} onChange={(e) => setLabel(e.target.value)} maxLength={200} aria-label="Label" />
+          <input className={FIELD} value={label} onChange={(e) => { setLabel(e.target.value); setLabelEdited(true); }} maxLength={200} aria-label="Label" />
         </label>
         <label className="flex flex-col text-sm">
           <span className="text-xs text-ink-muted">Time unit</span>
@@ -126,12 +143,10 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
               </label>
               <label className="flex flex-col"><span className="text-xs text-ink-muted">Conversion</span>
                 <select className={FIELD} value={c.convert} aria-label={`Channel ${i + 1} conversion`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, convert: e.target.value as Convert } : x)))}>
-                  <option value="keep">keep as written</option>
-                  <option value="factor">multiply by a probe factor</option>
-                  <option value="sense">volts across a sense resistor → amps</option>
+                  {CONVERSIONS.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
                 </select>
               </label>
-              {c.convert !== "keep" && (
+              {(c.convert === "factor" || c.convert === "sense") && (
                 <label className="flex flex-col"><span className="text-xs text-ink-muted">{c.convert === "sense" ? "Sense resistor, Ω" : "Factor (e.g. 10 for 10 A/V)"}</span>
                   <input className={`${FIELD} num w-28`} value={c.value} inputMode="decimal" aria-label={c.convert === "sense" ? `Channel ${i + 1} sense resistor` : `Channel ${i + 1} factor`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, value: e.target.value } : x)))} />
                 </label>
@@ -166,7 +181,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
       {(serverError || (preview && !preview.ok)) && (
         <div role="alert" className="rounded border border-verdict-fail/30 bg-red-50 px-3 py-2 text-sm text-verdict-fail" data-testid="trace-error">
           {serverError?.error ?? (preview && !preview.ok ? preview.error : "")}
-          {problems.length > 1 && <ul className="mt-1 list-disc pl-5">{problems.slice(0, 10).map((p, i) => <li key={i}>{p.line > 0 ? `line ${p.line}: ` : ""}{p.message}</li>)}</ul>}
+          {problems.length > 1 && <ul className="mt-1 list-disc pl-5">{problems.slice(0, 10).map((p, i) => <li key={i}>{p.line > 0 ? `Line ${p.line}: ` : ""}{p.message}</li>)}</ul>}
         </div>
       )}
       {done && <p role="status" className="text-sm text-verdict-pass">{done}</p>}

@@ -176,7 +176,7 @@ export function TracesWorkspace(p: WorkspaceProps) {
         <h2 className="mb-2 font-semibold">Measured against simulated</h2>
         {sim.status === "running" && <p role="status" className="text-sm text-ink-muted">Simulating the step response…</p>}
         {sim.status === "error" && <p role="alert" className="text-sm text-verdict-fail">{sim.error}</p>}
-        {sim.status === "done" && <BenchComparison traces={p.traces} step={sim.sim.step} tolerances={p.tolerances} onResult={onResult} />}
+        {sim.status === "done" && <BenchComparison traces={p.traces} step={sim.sim.step} tolerances={p.tolerances} onResult={onResult} canCorrect={p.canUpload} onCorrected={() => router.refresh()} />}
       </section>
     </div>
   );

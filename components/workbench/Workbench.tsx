@@ -4,7 +4,7 @@
  * with the studies drawer at the bottom. Owns the live runner and the study pool for the page's lifetime.
  */
 import Link from "next/link";
-import { useEffect, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
 import { compileNetlistJson } from "@/lib/design/compile";
 import { TEMPLATES } from "@/lib/design/templates";
@@ -22,6 +22,8 @@ import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
 import { SaveControl, type SaveFn } from "./SaveControl";
 import { TOOL_BUTTON } from "@/components/shell/classes";
+import { alignCapture } from "@/lib/traces/compare";
+import { useLatestTrace } from "./useLatestTrace";
 
 export interface WorkbenchProps {
   scenario: Scenario;
@@ -145,14 +147,45 @@ function closedMarkers(closed: LiveResult["closed"]): Marker[] | undefined {
   return m;
 }
 
-function ResponseZone() {
+/**
+ * The latest bench trace over the simulated step (a toggle), aligned as the bench comparison aligns it: the capture's
+ * 50 % edge on the simulation's after the command edge.
+ */
+function useBenchOverlay(scenarioId: string | null, on: boolean) {
+  const current = useWb((s) => s.run.current);
+  const stepTime = useWb((s) => s.scenario.stimulus.stepTime);
+  const latest = useLatestTrace(scenarioId, on);
+  return useMemo(() => {
+    if (latest.status !== "done" || !current?.step) return { overlay: null, note: latest.status === "none" ? "No bench trace in amperes yet." : latest.status === "error" ? `Bench trace: ${latest.error}` : latest.status === "loading" ? "Loading the bench trace…" : null };
+    try {
+      const t = latest.trace;
+      const aligned = alignCapture({ time: t.time, values: t.values }, { time: current.step.time, values: current.step.iLoad }, stepTime);
+      return { overlay: { time: aligned.time, values: t.values, label: `${t.label} (${t.channel}), aligned ${formatEng(aligned.offset, "s")}` }, note: null };
+    } catch (e) {
+      return { overlay: null, note: `Bench trace not drawn: ${(e as Error).message}` };
+    }
+  }, [latest, current, stepTime]);
+}
+
+function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
   const current = useWb((s) => s.run.current);
   const previous = useWb((s) => s.run.previous);
   const [tab, setTab] = useState<"closed" | "zout">("closed");
+  const [bench, setBench] = useState(false);
+  const overlay = useBenchOverlay(scenarioId, bench);
   return (
     <div className="space-y-2">
       <RunError />
-      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} />
+      {scenarioId && (
+        <div className="flex items-center gap-3 text-[12px] text-ink-muted">
+          <label className="flex items-center gap-1">
+            <input type="checkbox" checked={bench} onChange={(e) => setBench(e.target.checked)} aria-label="Show the latest bench trace" data-testid="bench-overlay-toggle" />
+            Show the latest bench trace
+          </label>
+          {overlay.note && <span role="status" data-testid="bench-overlay-note">{overlay.note}</span>}
+        </div>
+      )}
+      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} measured={bench ? overlay.overlay : null} />
       <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB"
         second={current?.loop?.local !== undefined && current?.loop?.local !== null ? { label: "local op-amp loop", bode: current.loop.local } : null} />
       <div>
@@ -258,7 +291,7 @@ function WorkbenchInner(props: WorkbenchProps) {
         </section>
         <section aria-label="Response" className="min-w-0 md:max-h-[calc(100vh-11rem)] xl:max-h-[calc(100vh-9rem)] md:overflow-y-auto">
           <h2 className="sr-only">Response</h2>
-          <ResponseZone />
+          <ResponseZone scenarioId={props.scenarioId} />
         </section>
         <section aria-label="Verdict" className="min-w-0 space-y-3 md:col-span-2 xl:col-span-1 xl:max-h-[calc(100vh-9rem)] xl:overflow-y-auto">
           <h2 className="sr-only">Verdict</h2>

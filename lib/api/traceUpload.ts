@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { readLimitedBytes } from "./body";
 import { controlCharacterMessage, hasControlCharacters, storedText } from "@/lib/shared/text";
-import { MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
+import { describeProblems, MAX_TRACE_BYTES, MAX_TRACE_CHANNELS, parseTraceCsv, TraceParseError, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 
 /** Largest multipart request, bytes: the file limit plus room for the other fields. */
 export const MAX_UPLOAD_BYTES = MAX_TRACE_BYTES + 64 * 1024;
@@ -96,7 +96,7 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
     return { ok: false, status: 400, error: first, fieldErrors };
   }
   if (file.size > MAX_TRACE_BYTES) {
-    return { ok: false, status: 413, error: `the file is ${(file.size / 1048576).toFixed(1)} MB; the limit is ${(MAX_TRACE_BYTES / 1048576).toFixed(1)} MB` };
+    return { ok: false, status: 413, error: `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is ${(MAX_TRACE_BYTES / 1048576).toFixed(1)} MB.` };
   }
   const text = await file.text();
   try {
@@ -107,7 +107,7 @@ export async function readTraceUpload(req: Request, maxBytes = MAX_UPLOAD_BYTES)
     }
     return { ok: true, label: label || file.name, fileName: file.name, revisionId, options: options.value, settings: settings.value, parsed };
   } catch (e) {
-    if (e instanceof TraceParseError) return { ok: false, status: 400, error: `${file.name}: ${e.message}`, problems: e.problems };
+    if (e instanceof TraceParseError) return { ok: false, status: 400, error: describeProblems(e.problems, file.name), problems: e.problems };
     throw e;
   }
 }

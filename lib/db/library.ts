@@ -78,6 +78,20 @@ export const submitSchema = z.object({
 });
 export type SubmitInput = z.infer<typeof submitSchema>;
 
+/**
+ * What is wrong with an entry's evidence for validation, or null when every attached trace was compared and none
+ * failed: a comparison whose overall verdict is FAIL, or a trace without a comparison.
+ */
+export function evidenceProblem(evidence: Evidence): string | null {
+  const failed = evidence.comparisons.filter((c) => c.verdict === "fail");
+  if (failed.length) return `${failed.length === 1 ? "a comparison" : `${failed.length} comparisons`} of the bench evidence failed`;
+  const compared = new Set(evidence.comparisons.map((c) => c.traceId));
+  const missing = evidence.traceIds.filter((id) => !compared.has(id));
+  if (evidence.comparisons.length === 0) return "the bench evidence has no comparison with the simulation";
+  if (missing.length) return `${missing.length === 1 ? "a bench trace has" : `${missing.length} bench traces have`} no comparison with the simulation`;
+  return null;
+}
+
 export interface Evidence {
   traceIds: string[];
   comparisons: ComparisonSummary[];
@@ -106,6 +120,8 @@ export interface LibraryEntrySummary {
   validatedBy: string | null;
   validatedByName: string | null;
   validatedAt: string | null;
+  /** The lead's written reason for validating against failing or missing evidence; null otherwise. */
+  overrideReason: string | null;
   updatedAt: string;
 }
 
@@ -164,6 +180,7 @@ function toSummary(r: Record<string, any>): LibraryEntrySummary {
     validatedBy: r.validated_by,
     validatedByName: r.validated_by_name,
     validatedAt: iso(r.validated_at),
+    overrideReason: r.override_reason ?? null,
     updatedAt: iso(r.updated_at)!,
   };
 }
@@ -343,6 +360,7 @@ export async function writeSubmission(
     submitted_at: trx.fn.now(),
     validated_by: null,
     validated_at: null,
+    override_reason: null,
     updated_at: trx.fn.now(),
   };
   if (at.existingId) {
@@ -362,9 +380,11 @@ export function entryInTeam(trx: Knex.Transaction, teamId: string, entryId: stri
 }
 
 /** Sets an entry's status; `validatedBy` records who validated it, and when. */
-export async function setEntryStatus(trx: Knex.Transaction, entryId: string, status: LibraryStatus, validatedBy?: string): Promise<void> {
+export async function setEntryStatus(
+  trx: Knex.Transaction, entryId: string, status: LibraryStatus, validatedBy?: string, overrideReason: string | null = null,
+): Promise<void> {
   const patch: Record<string, unknown> = { status, updated_at: trx.fn.now() };
-  if (validatedBy) Object.assign(patch, { validated_by: validatedBy, validated_at: trx.fn.now() });
+  if (validatedBy) Object.assign(patch, { validated_by: validatedBy, validated_at: trx.fn.now(), override_reason: overrideReason });
   await trx("library_entries").where({ id: entryId }).update(patch);
 }
 

@@ -45,6 +45,8 @@ export interface TraceSummary {
   createdAt: string;
   /** Time span of the record, s. */
   duration: number;
+  /** Version of the channel settings: 0 as uploaded, then one more per correction (bench_trace_settings). */
+  settingsVersion: number;
 }
 
 export interface TraceData extends TraceSummary {
@@ -63,12 +65,13 @@ function summaryFrom(r: Record<string, any>): TraceSummary {
     label: r.label,
     fileName: r.file_name,
     sampleCount: r.sample_count,
-    channels: r.channels,
+    channels: r.corrected_channels ?? r.channels,
     settings: r.settings ?? {},
     uploaderId: r.uploader_id,
     uploaderName: r.uploader_name,
     createdAt: new Date(r.created_at).toISOString(),
     duration: Number(r.duration ?? 0),
+    settingsVersion: Number(r.settings_version ?? 0),
   };
 }
 
@@ -84,6 +87,9 @@ function summaryQuery(trx: Knex | Knex.Transaction) {
     .select(
       ...SUMMARY_COLUMNS,
       // Last time sample minus the first, read from the stored bytes (float8send is big-endian, so decode in JS instead).
+      // The latest correction of the channel settings, if any (the samples are rescaled on reading: getTrace).
+      trx.raw("(select s.channels from bench_trace_settings s where s.trace_id = t.id order by s.version desc limit 1) as corrected_channels"),
+      trx.raw("(select max(s.version) from bench_trace_settings s where s.trace_id = t.id) as settings_version"),
       trx.raw("octet_length(t.time_data) as time_bytes"),
       trx.raw("substring(t.time_data from 1 for 8) as t_first"),
       trx.raw("substring(t.time_data from octet_length(t.time_data) - 7 for 8) as t_last"),
@@ -174,8 +180,55 @@ export async function getTrace(actor: CurrentUser, id: string): Promise<TraceDat
   const summary = withDuration(row);
   const n = summary.sampleCount;
   const time = decodeFloat64(row.time_data, 0, n);
-  const values = summary.channels.map((_, c) => decodeFloat64(row.value_data, c * n * 8, n));
+  const uploaded = row.channels as TraceChannelMeta[];
+  const values = summary.channels.map((ch, c) => {
+    const v = decodeFloat64(row.value_data, c * n * 8, n);
+    // Stored as the file's numbers × the upload's scale; a correction changes the scale, not the stored samples.
+    const ratio = ch.scale / uploaded[c].scale;
+    if (ratio !== 1) for (let i = 0; i < n; i++) v[i] *= ratio;
+    return v;
+  });
   return { ...summary, time, values };
+}
+
+/**
+ * Corrects one channel's unit and scale after upload, without the file: a new version of the trace's channel
+ * settings (bench_trace_settings), audited. Designers and leads of the team; not while the trace is evidence of a
+ * submitted or validated library entry (the reviewer judged the figures as they were).
+ */
+export async function correctTraceChannel(
+  actor: CurrentUser, id: string, channel: number, correction: { unit: string; sourceUnit: string; scale: number },
+): Promise<TraceSummary> {
+  if (!roleAtLeast(actor.role, "designer")) throw new DomainError(403, "Viewers cannot change bench traces.");
+  if (!isUuid(id)) throw new DomainError(404, "No such trace.");
+  if (!Number.isFinite(correction.scale) || correction.scale === 0) throw new DomainError(400, "scale: a finite, non-zero number.");
+  return db().transaction(async (trx) => {
+    const t = await trx("bench_traces").where({ id, team_id: actor.teamId }).forUpdate().first("id", "channels", "scenario_id", "label");
+    if (!t) throw new DomainError(404, "No such trace.");
+    const inUse = await trx("library_entries")
+      .where({ team_id: actor.teamId })
+      .whereIn("status", ["submitted", "validated"])
+      .whereRaw("evidence->'traceIds' \\? ?", [id])
+      .first("id", "status");
+    if (inUse) throw new DomainError(409, `This trace is evidence of a ${inUse.status} library entry; its units stay as the reviewer saw them.`);
+    const latest = await trx("bench_trace_settings").where({ trace_id: id }).orderBy("version", "desc").first("version", "channels");
+    const current = (latest?.channels ?? t.channels) as TraceChannelMeta[];
+    if (!Number.isInteger(channel) || channel < 0 || channel >= current.length) {
+      throw new DomainError(400, `channel: the trace has ${current.length} channel${current.length === 1 ? "" : "s"} (0 to ${current.length - 1}).`);
+    }
+    const before = current[channel];
+    const channels = current.map((c, i) => (i === channel ? { ...c, unit: correction.unit, sourceUnit: correction.sourceUnit, scale: correction.scale } : c));
+    const version = (latest?.version ?? 0) + 1;
+    await trx("bench_trace_settings").insert({ trace_id: id, version, channels: JSON.stringify(channels), actor_id: actor.id });
+    await audit(
+      {
+        teamId: actor.teamId, actorId: actor.id, action: "trace.correct_units", subjectType: "bench_trace", subjectId: id,
+        detail: { scenarioId: t.scenario_id, channel, version, from: { unit: before.unit, sourceUnit: before.sourceUnit, scale: before.scale }, to: correction },
+      },
+      trx,
+    );
+    return withDuration(await summaryQuery(trx).where("t.id", id).first());
+  });
 }
 
 /**

@@ -21,7 +21,7 @@ export {
   dampingFromPhaseMargin,
 } from "./metrics";
 export type { StepMetrics, LoopMetrics } from "./metrics";
-export { estimateRinging, matrixPencil, fftPeakHz, peakSpacing } from "./ringing";
+export { estimateRinging, matrixPencil, fftPeakHz, crossingSpacing, noiseSigma } from "./ringing";
 export type { RingingEstimate } from "./ringing";
 export {
   runChecks, accuracyBudget, worstDissipation, dissipationMaximum, junctionTemperature, baseCurrentError, effectiveBeta,

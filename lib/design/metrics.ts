@@ -2,7 +2,7 @@
  * Reducing waveforms to the numbers a design is judged by: step metrics from a transient, stability margins from a
  * loop gain, bandwidth from a closed-loop response, and the second-order relations that link them.
  */
-import { estimateRinging, type RingingEstimate } from "./ringing";
+import { estimateRinging, NO_RINGING, type RingingEstimate } from "./ringing";
 
 export interface StepMetrics {
   /* For a disturbance (load or supply step) the percentages and bands refer to the final value: see disturbanceMetrics. */
@@ -20,6 +20,10 @@ export interface StepMetrics {
   settlingTime01pct: number | null;
   /** false when the response has not settled within ±1 % by the end of the record (settlingTime1pct is then null) */
   settled: boolean;
+  /** settling band asked for (`settleBand` option, default 0.01 = ±1 %), as a fraction of the step */
+  settleBand: number;
+  /** time from the step after which the response stays within ±settleBand; null when not within the record */
+  settlingTime: number | null;
   /** final minus target, as a fraction of the target (null without a target) */
   steadyStateError: number | null;
   ringing: RingingEstimate;
@@ -71,7 +75,11 @@ export function stepMetrics(
   t: ArrayLike<number>,
   y: ArrayLike<number>,
   tStep: number,
-  opts: { initial?: number; final?: number; target?: number; disturbance?: boolean } = {},
+  opts: {
+    initial?: number; final?: number; target?: number; disturbance?: boolean;
+    /** settling band for `settlingTime`, fraction of the step (the team's tolerance; default 0.01) */
+    settleBand?: number;
+  } = {},
 ): StepMetrics {
   if (opts.disturbance) return disturbanceMetrics(t, y, tStep, opts);
   const n = t.length;
@@ -90,12 +98,11 @@ export function stepMetrics(
   const step = final - initial;
   const rising = step >= 0;
   const steadyStateError = opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null;
-  const emptyRinging: RingingEstimate = {
-    frequencyHz: null, dampingRatio: null, peakSpacingHz: null, logDecrementDamping: null, fftHz: null, pencilHz: null, pencilDamping: null,
-  };
+  const emptyRinging: RingingEstimate = NO_RINGING;
+  const settleBand = opts.settleBand ?? 0.01;
   if (step === 0 || !Number.isFinite(step)) {
     return {
-      initial, final, riseTime: null, overshootPct: 0, peakTime: null, settlingTime1pct: 0, settlingTime01pct: 0, settled: true, steadyStateError,
+      initial, final, riseTime: null, overshootPct: 0, peakTime: null, settlingTime1pct: 0, settlingTime01pct: 0, settled: true, settleBand, settlingTime: 0, steadyStateError,
       ringing: emptyRinging,
     };
   }
@@ -131,9 +138,11 @@ export function stepMetrics(
   const band = Math.abs(step);
   const settlingTime1pct = settleTime(t, y, i0, final, 0.01 * band, tStep);
   const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * band, tStep);
+  const settlingTime = settleBand === 0.01 ? settlingTime1pct : settleTime(t, y, i0, final, settleBand * band, tStep);
   const ringing = overshootPct > 0.05 ? estimateRinging(t, y, final, peakT) : emptyRinging;
   return {
-    initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, settled: settlingTime1pct !== null, steadyStateError,
+    initial, final, riseTime, overshootPct, peakTime, settlingTime1pct, settlingTime01pct, settled: settlingTime1pct !== null, settleBand, settlingTime,
+    steadyStateError,
     ringing,
   };
 }
@@ -147,7 +156,7 @@ export function disturbanceMetrics(
   t: ArrayLike<number>,
   y: ArrayLike<number>,
   tStep: number,
-  opts: { initial?: number; final?: number; target?: number } = {},
+  opts: { initial?: number; final?: number; target?: number; settleBand?: number } = {},
 ): StepMetrics {
   const n = t.length;
   if (n < 3 || y.length !== n) throw new RangeError("disturbanceMetrics needs matching time and value arrays of 3 or more samples");
@@ -167,9 +176,9 @@ export function disturbanceMetrics(
   const deviation = Math.abs(y[ip] - final);
   const settlingTime1pct = settleTime(t, y, i0, final, 0.01 * scale, tStep);
   const settlingTime01pct = settleTime(t, y, i0, final, 0.001 * scale, tStep);
-  const ringing = deviation > 0.0005 * scale ? estimateRinging(t, y, final, t[ip]) : {
-    frequencyHz: null, dampingRatio: null, peakSpacingHz: null, logDecrementDamping: null, fftHz: null, pencilHz: null, pencilDamping: null,
-  };
+  const settleBand = opts.settleBand ?? 0.01;
+  const settlingTime = settleBand === 0.01 ? settlingTime1pct : settleTime(t, y, i0, final, settleBand * scale, tStep);
+  const ringing = deviation > 0.0005 * scale ? estimateRinging(t, y, final, t[ip]) : NO_RINGING;
   return {
     initial,
     final,
@@ -179,6 +188,8 @@ export function disturbanceMetrics(
     settlingTime1pct,
     settlingTime01pct,
     settled: settlingTime1pct !== null,
+    settleBand,
+    settlingTime,
     steadyStateError: opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null,
     ringing,
   };

@@ -8,7 +8,7 @@ import "server-only";
 import { isUuid } from "@/lib/db/users";
 import {
   entryInTeam, entryOwnerAndNumber, entryWithRevision, insertScenarioFromEntry, libraryTransaction, lockEntryOfRevision, recordEvent,
-  revisionOfScenario, scenarioInTeam, setEntryStatus, teamLeads, traceRevisionsForShare, usersByIds, writeSubmission,
+  revisionOfScenario, scenarioInTeam, setEntryStatus, teamLeads, traceRevisionsForShare, usersByIds, writeSubmission, evidenceProblem,
   type Evidence, type SubmitInput,
 } from "@/lib/db/library";
 import { DomainError } from "@/lib/errors";
@@ -95,11 +95,18 @@ export function actionForStatus(current: LibraryStatus, target: LibraryStatus): 
   return null;
 }
 
+/** Shortest written reason for validating against failing or missing evidence, characters. */
+export const MIN_OVERRIDE_REASON = 10;
+
 /**
  * Validate, return (with comments), retire or withdraw an entry. Validate, return and retire are for leads only;
  * the submitter may withdraw their own submission. The submitter (and the scenario owner) are told by mail.
+ * Validating an entry whose comparison failed or is missing needs `overrideReason`: the lead's written reason, stored
+ * on the entry, in its history and the audit log, and in the mail.
  */
-export async function changeEntryStatus(actor: CurrentUser, entryId: string, action: LibraryAction, comment = ""): Promise<WorkflowResult> {
+export async function changeEntryStatus(
+  actor: CurrentUser, entryId: string, action: LibraryAction, comment = "", overrideReason?: string,
+): Promise<WorkflowResult> {
   const t = TRANSITIONS[action];
   if (!t) throw new DomainError(400, `action: unknown action "${action}".`);
   if (!isUuid(entryId)) throw new DomainError(404, "No such library entry.");
@@ -114,22 +121,38 @@ export async function changeEntryStatus(actor: CurrentUser, entryId: string, act
       throw new DomainError(403, "Only the submitter or a lead can withdraw a submission.");
     }
     if (!t.from.includes(e.status)) throw new DomainError(409, `The entry is ${e.status}; it cannot be ${t.verb === "withdrew" ? "withdrawn" : t.verb} from there.`);
-    await setEntryStatus(trx, entryId, t.to, action === "validate" ? actor.id : undefined);
-    await recordEvent(trx, actor, entryId, action === "withdraw" ? "withdrawn" : t.verb, e.status, t.to, text);
-    return { e, ...(await entryOwnerAndNumber(trx, e)) };
+    let override: { reason: string; problem: string } | null = null;
+    if (action === "validate") {
+      const problem = evidenceProblem({ traceIds: [], comparisons: [], ...(e.evidence ?? {}) } as Evidence);
+      if (problem) {
+        const reason = (overrideReason ?? "").trim().slice(0, 4000);
+        if (reason.length < MIN_OVERRIDE_REASON) {
+          throw new DomainError(400, `overrideReason: ${problem}; validating it anyway needs an override with a written reason (at least ${MIN_OVERRIDE_REASON} characters).`);
+        }
+        override = { reason, problem };
+      }
+    }
+    await setEntryStatus(trx, entryId, t.to, action === "validate" ? actor.id : undefined, override?.reason ?? null);
+    await recordEvent(
+      trx, actor, entryId, action === "withdraw" ? "withdrawn" : override ? "validated_with_override" : t.verb, e.status, t.to, text,
+      override ? { override: true, overrideReason: override.reason, evidenceProblem: override.problem } : {},
+    );
+    return { e, override, ...(await entryOwnerAndNumber(trx, e)) };
   });
   const concerned = others(
     [...(await usersByIds([r.e.submitted_by, r.ownerId])), ...(action === "withdraw" || action === "retire" ? await teamLeads(actor.teamId) : [])],
     actor,
   );
   const headline: Record<LibraryAction, string> = {
-    validate: `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
+    validate: r.override
+      ? `${actor.name} validated “${r.e.title}” revision ${r.number} with an override: ${r.override.problem}. Reason given: “${r.override.reason}”. The library marks it as validated against its evidence.`
+      : `${actor.name} validated “${r.e.title}” revision ${r.number}: it is now a trusted starting point in the library.`,
     return: `${actor.name} returned “${r.e.title}” revision ${r.number} with comments.`,
     retire: `${actor.name} retired “${r.e.title}” revision ${r.number} from the library.`,
     withdraw: `${actor.name} withdrew “${r.e.title}” revision ${r.number} from validation.`,
   };
   const subject: Record<LibraryAction, string> = {
-    validate: `Validated: ${r.e.title} rev ${r.number}`,
+    validate: r.override ? `Validated with an override: ${r.e.title} rev ${r.number}` : `Validated: ${r.e.title} rev ${r.number}`,
     return: `Returned with comments: ${r.e.title} rev ${r.number}`,
     retire: `Retired: ${r.e.title} rev ${r.number}`,
     withdraw: `Withdrawn: ${r.e.title} rev ${r.number}`,

@@ -1,5 +1,4 @@
 /** Bench traces: parse scope exports, measure steps, compare with simulation. Pure; browser and server. */
 export * from "./units";
 export * from "./parse";
-export * from "./metrics";
 export * from "./compare";

@@ -72,13 +72,24 @@ export interface TraceProblem {
 export class TraceParseError extends Error {
   readonly problems: TraceProblem[];
   constructor(problems: TraceProblem[]) {
-    const first = problems[0];
-    const where = first.line > 0 ? `line ${first.line}: ` : "";
-    const more = problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? "s" : ""})` : "";
-    super(`${where}${first.message}${more}`);
+    super(describeProblems(problems));
     this.name = "TraceParseError";
     this.problems = problems;
   }
+}
+
+/**
+ * The first problem as a sentence that starts with a capital: "Line 3 of bench.csv: column 2 (CH1): "abc" is not a
+ * number (and 2 more problems)." The file name is optional.
+ */
+export function describeProblems(problems: TraceProblem[], fileName?: string): string {
+  const first = problems[0];
+  const more = problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? "s" : ""})` : "";
+  const of = fileName ? ` of ${fileName}` : "";
+  const text = first.line > 0
+    ? `Line ${first.line}${of}: ${first.message}`
+    : `${fileName ? `${fileName}: ` : ""}${first.message.charAt(0).toUpperCase()}${first.message.slice(1)}`;
+  return `${text}${more}${/[.!?]$/.test(text + more) ? "" : "."}`;
 }
 
 export function isTraceParseError(e: unknown): e is TraceParseError {
@@ -160,6 +171,42 @@ function detectDelimiter(lines: string[]): string | null {
 }
 
 /**
+ * When no delimiter splits the file's last lines alike: the first line that breaks the columns. With a delimiter that
+ * splits most lines into two or more fields, the first line after the first such line whose field count differs;
+ * with none (a one-column file), the first non-empty line.
+ */
+function firstLineWithoutColumns(lines: string[]): TraceProblem {
+  const expected = "expected a time column and at least one channel separated by commas, semicolons or tabs";
+  let best: { d: string; width: number; count: number } | null = null;
+  for (const d of ["\t", ";", ","]) {
+    const freq = new Map<number, number>();
+    for (const l of lines) {
+      if (l.trim() === "") continue;
+      const n = l.replace(/\s+$/, "").split(d).length;
+      if (n >= 2) freq.set(n, (freq.get(n) ?? 0) + 1);
+    }
+    for (const [width, count] of freq) if (!best || count > best.count) best = { d, width, count };
+  }
+  const quote = (l: string) => `“${l.trim().slice(0, 40)}${l.trim().length > 40 ? "…" : ""}”`;
+  if (!best) {
+    const i = lines.findIndex((l) => l.trim() !== "");
+    return { line: i + 1, message: `${quote(lines[i])} is a single column: ${expected}` };
+  }
+  const name = best.d === "\t" ? "tabs" : best.d === ";" ? "semicolons" : "commas";
+  let seen = false;
+  for (let i = 0; i < lines.length; i++) {
+    const l = lines[i];
+    if (l.trim() === "") continue;
+    const n = l.replace(/\s+$/, "").split(best.d).length;
+    if (n === best.width) { seen = true; continue; }
+    if (seen || n < best.width) {
+      return { line: i + 1, message: `${quote(l)} has ${n} field${n === 1 ? "" : "s"} where the lines around it have ${best.width} separated by ${name}` };
+    }
+  }
+  return { line: 0, message: `no column delimiter found: ${expected}` };
+}
+
+/**
  * Parse an oscilloscope CSV export. Throws `TraceParseError` (naming the line and the problem) when the file
  * cannot be read; returns the time column in seconds and each channel scaled to SI units.
  */
@@ -182,11 +229,7 @@ export function parseTraceCsv(text: string, options: TraceParseOptions = {}): Pa
   const headText = body.slice(0, headEnd);
   const headLines = headText.split(/\r\n|\n|\r/);
   const delimiter = detectDelimiter(lastLines(body, 20));
-  if (!delimiter) {
-    throw new TraceParseError([
-      { line: lineCount, message: "no column delimiter found: expected a time column and at least one channel separated by commas, semicolons or tabs" },
-    ]);
-  }
+  if (!delimiter) throw new TraceParseError([firstLineWithoutColumns(headLines)]);
   const decimalComma = delimiter !== ",";
 
   // One line per row: with quotes only around single-line headings, papaparse's row index is the line index.

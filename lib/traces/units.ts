@@ -46,7 +46,7 @@ export function parseUnit(text: string): ParsedUnit | null {
   return null;
 }
 
-/** Split a column heading into its label and unit: "Time (ms)", "CH1 [mV]", "Time/s", "Current(A)". */
+/** Split a column heading into its label and unit: "Time (ms)", "CH1 [mV]", "Time/s", "Current(A)", "coil_current_A". */
 export function splitHeading(heading: string): { label: string; unit: ParsedUnit | null } {
   const h = heading.trim().replace(/^"|"$/g, "");
   const bracket = /^(.*?)\s*[([]\s*([^)\]]+?)\s*[)\]]\s*$/.exec(h);
@@ -58,6 +58,13 @@ export function splitHeading(heading: string): { label: string; unit: ParsedUnit
   if (slash) {
     const unit = parseUnit(slash[2]);
     if (unit) return { label: slash[1] || h, unit };
+  }
+  // A unit as the last word after an underscore ("coil_current_A", "current_mA"): only the exact SI spelling, so
+  // "channel_a" or "phase_v" are not read as amperes or volts (nor "Ch A", with a space, as amperes).
+  const suffix = /^(.+?)_+((?:p|n|u|µ|μ|m|k)?(?:s|V|A))$/.exec(h);
+  if (suffix) {
+    const unit = parseUnit(suffix[2]);
+    if (unit) return { label: suffix[1], unit };
   }
   return { label: h, unit: null };
 }
@@ -71,3 +78,19 @@ export function isUnitsRow(cells: string[]): boolean {
 /** Time units offered in the upload form, with their factor to seconds. */
 export const TIME_UNITS = { s: 1, ms: 1e-3, "µs": 1e-6, ns: 1e-9 } as const;
 export type TimeUnitName = keyof typeof TIME_UNITS;
+
+/** Units a channel's numbers may be written in, for the correction after upload ("" = as written, no unit). */
+export const CHANNEL_SOURCE_UNITS = ["A", "mA", "µA", "V", "mV", "µV", ""] as const;
+export type ChannelSourceUnit = (typeof CHANNEL_SOURCE_UNITS)[number];
+
+/**
+ * A channel's settings from what the user says of it: the file's numbers are in `sourceUnit`, and `scale` (a probe's
+ * A/V, or 1/R of a sense resistor) turns them into `unit` (default: the source unit's base). Returns the unit of the
+ * stored values and the total factor from the file's numbers to them.
+ */
+export function channelSettings(sourceUnit: ChannelSourceUnit, scale = 1, unit?: "A" | "V"): { unit: string; sourceUnit: string; scale: number } {
+  if (!Number.isFinite(scale) || scale === 0) throw new RangeError("scale: a finite, non-zero number.");
+  const parsed = sourceUnit === "" ? null : parseUnit(sourceUnit);
+  if (sourceUnit !== "" && (!parsed || parsed.base === "s")) throw new RangeError(`sourceUnit: "${sourceUnit}" is not a voltage or current unit.`);
+  return { unit: unit ?? parsed?.base ?? "", sourceUnit, scale: (parsed?.factor ?? 1) * scale };
+}

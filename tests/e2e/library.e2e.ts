@@ -91,7 +91,7 @@ describe("library: upload, submit, validate, review", () => {
     await page.locator('[data-testid="trace-upload"][data-ready="1"]').waitFor();
     await page.getByLabel("CSV file").setInputFiles(broken);
     await page.getByTestId("trace-error").waitFor();
-    expect(await page.getByTestId("trace-error").textContent()).toContain('line 10: column 2 (CH1): "n/a" is not a number');
+    expect(await page.getByTestId("trace-error").textContent()).toContain('Line 10: column 2 (CH1): "n/a" is not a number.');
     expect(await page.getByRole("button", { name: "Upload trace" }).isDisabled()).toBe(true);
 
     await page.getByLabel("CSV file").setInputFiles(csvPath);

@@ -362,7 +362,17 @@ async function submittedEntry(): Promise<{ entryId: string; scenarioId: string }
   const s = await createScenario(f.designer, { title: "Entry target", template: "sink-npn" });
   const t = await uploadTrace(f.designer, s.id);
   const traceId = ((await t.json()) as { id: string }).id;
-  const r = await submitForValidation(f.designer, s.id, { note: "bench", traceIds: [traceId], keyFigures: {}, comparisons: [] });
+  // a passing comparison: validating needs no override
+  const r = await submitForValidation(f.designer, s.id, { note: "bench", traceIds: [traceId], keyFigures: {}, comparisons: [{ traceId, channel: 0, offset: 0, verdict: "pass", rows: [] }] });
+  return { entryId: r.entryId, scenarioId: s.id };
+}
+
+/** The same with a failing comparison: validating it needs an override with a written reason. */
+async function failingEntry(): Promise<{ entryId: string; scenarioId: string }> {
+  const s = await createScenario(f.designer, { title: "Failing target", template: "sink-npn" });
+  const t = await uploadTrace(f.designer, s.id);
+  const traceId = ((await t.json()) as { id: string }).id;
+  const r = await submitForValidation(f.designer, s.id, { note: "bench", traceIds: [traceId], keyFigures: {}, comparisons: [{ traceId, channel: 0, offset: 0, verdict: "fail", rows: [] }] });
   return { entryId: r.entryId, scenarioId: s.id };
 }
 
@@ -383,6 +393,14 @@ const libraryCases: Case[] = [
     call: async (a) => {
       const id = await designerTrace();
       return traceRoute.GET(await request("GET", `/api/traces/${id}`, a), ctx({ id }));
+    },
+  },
+  {
+    name: "PATCH /api/traces/[id] (correct a channel's unit)",
+    expect: { anonymous: 401, viewer: 403, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await designerTrace();
+      return traceRoute.PATCH(await request("PATCH", `/api/traces/${id}`, a, { channel: 0, sourceUnit: "mA" }), ctx({ id }));
     },
   },
   {
@@ -420,6 +438,22 @@ const libraryCases: Case[] = [
     expect: { anonymous: 401, viewer: 403, designer: 403, lead: 200, outsider: 404 },
     call: async (a) => {
       const { entryId } = await submittedEntry();
+      return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { status: "validated" }), ctx({ id: entryId }));
+    },
+  },
+  {
+    name: "PATCH /api/library/[id] { status: validated, overrideReason } (failing evidence)",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await failingEntry();
+      return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { status: "validated", overrideReason: "Probe setting was wrong on the bench." }), ctx({ id: entryId }));
+    },
+  },
+  {
+    name: "PATCH /api/library/[id] { status: validated } without a reason (failing evidence)",
+    expect: { anonymous: 401, viewer: 403, designer: 403, lead: 400, outsider: 404 },
+    call: async (a) => {
+      const { entryId } = await failingEntry();
       return libraryEntry.PATCH(await request("PATCH", `/api/library/${entryId}`, a, { status: "validated" }), ctx({ id: entryId }));
     },
   },

@@ -80,7 +80,7 @@ describe("bench-trace upload API", () => {
     const r = await upload("designer", f.scenarioId, lines.join("\n"));
     expect(r.status).toBe(400);
     const body = await r.json();
-    expect(body.error).toBe('bench.csv: line 18: column 2 (I): "seven hundred" is not a number');
+    expect(body.error).toBe('Line 18 of bench.csv: column 2 (I): "seven hundred" is not a number.');
     expect(body.problems).toEqual([{ line: 18, message: 'column 2 (I): "seven hundred" is not a number' }]);
     const bad = await upload("designer", f.scenarioId, csv(), { options: JSON.stringify({ channels: [{ scale: "ten" }] }) });
     expect(bad.status).toBe(400);
@@ -113,7 +113,7 @@ describe("library API", () => {
     expect(errors.traceIds[0]).toBe("Attach at least one bench trace");
     const viewer = await library.POST(await request("POST", "/api/library", f.viewer, { scenarioId: f.scenarioId, note: "n", traceIds: [traceId] }), ctx({}));
     expect(viewer.status).toBe(403);
-    const ok = await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: f.scenarioId, note: "Bench agrees.", traceIds: [traceId] }), ctx({}));
+    const ok = await library.POST(await request("POST", "/api/library", f.designer, { scenarioId: f.scenarioId, note: "Bench agrees.", traceIds: [traceId], comparisons: [{ traceId, channel: 0, offset: 0, verdict: "pass", rows: [] }] }), ctx({}));
     expect(ok.status).toBe(201);
     entryId = (await ok.json()).entryId;
   });

@@ -167,6 +167,54 @@ describe("library workflow", () => {
     await expect(changeEntryStatus(a.users.lead, a.entryId, "validate")).rejects.toMatchObject({ status: 409 });
   });
 
+  it("validating against a FAIL comparison needs a written reason: stored, marked in the list, in history, audit and mail", async () => {
+    const team = await withTrace("override");
+    const failing = submitSchema.parse({
+      ...submission(team.traceId),
+      comparisons: [{
+        traceId: team.traceId, channel: 0, offset: 0, verdict: "fail",
+        rows: [{ key: "overshoot", label: "Overshoot", unit: "%", measured: 59, simulated: 0.4, difference: 58.6, differenceUnit: "pts", tolerance: 5, verdict: "fail" }],
+      }],
+    });
+    const { entryId } = await submitForValidation(team.users.designer, team.scenarioId, failing);
+    // viewers and designers cannot validate at all, with or without a reason
+    for (const who of [team.users.viewer, team.users.designer]) {
+      await expect(changeEntryStatus(who, entryId, "validate", "", "The bench board had the wrong capacitor.")).rejects.toMatchObject({ status: 403 });
+    }
+    // the lead without a reason, or with too short a one: refused, nothing changes
+    await expect(changeEntryStatus(team.users.lead, entryId, "validate", "Looks fine.")).rejects.toMatchObject({
+      status: 400, message: expect.stringMatching(/^overrideReason: a comparison of the bench evidence failed; validating it anyway needs an override/),
+    });
+    await expect(changeEntryStatus(team.users.lead, entryId, "validate", "", "ok")).rejects.toMatchObject({ status: 400 });
+    expect((await getEntry(team.users.lead, entryId)).status).toBe("submitted");
+
+    const reason = "Bench board had a 10x probe on the wrong setting; model confirmed on a second board.";
+    const r = await changeEntryStatus(team.users.lead, entryId, "validate", "", reason);
+    expect(r.status).toBe("validated");
+    const e = await getEntry(team.users.viewer, entryId);
+    expect(e).toMatchObject({ status: "validated", overrideReason: reason });
+    expect(e.events.map((x) => x.action)).toEqual(["created", "submitted", "validated_with_override"]);
+    const audit = await db()("audit_log").where({ subject_id: entryId, action: "library.validated_with_override", actor_id: team.users.lead.id }).first();
+    expect(audit.detail).toMatchObject({ override: true, overrideReason: reason });
+    const [mail] = await mailTo(team.users.designer.email, /^Validated with an override:/);
+    expect(mail.text_body).toContain(`Reason given: “${reason}”`);
+    expect(mail.text_body).not.toContain("trusted starting point");
+    // the library list marks it
+    const [listed] = await listEntries(team.users.viewer, { status: "validated" });
+    expect(listed).toMatchObject({ id: entryId, overrideReason: reason });
+  });
+
+  it("an entry whose evidence has no comparison also needs the override; a passing one does not and stores none", async () => {
+    const team = await withTrace("missing");
+    const { entryId } = await submitForValidation(team.users.designer, team.scenarioId, submitSchema.parse({ ...submission(team.traceId), comparisons: [] }));
+    await expect(changeEntryStatus(team.users.lead, entryId, "validate")).rejects.toMatchObject({
+      status: 400, message: expect.stringMatching(/^overrideReason: the bench evidence has no comparison with the simulation/),
+    });
+    const passing = await submittedEntry("passing");
+    await changeEntryStatus(passing.users.lead, passing.entryId, "validate", "", "An unneeded reason is not stored.");
+    expect((await getEntry(passing.users.lead, passing.entryId)).overrideReason).toBeNull();
+  });
+
   it("lists and filters the team's entries", async () => {
     const a = await validatedEntry("list");
     const other = await makeTeam("list-other");

@@ -4,7 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { db } from "@/lib/db/knex";
 import type { CurrentUser, Role } from "@/lib/shared/roles";
-import { deleteTrace, getTrace, listTraces, storeTrace, decodeFloat64, encodeFloat64 } from "@/lib/db/traces";
+import { correctTraceChannel, deleteTrace, getTrace, listTraces, storeTrace, decodeFloat64, encodeFloat64 } from "@/lib/db/traces";
+import { channelSettings } from "@/lib/traces/units";
 import { parseTraceCsv } from "@/lib/traces";
 
 /** A team of our own per run (lead, designer, viewer) and one scenario with revision 1; plus an outsider team. */
@@ -100,5 +101,31 @@ describe("bench trace storage", () => {
     await deleteTrace(a.users.lead, t2.id);
     await expect(getTrace(a.users.lead, t1.id)).rejects.toMatchObject({ status: 404 });
     expect(await db()("audit_log").where({ subject_id: t2.id, action: "trace.delete" }).first()).toBeTruthy();
+  });
+
+  it("a channel's unit and scale are corrected after upload: a new settings version, rescaled samples, audited", async () => {
+    // The capture without units on CH1: the numbers are millivolts across a 0.1 Ω sense resistor.
+    const text = capture().replace("CH1 (mV)", "CH1");
+    const t = await storeTrace(a.users.designer, { scenarioId: a.scenarioId, label: "no unit", fileName: "c.csv", parsed: parseTraceCsv(text), settings: {} });
+    expect(t.channels[0]).toMatchObject({ unit: "", scale: 1 });
+    expect(t.settingsVersion).toBe(0);
+    await expect(correctTraceChannel(a.users.viewer, t.id, 0, channelSettings("mV", 10, "A"))).rejects.toMatchObject({ status: 403 });
+    await expect(correctTraceChannel(other.users.lead, t.id, 0, channelSettings("mV", 10, "A"))).rejects.toMatchObject({ status: 404 });
+    await expect(correctTraceChannel(a.users.designer, t.id, 5, channelSettings("mV", 10, "A"))).rejects.toMatchObject({ status: 400 });
+    // mV across 0.1 Ω: × 1e-3 (SI prefix) × 1/0.1 Ω (Ohm's law) = × 0.01 A per number
+    const fixed = await correctTraceChannel(a.users.designer, t.id, 0, channelSettings("mV", 1 / 0.1, "A"));
+    expect(fixed.channels[0]).toMatchObject({ unit: "A", sourceUnit: "mV" });
+    expect(fixed.channels[0].scale).toBeCloseTo(0.01, 15);
+    expect(fixed.settingsVersion).toBe(1);
+    const data = await getTrace(a.users.viewer, t.id);
+    // row 120 of the file: 75·(1 − e^(−100/15)) mV = 74.9059 mV → 0.749059 A (closed form of the capture)
+    expect(data.values[0][120]).toBeCloseTo(0.01 * 75 * (1 - Math.exp(-100 / 15)), 12);
+    expect(data.values[1][120]).toBe(5); // CH2 untouched
+    const second = await correctTraceChannel(a.users.lead, t.id, 0, channelSettings("A"));
+    expect(second.settingsVersion).toBe(2);
+    expect((await getTrace(a.users.viewer, t.id)).values[0][120]).toBeCloseTo(75 * (1 - Math.exp(-100 / 15)), 12);
+    const audits = await db()("audit_log").where({ subject_id: t.id, action: "trace.correct_units" }).orderBy("id");
+    expect(audits.map((r) => r.detail.version)).toEqual([1, 2]);
+    expect(audits[0].detail).toMatchObject({ channel: 0, from: { unit: "" }, to: { unit: "A", sourceUnit: "mV" } });
   });
 });

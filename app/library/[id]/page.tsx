@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
-import { getEntry } from "@/lib/db/library";
+import { evidenceProblem, getEntry } from "@/lib/db/library";
 import { DomainError } from "@/lib/errors";
 import { formatEng } from "@/lib/units/eng";
 import { evidenceTolerances } from "@/lib/library/tolerances";
@@ -41,6 +41,11 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
           <h1 className="text-2xl font-semibold">{entry.title} <span className="text-base font-normal text-ink-muted">revision {entry.revisionNumber}</span></h1>
           <p className="mt-1 text-sm"><StatusBadge status={entry.status} testId="entry-status" /> <span className="ml-2 text-ink-muted">{templateTitle(entry.template)} · {entry.passElement || "—"} · {entry.loadType || "—"}{entry.currentMax !== null ? ` · ${formatEng(entry.currentMin ?? 0, "A")} – ${formatEng(entry.currentMax, "A")}` : ""}</span></p>
           {entry.validatedByName && <p className="mt-1 text-sm" data-testid="entry-validated-by">Validated by {entry.validatedByName}, {entry.validatedAt?.slice(0, 10)}</p>}
+          {entry.overrideReason && entry.status === "validated" && (
+            <p className="mt-1 max-w-2xl rounded border border-verdict-fail/30 bg-red-50 px-3 py-2 text-sm text-verdict-fail" data-testid="entry-override">
+              Validated with an override, against failing or missing bench evidence. Reason given: “{entry.overrideReason}”
+            </p>
+          )}
         </div>
         <p className="text-sm">
           <Link className="text-signal underline" href={`/scenarios/${entry.scenarioId}/review?revision=${entry.revisionId}`}>Review of revision {entry.revisionNumber}</Link>
@@ -54,7 +59,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
             <h2 className="mb-2 font-semibold">Key figures (simulated at submission)</h2>
             <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="entry-figures">
               {FIGURES.map(([k, label, fmt]) => (
-                <div key={k} className="contents"><dt className="text-ink-muted">{label}</dt><dd className="num">{typeof figures[k] === "number" ? fmt(figures[k] as number) : "—"}</dd></div>
+                <div key={k} className="contents"><dt className="text-ink-muted">{label}</dt><dd className="num">{typeof figures[k] === "number" ? fmt(figures[k] as number) : k === "settlingTime" && figures[k] === null ? "not within the record" : "—"}</dd></div>
               ))}
             </dl>
             <h3 className="mt-3 text-sm font-semibold">Submission note</h3>
@@ -63,7 +68,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
           </section>
           <section className="rounded border border-hairline bg-white p-4">
             <h2 className="mb-2 font-semibold">Decision</h2>
-            <EntryActions entryId={entry.id} status={entry.status} role={user.role} isSubmitter={entry.submittedBy === user.id} startAction={startFromEntryAction} defaultTitle={`${entry.title} (from library)`} />
+            <EntryActions entryId={entry.id} status={entry.status} evidenceProblem={evidenceProblem(entry.evidence)} role={user.role} isSubmitter={entry.submittedBy === user.id} startAction={startFromEntryAction} defaultTitle={`${entry.title} (from library)`} />
           </section>
           <section className="rounded border border-hairline bg-white p-4">
             <h2 className="mb-2 font-semibold">History</h2>

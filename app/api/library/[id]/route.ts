@@ -17,6 +17,8 @@ const patchBody = z
     /** The submitter (or a lead) withdraws a submission. */
     withdraw: z.literal(true).optional(),
     comment: storedText("comment").max(4000, "comment: at most 4000 characters").optional(),
+    /** Validating against a failed or missing comparison: the lead's written reason (required then). */
+    overrideReason: storedText("overrideReason").max(4000, "overrideReason: at most 4000 characters").optional(),
   })
   .strict()
   .refine((b) => b.status !== undefined || b.withdraw || (b.comment ?? "").trim() !== "", {
@@ -25,7 +27,8 @@ const patchBody = z
   });
 
 /**
- * PATCH /api/library/:id — `{ status, comment? }` changes the status (validate, return and retire are for leads
+ * PATCH /api/library/:id — `{ status, comment?, overrideReason? }` changes the status (validating against failing
+ * or missing evidence needs `overrideReason`) (validate, return and retire are for leads
  * only, checked in lib/library/workflow); `{ withdraw: true }` takes a submission back; `{ comment }` alone adds a comment
  * (any member).
  */
@@ -39,7 +42,7 @@ export const PATCH = apiRoute<P, typeof patchBody>({ body: patchBody }, async ({
         ? "status: submit a revision with POST /api/library (traces and a note are needed)."
         : `status: an entry that is ${current.status} cannot become ${body.status}.`);
     }
-    return changeEntryStatus(user, params.id, action, body.comment ?? "");
+    return changeEntryStatus(user, params.id, action, body.comment ?? "", body.overrideReason);
   }
   return commentOnEntry(user, params.id, body.comment ?? "");
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { parseTraceCsv, TraceParseError, MIN_TRACE_ROWS } from "@/lib/traces";
+import { channelSettings, parseTraceCsv, TraceParseError, MIN_TRACE_ROWS } from "@/lib/traces";
 
 /** Rows of a 1 kHz-sampled ramp: time k·dt, channel 1 = k·0.01, channel 2 = −k. Made here, so the values are known. */
 function rows(n: number, dt: number, fmt: (t: number, a: number, b: number) => string): string[] {
@@ -14,7 +14,9 @@ function expectProblem(fn: () => unknown, line: number, pattern: RegExp) {
     const p = (e as TraceParseError).problems[0];
     expect(p.line).toBe(line);
     expect(p.message).toMatch(pattern);
-    expect((e as Error).message).toContain(line > 0 ? `line ${line}:` : p.message);
+    expect((e as Error).message).toContain(line > 0 ? `Line ${line}: ${p.message}` : p.message.slice(1));
+    // one sentence that starts with a capital and ends with a full stop
+    expect((e as Error).message).toMatch(/^[A-Z].*\.$/);
     return;
   }
   throw new Error("expected a TraceParseError");
@@ -131,7 +133,7 @@ describe("parseTraceCsv: broken files name the line and the problem", () => {
       throw new Error("expected a TraceParseError");
     } catch (e) {
       expect((e as TraceParseError).problems.length).toBe(10);
-      expect((e as Error).message).toMatch(/^line 11: .*\(and 9 more problems\)$/);
+      expect((e as Error).message).toMatch(/^Line 11: .*\(and 9 more problems\)\.$/);
     }
   });
 
@@ -157,9 +159,73 @@ describe("parseTraceCsv: broken files name the line and the problem", () => {
 
   it("an empty file, a single column, and a channel in seconds", () => {
     expectProblem(() => parseTraceCsv("  \n"), 0, /empty/);
-    expectProblem(() => parseTraceCsv(Array.from({ length: 30 }, (_, k) => String(k)).join("\n")), 30, /no column delimiter/);
+    // a one-column file: its first line is the offending one (the issue saw "line 5")
+    expectProblem(() => parseTraceCsv(Array.from({ length: 30 }, (_, k) => String(k)).join("\n") + "\n"), 1, /^“0” is a single column: expected a time column/);
     expectProblem(() => parseTraceCsv(["Time (s),CH1 (V)", ...good()].join("\n"), { channels: [{ sourceUnit: "ms" }] }), 0, /channel 1: "ms" is not a voltage or current unit/);
     expectProblem(() => parseTraceCsv(["Current (A),CH1 (V)", ...good()].join("\n")), 1, /first column is in A, not a time unit/);
     expectProblem(() => parseTraceCsv(["Time (s),CH1 (V)", ...good()].join("\n"), { channels: [{ scale: 0 }] }), 0, /scale factor must be a finite, non-zero number/);
+  });
+});
+
+describe("parseTraceCsv: the first offending line, not the last", () => {
+  it("text on lines 2 and 3 of a comma file names line 2 (the issue saw line 6, the trailing blank line)", () => {
+    const text = ["Time (s),I (A)", "hello there", "more text", "0,0", "1e-6,0.1", ""].join("\n");
+    expectProblem(() => parseTraceCsv(text), 2, /^“hello there” has 1 field where the lines around it have 2 separated by commas$/);
+  });
+
+  it("a one-column file with a header names line 1", () => {
+    const text = ["Current", ...Array.from({ length: 4 }, (_, k) => String(k * 0.1)), ""].join("\n");
+    expectProblem(() => parseTraceCsv(text), 1, /^“Current” is a single column/);
+  });
+});
+
+describe("parseTraceCsv: units from column names", () => {
+  // Each spelling with the factor its SI prefix gives (SI brochure: m = 1e-3): a value of 2 in the file.
+  const cases: [string, string, string, number][] = [
+    ["coil_current_A", "coil_current", "A", 2],
+    ["I (A)", "I", "A", 2],
+    ["I [mA]", "I", "A", 2e-3],
+    ["current_mA", "current", "A", 2e-3],
+    ["CH1 (mV)", "CH1", "V", 2e-3],
+  ];
+  for (const [heading, label, unit, value] of cases) {
+    it(`"${heading}" → ${label} in ${unit}, 2 as written = ${value} ${unit}`, () => {
+      const text = [`Time (s),${heading}`, ...rows(20, 1e-6, (t) => `${t},2`)].join("\n");
+      const r = parseTraceCsv(text);
+      expect(r.channels[0]).toMatchObject({ name: label, unit });
+      expect(r.channels[0].values[5]).toBeCloseTo(value, 15);
+      expect(r.warnings).toEqual([]);
+    });
+  }
+
+  it("a word that only looks like a unit is not one: channel_a and Ch A stay without a unit", () => {
+    const text = ["Time (s),channel_a,Ch A", ...rows(20, 1e-6, (t) => `${t},2,3`)].join("\n");
+    const r = parseTraceCsv(text);
+    expect(r.channels.map((c) => c.unit)).toEqual(["", ""]);
+  });
+
+  it("the user's choice 'already in amperes' gives a channel without a unit its unit, unscaled", () => {
+    const text = ["t,probe", ...rows(20, 1e-6, (t) => `${t},2`)].join("\n");
+    const r = parseTraceCsv(text, { timeUnit: "s", channels: [{ sourceUnit: "A" }] });
+    expect(r.channels[0]).toMatchObject({ unit: "A", sourceUnit: "A", scale: 1 });
+    expect(r.channels[0].values[3]).toBe(2); // amperes as written: factor 1
+  });
+});
+
+describe("channelSettings: a channel's unit and scale corrected after upload", () => {
+  it("mV across a 0.1 Ω sense resistor → A: factor 1e-3 × 10 = 0.01 (SI prefix m; Ohm's law)", () => {
+    const c = channelSettings("mV", 1 / 0.1, "A");
+    expect(c).toMatchObject({ unit: "A", sourceUnit: "mV" });
+    expect(c.scale).toBeCloseTo(0.01, 15);
+  });
+
+  it("already in amperes: unit A, factor 1; no unit: as written", () => {
+    expect(channelSettings("A")).toEqual({ unit: "A", sourceUnit: "A", scale: 1 });
+    expect(channelSettings("mA")).toEqual({ unit: "A", sourceUnit: "mA", scale: 1e-3 }); // SI prefix m = 1e-3
+    expect(channelSettings("")).toEqual({ unit: "", sourceUnit: "", scale: 1 });
+  });
+
+  it("refuses a zero scale with a message naming the field", () => {
+    expect(() => channelSettings("V", 0)).toThrow(/^scale: a finite, non-zero number\.$/);
   });
 });
