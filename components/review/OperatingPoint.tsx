@@ -1,30 +1,9 @@
 /** The operating point: node voltages and the devices' currents, voltages and dissipation. */
-import { DEVICE_WORDS } from "@/lib/design/op-words";
+import { DEVICE_WORDS, NODE_WORDS } from "@/lib/design/op-words";
 import type { OpResult } from "@/lib/sim";
 import { formatEng } from "@/lib/units/eng";
 import { formatQuantity } from "@/lib/units/quantity";
 
-/** What each netlist node is, in words (node names from lib/design/compile.ts); unknown nodes are left blank. */
-const NODE_WORDS: Record<string, string> = {
-  cmd_s: "command source, before its output resistance",
-  cmd: "command",
-  ref: "non-inverting input (divider tap)",
-  inv: "inverting input",
-  oa: "op-amp output",
-  oa_i: "op-amp output pin",
-  b: "base / gate",
-  bm: "Darlington mid-point",
-  e: "sense node (emitter / source)",
-  c: "collector / drain",
-  vcc: "op-amp positive supply",
-  vee: "op-amp negative supply",
-  vs: "load supply",
-  lw: "load end of the cable",
-  lt: "load terminal",
-  lc: "inside the coil, between its resistance and inductance",
-  ld: "between the LED string and the load resistance",
-  lcell: "cell terminal",
-};
 
 export function OperatingPoint({ op }: { op: OpResult }) {
   const nodes = Object.entries(op.nodes).filter(([n]) => !n.startsWith("cab"));

@@ -4,6 +4,28 @@
  */
 import { NAMES } from "./compile";
 
+/** What each netlist node is, in words (node names from lib/design/compile.ts); unknown nodes are left blank. */
+export const NODE_WORDS: Readonly<Record<string, string>> = {
+  cmd_s: "command source, before its output resistance",
+  cmd: "command",
+  ref: "non-inverting input (divider tap)",
+  inv: "inverting input",
+  oa: "op-amp output",
+  oa_i: "op-amp output pin",
+  b: "base / gate",
+  bm: "Darlington mid-point",
+  e: "sense node (emitter / source)",
+  c: "collector / drain",
+  vcc: "op-amp positive supply",
+  vee: "op-amp negative supply",
+  vs: "load supply",
+  lw: "load end of the cable",
+  lt: "load terminal",
+  lc: "inside the coil, between its resistance and inductance",
+  ld: "between the LED string and the load resistance",
+  lcell: "cell terminal",
+};
+
 /** What each named device is, in the words of the trade. */
 export const DEVICE_WORDS: Readonly<Record<string, string>> = {
   [NAMES.opamp]: "op-amp",
