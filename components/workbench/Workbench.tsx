@@ -22,6 +22,10 @@ import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
 import { SaveControl, type SaveFn } from "./SaveControl";
 import { TOOL_BUTTON } from "@/components/shell/classes";
+import { ShareDialog } from "@/components/scenarios/ShareDialog";
+import { ForkButton, type Fork } from "@/components/scenarios/ScenarioButtons";
+import { useKeptDraft } from "./useKeptDraft";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export interface WorkbenchProps {
   scenario: Scenario;
@@ -29,8 +33,12 @@ export interface WorkbenchProps {
   scenarioId: string | null;
   revisionId: string | null;
   revisionNumber: number | null;
-  /** Server action that saves a revision; null when saving is not possible here (a local draft). */
+  /** Server action that saves a revision; null when saving is not possible here (a local draft, a viewer). */
   save: SaveFn | null;
+  /** Server action that copies the revision into a new scenario of the user; null for roles that may not fork. */
+  fork?: Fork | null;
+  /** Share links: shown for members who may share; `canPublish` for the owner or a lead (public links). */
+  share?: { canPublish: boolean } | null;
 }
 
 export function Workbench(props: WorkbenchProps) {
@@ -61,7 +69,7 @@ function focusField(key: string) {
 
 const BTN = `${TOOL_BUTTON} text-ink`;
 
-function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps) {
+function Toolbar({ title, scenarioId, revisionId, revisionNumber, save, fork, share }: WorkbenchProps) {
   const store = useWbStore();
   const canUndo = useWb((s) => s.past.length > 0);
   const canRedo = useWb((s) => s.future.length > 0);
@@ -71,17 +79,21 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
   const showOp = useWb((s) => s.showOperatingPoint);
   const template = useWb((s) => s.scenario.template);
   const [shownRevision, setShownRevision] = useState(revisionNumber);
+  const [shownRevisionId, setShownRevisionId] = useState(revisionId);
+  /** A viewer's edits (and a saved scenario opened without the right to save) are a what-if that is not kept. */
+  const whatIf = !save && scenarioId !== null;
   const templateTitle = TEMPLATES.find((t) => t.id === template)?.title ?? template;
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
       <span className="text-[12px] text-ink-muted" data-testid="revision-label">{[templateTitle === title ? null : templateTitle, shownRevision !== null ? `revision ${shownRevision}` : "local draft"].filter(Boolean).join(" · ")}</span>
       <span
-        className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
+        className={`rounded px-1.5 py-0.5 text-[11px] ${dirty && !whatIf ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
         data-testid="dirty-indicator"
         aria-live="polite"
+        title={whatIf ? "Your role can read and comment: edits here are for trying values out and are not kept" : undefined}
       >
-        {dirty ? "● Unsaved changes" : "Saved"}
+        {whatIf ? (dirty ? "What-if, not kept" : "Read only") : dirty ? "● Unsaved changes" : scenarioId ? "Saved" : "Local draft, not saved"}
       </span>
       {scenarioId && (
         <nav aria-label="Scenario" className="flex gap-3 text-[12px]">
@@ -116,7 +128,11 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
         >
           Netlist JSON
         </button>
-        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={setShownRevision} />
+        {scenarioId && share && shownRevisionId && shownRevision !== null && (
+          <ShareDialog scenarioId={scenarioId} revisionId={shownRevisionId} revisionNumber={shownRevision} canPublish={share.canPublish} compact />
+        )}
+        {fork && shownRevisionId && <ForkButton revisionId={shownRevisionId} fork={fork} label="Fork to my scenarios" compact />}
+        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={(id, n) => { setShownRevision(n); setShownRevisionId(id); }} />
       </div>
     </div>
   );
@@ -236,21 +252,18 @@ function useShortcuts() {
 function WorkbenchInner(props: WorkbenchProps) {
   const engine = useEngine();
   const [drawer, setDrawer] = useState(false);
-  const dirty = useWb((s) => s.dirty);
   useShortcuts();
-  useEffect(() => {
-    const onBefore = (e: BeforeUnloadEvent) => {
-      if (dirty && props.save) {
-        // Asks the browser to confirm leaving with unsaved changes.
-        e.preventDefault();
-      }
-    };
-    window.addEventListener("beforeunload", onBefore);
-    return () => window.removeEventListener("beforeunload", onBefore);
-  }, [dirty, props.save]);
+  const kept = useKeptDraft(props.scenarioId, props.revisionId, props.save !== null);
   return (
     <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
       <Toolbar {...props} />
+      {kept.offer && (
+        <div role="region" aria-label="Unsaved edits" className="flex flex-wrap items-center gap-2 border-b border-verdict-warn/40 bg-verdict-warn/5 px-4 py-2 text-[13px]" data-testid="draft-offer">
+          <span>You have unsaved edits to this scenario from {formatDateTime(kept.offer.savedAt)}, kept in this browser.</span>
+          <button type="button" className={`${TOOL_BUTTON} text-ink`} onClick={kept.restore} data-testid="draft-restore">Restore my edits</button>
+          <button type="button" className={`${TOOL_BUTTON} text-ink`} onClick={kept.discard} data-testid="draft-discard">Discard them</button>
+        </div>
+      )}
       <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_340px]">
         <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-11rem)] xl:max-h-[calc(100vh-9rem)] md:overflow-y-auto md:pr-1">
           <h2 className="sr-only">Circuit</h2>
