@@ -43,6 +43,26 @@ export function ForkButton({ revisionId, fork, label = "Fork to my drafts", comp
   );
 }
 
+type CopyShared = (input: { token: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
+
+/** "Open a copy" of a publicly shared revision in the signed-in user's team. */
+export function OpenCopyButton({ token, copy }: { token: string; copy: CopyShared }) {
+  const router = useRouter();
+  return (
+    <ActionButton
+      label="Open a copy"
+      busyLabel="Copying…"
+      className={BUTTON}
+      run={async () => {
+        const r = await copy({ token });
+        if (!r.ok) return r.message;
+        router.push(`/scenarios/${r.scenarioId}`);
+        return null;
+      }}
+    />
+  );
+}
+
 /** Soft delete (to the table's Deleted view) or restore; owner or lead. */
 export function DeleteButton({ scenarioId, deleted, setDeleted }: { scenarioId: string; deleted: boolean; setDeleted: SetDeleted }) {
   const router = useRouter();

@@ -18,14 +18,19 @@ interface Link {
  * "Share link": the team link to one revision (members only, read-only with fork), and — for the owner or a
  * lead — public read-only links with an expiry, listed with their state and revocable.
  */
-export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish, compact = false }: { scenarioId: string; revisionId: string; revisionNumber: number; canPublish: boolean; compact?: boolean }) {
+export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish, publicUrl, compact = false }: {
+  scenarioId: string; revisionId: string; revisionNumber: number; canPublish: boolean;
+  /** The site's configured public base URL (QUELL_PUBLIC_URL), so the team link matches the links in e-mails. */
+  publicUrl: string;
+  compact?: boolean;
+}) {
   const dialog = useRef<HTMLDialogElement>(null);
   const [open, setOpen] = useState(false);
   const [copied, setCopied] = useState<string | null>(null);
   const [fresh, setFresh] = useState<string | null>(null);
   const [days, setDays] = useState("14");
   const [err, setErr] = useState<string | null>(null);
-  const teamLink = typeof window === "undefined" ? `/share/r/${revisionId}` : `${window.location.origin}/share/r/${revisionId}`;
+  const teamLink = `${publicUrl.replace(/\/+$/, "")}/share/r/${revisionId}`;
   const url = `/api/scenarios/${scenarioId}/share-links`;
   const { data, error, isLoading, mutate } = useSWR<{ links: Link[] }, FetchError>(open ? url : null, fetcher);
 

@@ -38,7 +38,7 @@ export interface WorkbenchProps {
   /** Server action that copies the revision into a new scenario of the user; null for roles that may not fork. */
   fork?: Fork | null;
   /** Share links: shown for members who may share; `canPublish` for the owner or a lead (public links). */
-  share?: { canPublish: boolean } | null;
+  share?: { canPublish: boolean; publicUrl: string } | null;
 }
 
 export function Workbench(props: WorkbenchProps) {
@@ -129,7 +129,7 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save, fork, sh
           Netlist JSON
         </button>
         {scenarioId && share && shownRevisionId && shownRevision !== null && (
-          <ShareDialog scenarioId={scenarioId} revisionId={shownRevisionId} revisionNumber={shownRevision} canPublish={share.canPublish} compact />
+          <ShareDialog scenarioId={scenarioId} revisionId={shownRevisionId} revisionNumber={shownRevision} canPublish={share.canPublish} publicUrl={share.publicUrl} compact />
         )}
         {fork && shownRevisionId && <ForkButton revisionId={shownRevisionId} fork={fork} label="Fork to my scenarios" compact />}
         <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={(id, n) => { setShownRevision(n); setShownRevisionId(id); }} />

@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { getScenarioWithRevision } from "@/lib/db/scenarios";
 import { currentUser, requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
+import { publicBaseUrl } from "@/lib/shared/tokens";
 import { Workbench } from "@/components/workbench/Workbench";
 import { forkScenario, saveScenarioRevision } from "./actions";
 
@@ -39,7 +40,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
       revisionNumber={row.revisionNumber}
       save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
       fork={roleAtLeast(user.role, "designer") ? forkScenario : null}
-      share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id } : null}
+      share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id, publicUrl: publicBaseUrl() } : null}
     />
   );
 }

@@ -12,6 +12,7 @@ import { StatusSelect } from "@/components/scenarios/StatusSelect";
 import { TEMPLATE_CHOICES } from "@/lib/design/scenarioBody";
 import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
+import { publicBaseUrl } from "@/lib/shared/tokens";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 
 export const dynamic = "force-dynamic";
@@ -37,7 +38,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
       <div className="mt-1 flex flex-wrap items-center gap-3">
         <h1 className="mr-auto text-2xl font-semibold">History of {s.title}</h1>
         {s.can.share && s.revisionId && s.revisionNumber !== null && (
-          <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} />
+          <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} publicUrl={publicBaseUrl()} />
         )}
         {s.can.edit && <StatusSelect scenarioId={s.id} status={s.status} statuses={[...new Set<string>([...SCENARIO_STATUSES, s.status])]} />}
         {s.can.share && s.revisionId && <ForkButton revisionId={s.revisionId} fork={forkScenario} label="Fork" />}
