@@ -4,9 +4,9 @@
  * with the studies drawer at the bottom. Owns the live runner and the study pool for the page's lifetime.
  */
 import Link from "next/link";
-import { useEffect, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
-import { compileNetlistJson } from "@/lib/design/compile";
+import { compileNetlistJson, idealTransconductance } from "@/lib/design/compile";
 import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
@@ -164,11 +164,20 @@ function closedMarkers(closed: LiveResult["closed"]): Marker[] | undefined {
 function ResponseZone() {
   const current = useWb((s) => s.run.current);
   const previous = useWb((s) => s.run.previous);
+  const scenario = useWb((s) => s.scenario);
   const [tab, setTab] = useState<"closed" | "zout">("closed");
+  const transconductance = useMemo(() => {
+    try {
+      const g = idealTransconductance(scenario);
+      return Number.isFinite(g) ? g : null;
+    } catch {
+      return null;
+    }
+  }, [scenario]);
   return (
     <div className="space-y-2">
       <RunError />
-      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} />
+      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} hasPass={scenario.template !== "howland"} transconductance={transconductance} />
       <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB"
         second={current?.loop?.local !== undefined && current?.loop?.local !== null ? { label: "local op-amp loop", bode: current.loop.local } : null} />
       <div>
