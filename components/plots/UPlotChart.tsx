@@ -316,7 +316,10 @@ export const UPlotChart = forwardRef<UPlotHandle, UPlotChartProps>(function UPlo
       setCursors((c) => (c[0] === null ? [x, null] : c[1] === null ? [c[0], x] : [x, null]));
     };
     const onDbl = () => {
-      u.setData(u.data, true);
+      // Plots that share a cursor (a Bode plot's magnitude and phase) zoom together, so they reset together.
+      const key = options.cursor?.sync?.key;
+      const group = key ? uPlot.sync(key).plots : [u];
+      for (const p of group.includes(u) ? group : [...group, u]) p.setData(p.data, true);
       setCursors([null, null]);
     };
     over.addEventListener("mousedown", onDown);
