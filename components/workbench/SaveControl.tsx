@@ -87,7 +87,7 @@ export function SaveControl({ scenarioId, revisionId, save, onSaved }: {
       </button>
       {msg && !open && <span className="ml-2 text-[12px] text-ink-muted" role="status">{msg}</span>}
       {open && (
-        <div className={`absolute right-0 z-30 mt-1 ${conflict ? "w-[36rem]" : "w-96"} rounded border border-hairline bg-white p-3 shadow-lg`} ref={panel} role="dialog" aria-label="Save revision" data-testid="save-popover">
+        <div className={`absolute right-0 z-40 mt-1 ${conflict ? "w-[min(36rem,calc(100vw-1.5rem))]" : "w-[min(24rem,calc(100vw-1.5rem))]"} rounded border border-hairline bg-white p-3 shadow-lg`} ref={panel} role="dialog" aria-label="Save revision" data-testid="save-popover">
           <label htmlFor="save-note" className="text-[12px] font-semibold">Note for this revision</label>
           <textarea id="save-note" className="mt-1 w-full rounded border border-hairline p-1.5 text-[13px]" rows={2} maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} data-testid="save-note" />
           <div className="mt-2 flex justify-end gap-2">
