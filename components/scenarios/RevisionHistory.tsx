@@ -6,6 +6,7 @@ import { ago, fetcher, type FetchError } from "./fetcher";
 import { diffBodies } from "@/lib/design/diff";
 import { DiffTable } from "./DiffTable";
 import { Loading, LoadError } from "./Status";
+import { formatDateTime } from "@/lib/shared/dates";
 
 interface Rev {
   id: string;
@@ -52,7 +53,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
                 </td>
                 <td className="px-4 py-1.5">{r.note || <span className="text-ink-muted">—</span>}</td>
                 <td className="px-4 py-1.5">{r.authorName}</td>
-                <td className="px-4 py-1.5 text-ink-muted" title={new Date(r.createdAt).toLocaleString()}>{ago(r.createdAt)}</td>
+                <td className="px-4 py-1.5 text-ink-muted" title={formatDateTime(r.createdAt)}>{ago(r.createdAt)}</td>
                 <td className="px-4 py-1.5">
                   <input type="radio" name="older" aria-label={`Compare from revision ${r.number}`} checked={a === r.id} onChange={() => setOlder(r.id)} />
                 </td>

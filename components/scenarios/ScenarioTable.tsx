@@ -6,6 +6,7 @@ import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
 import { BUTTON_PRIMARY } from "@/components/shell/classes";
+import { formatDateTime } from "@/lib/shared/dates";
 
 interface Row {
   id: string;
@@ -165,7 +166,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
                   <td className="px-4 py-2 text-ink-muted">{templateTitle(r.template)}</td>
                   <td className="px-4 py-2">{r.ownerName}</td>
                   <td className="px-4 py-2">{r.status}</td>
-                  <td className="px-4 py-2 text-ink-muted" title={new Date(r.updatedAt).toLocaleString()}>{ago(r.updatedAt)}</td>
+                  <td className="px-4 py-2 text-ink-muted" title={formatDateTime(r.updatedAt)}>{ago(r.updatedAt)}</td>
                   <td className="num px-4 py-2">
                     {r.revisionNumber !== null && !deleted ? (
                       <Link href={`/scenarios/${r.id}/history`} className="text-signal hover:underline" aria-label={`History of ${r.title}`}>r{r.revisionNumber}</Link>

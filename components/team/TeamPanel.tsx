@@ -4,6 +4,7 @@ import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "@/components/scenarios/fetcher";
 import { Loading, LoadError } from "@/components/scenarios/Status";
 import { BUTTON_PRIMARY, FIELD } from "@/components/shell/classes";
+import { formatDate } from "@/lib/shared/dates";
 
 type Role = "viewer" | "designer" | "lead";
 interface Member { userId: string; name: string; email: string; role: Role; joinedAt: string }
@@ -105,7 +106,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
                 <li key={i.id} className="flex items-center justify-between px-4 py-1.5">
                   <span>
                     {i.email} · {i.role} · <span className={i.status === "pending" ? "" : "text-ink-muted"}>{i.status}</span>
-                    {i.status === "pending" && <span className="text-ink-muted"> · until {new Date(i.expiresAt).toLocaleDateString()}</span>}
+                    {i.status === "pending" && <span className="text-ink-muted"> · until {formatDate(i.expiresAt)}</span>}
                   </span>
                   {i.status === "pending" && (
                     <button type="button" onClick={() => act(() => send(`/api/team/invitations?id=${i.id}`, "DELETE"))} className="text-xs text-verdict-fail underline">
