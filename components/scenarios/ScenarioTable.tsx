@@ -7,6 +7,7 @@ import { ago, fetcher, send, FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
 import { BUTTON_PRIMARY } from "@/components/shell/classes";
 import { formatDateTime } from "@/lib/shared/dates";
+import { StartingPoints } from "./StartingPoints";
 
 interface Row {
   id: string;
@@ -127,6 +128,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
       </div>
 
       {actionError && <p role="alert" className="mt-3 text-sm text-verdict-fail">Not done: {actionError}</p>}
+      {data && data.total === 0 && !deleted && !query && !owner && !template && !status && <StartingPoints canCreate={canCreate} />}
 
       <div className="mt-4 overflow-x-auto rounded border border-hairline bg-white">
         {error && !data ? (
