@@ -153,7 +153,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
             <tbody className="divide-y divide-hairline">
               {data?.items.length === 0 && (
                 <tr>
-                  <td colSpan={7} className="px-4 py-6 text-ink-muted">{deleted ? "No deleted scenarios." : "No scenarios match."}</td>
+                  <td colSpan={7} className="px-4 py-6 text-ink-muted">{deleted ? "No deleted scenarios." : query || owner || template || status ? "No scenarios match." : "No scenarios yet: start from one of the starting points above."}</td>
                 </tr>
               )}
               {data?.items.map((r) => (
