@@ -39,7 +39,7 @@ const SMALL_SIGNAL_COLOR = OKABE_ITO[5];
 
 function PlotHeader({ title, children }: { title: string; children?: React.ReactNode }) {
   return (
-    <div className="flex items-center justify-between px-1 pb-1">
+    <div className="flex flex-wrap items-center justify-between gap-x-2 gap-y-1 px-1 pb-1">
       <h3 className="text-[13px] font-semibold text-ink">{title}</h3>
       {children}
     </div>

@@ -286,7 +286,7 @@ function WorkbenchInner(props: WorkbenchProps) {
           <h2 className="sr-only">Verdict</h2>
           <HeadlineFigures />
           <VerdictNote />
-          <div className="rounded border border-hairline bg-white p-2">
+          <div className="overflow-x-auto rounded border border-hairline bg-white p-2">
             <h3 className="mb-1 text-[13px] font-semibold">Checks</h3>
             <ChecksTable />
           </div>
