@@ -32,7 +32,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
   if (isLoading) return <Loading what="revisions" />;
   return (
     <div className="space-y-6">
-      <section aria-labelledby="revs-title" className="rounded border border-hairline bg-white">
+      <section aria-labelledby="revs-title" className="overflow-x-auto rounded border border-hairline bg-white">
         <h2 id="revs-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Revisions</h2>
         <table className="w-full text-sm">
           <thead className="text-xs uppercase tracking-wide text-ink-muted">
@@ -66,7 +66,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
         </table>
       </section>
       {a && b && (
-        <section aria-labelledby="diff-title" className="rounded border border-hairline bg-white">
+        <section aria-labelledby="diff-title" className="overflow-x-auto rounded border border-hairline bg-white">
           <h2 id="diff-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">
             Differences{ra.data && rb.data ? `: revision ${ra.data.number} → ${rb.data.number}` : ""}
           </h2>

@@ -22,7 +22,7 @@ function Figure({ id, label, value }: { id: string; label: string; value: string
 
 function Block({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
-    <section className="min-w-0 rounded border border-hairline bg-white p-4" aria-labelledby={`shared-h-${id}`} data-testid={`shared-section-${id}`}>
+    <section className="min-w-0 overflow-x-auto rounded border border-hairline bg-white p-4" aria-labelledby={`shared-h-${id}`} data-testid={`shared-section-${id}`}>
       <h2 id={`shared-h-${id}`} className="mb-2 text-base font-semibold">{title}</h2>
       {children}
     </section>

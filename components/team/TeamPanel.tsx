@@ -29,7 +29,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
   return (
     <div className="space-y-8">
       {err && <p role="alert" className="rounded border border-verdict-fail/30 bg-red-50 px-3 py-2 text-sm text-verdict-fail">Not done: {err}</p>}
-      <section aria-labelledby="members-title" className="rounded border border-hairline bg-white">
+      <section aria-labelledby="members-title" className="overflow-x-auto rounded border border-hairline bg-white">
         <h2 id="members-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Members</h2>
         {members.error ? (
           <LoadError error={members.error} retry={() => members.mutate()} />
@@ -92,7 +92,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
       </section>
 
       {isLead && (
-        <section aria-labelledby="inv-title" className="rounded border border-hairline bg-white">
+        <section aria-labelledby="inv-title" className="overflow-x-auto rounded border border-hairline bg-white">
           <h2 id="inv-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Invitations</h2>
           <InviteForm onSent={() => invites.mutate()} />
           {invites.error ? (

@@ -48,7 +48,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
         {templateTitle} · owner {s.ownerName} · status {s.status}
         {s.deletedAt && <span className="ml-2 font-medium text-verdict-fail">Deleted — restore it to edit</span>}
       </p>
-      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr] [&>*]:min-w-0">
         <div className="space-y-6">
           <RevisionHistory scenarioId={s.id} />
           {s.can.edit && s.revisionId && s.revisionNumber !== null && (

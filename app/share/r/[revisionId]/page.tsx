@@ -42,7 +42,7 @@ export default async function TeamSharePage({ params }: { params: Promise<{ revi
         {r.scenarioDeleted && <span className="ml-2 text-verdict-fail">The scenario has been deleted.</span>}
       </p>
       {r.note && <p className="mt-3 rounded border border-hairline bg-white px-4 py-2 text-sm">“{r.note}”</p>}
-      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr] [&>*]:min-w-0">
         <RevisionView body={r.body} />
         {!r.scenarioDeleted && <Comments scenarioId={r.scenarioId} revisionId={r.id} />}
       </div>
