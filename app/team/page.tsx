@@ -3,6 +3,7 @@ import { requirePageUser } from "@/lib/auth/current";
 import { listAudit } from "@/lib/db/audit";
 import { TeamPanel } from "@/components/team/TeamPanel";
 import { devOutboxEnabled } from "@/lib/mail/outbox";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Team" };
@@ -28,7 +29,19 @@ const ACTION_WORDS: Record<string, string> = {
   "trace.upload": "uploaded a bench trace",
   "user.password_reset": "reset a password",
   "user.sign_up": "signed up",
+  "share_link.create": "made a public share link",
+  "share_link.revoke": "revoked a public share link",
+  "library.created": "created a Library entry",
+  "library.submitted": "submitted a design to the Library",
+  "library.returned": "returned a Library entry with comments",
+  "library.validated": "validated a Library entry",
+  "library.retired": "retired a Library entry",
+  "library.withdrawn": "withdrew a Library entry",
+  "library.commented": "commented on a Library entry",
 };
+
+/** An action without words of its own still reads as words ("share_link.renew" → "share link renew"). */
+const actionWords = (code: string) => ACTION_WORDS[code] ?? `did: ${code.replace(/[._]+/g, " ")}`;
 
 export default async function TeamPage() {
   const user = await requirePageUser("viewer");
@@ -53,9 +66,9 @@ export default async function TeamPage() {
             {audit.map((a) => (
               <li key={a.id} className="flex justify-between px-4 py-1.5">
                 <span>
-                  <span className="font-medium">{a.actorName ?? "someone"}</span> {ACTION_WORDS[a.action] ?? `· ${a.action}`}
+                  <span className="font-medium">{a.actorName ?? "someone"}</span> {actionWords(a.action)}
                 </span>
-                <time className="text-ink-muted" dateTime={a.createdAt}>{new Date(a.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</time>
+                <time className="text-ink-muted" dateTime={a.createdAt}>{formatDateTime(a.createdAt)}</time>
               </li>
             ))}
           </ul>

@@ -22,7 +22,7 @@ export function UserMenu(props: {
   const [state, run, pending] = useActionState(props.switchTeam, {});
   const form = useRef<HTMLFormElement>(null);
   return (
-    <div className="ml-auto flex items-center gap-3">
+    <div className="flex flex-wrap items-center gap-3 md:ml-auto">
       {props.teams.length > 1 ? (
         <form ref={form} action={run} className="flex items-center gap-1">
           <label htmlFor="team-switch" className="sr-only">

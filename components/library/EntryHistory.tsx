@@ -1,5 +1,6 @@
 /** The entry's history: every submission, decision and comment, oldest first. */
 import type { LibraryEvent } from "@/lib/db/library";
+import { formatDateTime } from "@/lib/shared/dates";
 
 const VERB: Record<string, string> = {
   created: "created the entry", submitted: "submitted it for validation", returned: "returned it with comments",
@@ -13,7 +14,7 @@ export function EntryHistory({ events }: { events: LibraryEvent[] }) {
         <li key={e.id} className="border-l-2 border-hairline pl-3">
           <span className="font-medium">{e.actorName ?? "someone"}</span> {VERB[e.action] ?? e.action}
           {e.fromStatus && e.toStatus && e.fromStatus !== e.toStatus && <span className="text-xs text-ink-muted"> ({e.fromStatus} → {e.toStatus})</span>}
-          <span className="block text-xs text-ink-muted num">{new Date(e.createdAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC</span>
+          <span className="block text-xs text-ink-muted num">{formatDateTime(e.createdAt)}</span>
           {e.comment && <p className="mt-1 whitespace-pre-wrap rounded bg-paper px-2 py-1">{e.comment}</p>}
         </li>
       ))}

@@ -1,18 +1,21 @@
 /** The library's filters: a plain GET form, so a filtered view is a link that can be shared and works without scripts. */
 import { LIBRARY_STATUSES } from "@/lib/shared/statuses";
 import { FIELD } from "@/components/shell/classes";
+import { loadWords, passWords, templateWords } from "@/lib/design/words";
+
+const STATUS_WORDS: Record<string, string> = { draft: "Draft", submitted: "Submitted", validated: "Validated", retired: "Retired" };
 
 export interface FilterValues {
   q?: string; template?: string; status?: string; loadType?: string; passElement?: string; currentMin?: string; currentMax?: string;
 }
 
 export function LibraryFilters({ values, facets }: { values: FilterValues; facets: { templates: string[]; loadTypes: string[]; passElements: string[] } }) {
-  const select = (name: keyof FilterValues, label: string, options: readonly string[]) => (
+  const select = (name: keyof FilterValues, label: string, options: readonly string[], words: (v: string) => string) => (
     <label className="flex flex-col">
       <span className="text-xs text-ink-muted">{label}</span>
       <select name={name} defaultValue={values[name] ?? ""} className={FIELD} aria-label={label}>
         <option value="">any</option>
-        {options.map((o) => <option key={o} value={o}>{o}</option>)}
+        {options.map((o) => <option key={o} value={o}>{words(o)}</option>)}
       </select>
     </label>
   );
@@ -22,10 +25,10 @@ export function LibraryFilters({ values, facets }: { values: FilterValues; facet
         <span className="text-xs text-ink-muted">Search</span>
         <input name="q" defaultValue={values.q ?? ""} className={`${FIELD} w-56`} placeholder="title, note, template" aria-label="Search" />
       </label>
-      {select("status", "Status", LIBRARY_STATUSES)}
-      {select("template", "Template", facets.templates)}
-      {select("loadType", "Load", facets.loadTypes)}
-      {select("passElement", "Pass element", facets.passElements)}
+      {select("status", "Status", LIBRARY_STATUSES, (v) => STATUS_WORDS[v] ?? v)}
+      {select("template", "Template", facets.templates, templateWords)}
+      {select("loadType", "Load", facets.loadTypes, loadWords)}
+      {select("passElement", "Pass element", facets.passElements, passWords)}
       <label className="flex flex-col">
         <span className="text-xs text-ink-muted">Full scale from, A</span>
         <input name="currentMin" defaultValue={values.currentMin ?? ""} className={`${FIELD} num w-24`} inputMode="decimal" aria-label="Full-scale current from (A)" />

@@ -5,6 +5,8 @@ import type { LibraryEntrySummary } from "@/lib/db/library";
 import { StatusBadge } from "./StatusBadge";
 import { VerdictBadge } from "@/components/traces/VerdictBadge";
 import { templateTitle } from "@/components/scenarios/RevisionView";
+import { loadWords, passWords } from "@/lib/design/words";
+import { formatDate } from "@/lib/shared/dates";
 
 function worst(e: LibraryEntrySummary): "pass" | "warn" | "fail" | null {
   const v = e.evidence.comparisons.map((c) => c.verdict);
@@ -39,12 +41,12 @@ export function LibraryTable({ entries }: { entries: LibraryEntrySummary[] }) {
                 <span className="block text-xs text-ink-muted">revision {e.revisionNumber}{e.submittedByName ? ` · submitted by ${e.submittedByName}` : ""}</span>
               </td>
               <td className="px-3 py-2"><StatusBadge status={e.status} />{e.overrideReason && e.status === "validated" && <span className="ml-1 block text-xs font-medium text-verdict-fail" data-testid="library-override" title={`Override: ${e.overrideReason}`}>over failing evidence</span>}</td>
-              <td className="px-3 py-2 text-xs">{templateTitle(e.template)} · {e.passElement || "—"} · {e.loadType || "—"}</td>
+              <td className="px-3 py-2 text-xs">{templateTitle(e.template)} · {e.passElement ? passWords(e.passElement) : "—"} · {e.loadType ? loadWords(e.loadType) : "—"}</td>
               <td className="num whitespace-nowrap px-3 py-2 text-right">{e.currentMax === null ? "—" : `${formatQuantity(e.currentMin ?? 0, "A")} – ${formatQuantity(e.currentMax, "A")}`}</td>
               <td className="num px-3 py-2 text-right">{formatQuantity(e.keyFigures.overshootPct, "%")}</td>
               <td className="num whitespace-nowrap px-3 py-2 text-right">{formatQuantity(e.keyFigures.settlingTime, "s")}</td>
               <td className="px-3 py-2 text-xs">{e.evidence.traceIds.length} trace{e.evidence.traceIds.length === 1 ? "" : "s"} <VerdictBadge verdict={worst(e)} /></td>
-              <td className="px-3 py-2 text-xs">{e.validatedByName ? `${e.validatedByName}, ${e.validatedAt?.slice(0, 10)}` : "—"}</td>
+              <td className="px-3 py-2 text-xs">{e.validatedByName ? `${e.validatedByName}, ${e.validatedAt ? formatDate(e.validatedAt) : "—"}` : "—"}</td>
             </tr>
           ))}
         </tbody>

@@ -3,12 +3,13 @@
  * Step response and Bode plots. The worker's columns go to uPlot as they are; the previous run is drawn behind as
  * a dashed ghost at ~35 % opacity so that a change shows as a change.
  */
-import { useMemo, useRef } from "react";
+import { useMemo, useRef, useState } from "react";
+import { stepMarks } from "@/lib/workbench/stepMarks";
 import type uPlot from "uplot";
 import { formatEng } from "@/lib/units/eng";
 import type { BodeView, LoopView, StepView } from "@/lib/workbench/types";
 import type { CsvColumn } from "@/lib/workbench/csv";
-import { UPlotChart, type Marker, type Overlay, type UPlotHandle } from "./UPlotChart";
+import { UPlotChart, type CursorReadout, type Marker, type Overlay, type UPlotHandle } from "./UPlotChart";
 import { AXIS, GHOST_ALPHA, GHOST_DASH, OKABE_ITO } from "./palette";
 import { ExportButtons } from "./ExportMenu";
 
@@ -25,12 +26,20 @@ const STEP_SERIES = [
   { key: "vPass", label: "Collector/drain", unit: "V", scale: "V", color: OKABE_ITO[3] },
 ] as const;
 
+type StepKey = (typeof STEP_SERIES)[number]["key"];
+
+/** The command drawn as the current it asks for (command × the ideal transconductance), on the current axis. */
+const COMMAND_AS_CURRENT = { label: "Command as current", color: OKABE_ITO[4] };
+
+/** Ink at low weight for the step's marks (design language). */
+const MARK_INK = "#5B6472";
+
 /** The small-signal step's trace colour (Okabe–Ito sky blue, beside the load current's blue). */
 const SMALL_SIGNAL_COLOR = OKABE_ITO[5];
 
 function PlotHeader({ title, children }: { title: string; children?: React.ReactNode }) {
   return (
-    <div className="flex items-center justify-between px-1 pb-1">
+    <div className="flex flex-wrap items-center justify-between gap-x-2 gap-y-1 px-1 pb-1">
       <h3 className="text-[13px] font-semibold text-ink">{title}</h3>
       {children}
     </div>
@@ -43,45 +52,89 @@ export interface MeasuredOverlay { time: Float64Array; values: Float64Array; lab
 /** The bench capture's colour (Okabe–Ito vermilion, as in the bench comparison). */
 const MEASURED_COLOR = OKABE_ITO[1];
 
-export function StepPlot({ step, ghost, measured = null, height = 230, title = "Step response" }: { step: StepView | null; ghost: StepView | null; measured?: MeasuredOverlay | null; height?: number; title?: string }) {
+export interface StepPlotProps {
+  step: StepView | null;
+  ghost: StepView | null;
+  height?: number;
+  title?: string;
+  /** the template has a pass transistor (its collector/drain is drawn); the Howland pump has none */
+  hasPass?: boolean;
+  /** ideal transconductance, A/V: the command is drawn as the current it asks for (null: not drawn) */
+  transconductance?: number | null;
+  /** the latest bench capture, aligned, drawn over the load current */
+  measured?: MeasuredOverlay | null;
+}
+
+export function StepPlot({ step, ghost, measured = null, height = 230, title = "Step response", hasPass = true, transconductance = null }: StepPlotProps) {
   const ref = useRef<UPlotHandle>(null);
+  const [commandAsCurrent, setCommandAsCurrent] = useState(true);
+  const withCommandCurrent = commandAsCurrent && transconductance !== null && Number.isFinite(transconductance);
+  const series = useMemo(() => STEP_SERIES.filter((s) => hasPass || s.key !== "vPass"), [hasPass]);
   const options = useMemo<Omit<uPlot.Options, "width" | "height">>(() => ({
     legend: { live: true },
-    cursor: { drag: { x: true, y: false }, sync: { key: "step" } },
+    cursor: { sync: { key: "step" } },
     scales: { x: { time: false }, A: { auto: true }, V: { auto: true } },
     series: [
       { label: "t", value: (_u, v) => (v == null ? "—" : formatEng(v, "s")) },
-      ...STEP_SERIES.map((s) => ({
+      ...series.map((s) => ({
         label: s.label,
         scale: s.scale,
         stroke: s.color,
         width: s.key === "iLoad" ? 2 : 1.4,
         value: (_u: uPlot, v: number | null) => (v == null ? "—" : formatEng(v, s.unit)),
       })),
+      ...(withCommandCurrent
+        ? [{ label: COMMAND_AS_CURRENT.label, scale: "A", stroke: COMMAND_AS_CURRENT.color, width: 1.2, dash: [6, 3], value: (_u: uPlot, v: number | null) => (v == null ? "—" : formatEng(v, "A")) }]
+        : []),
     ],
     axes: [
       axis({ values: engTicks("s") }),
       axis({ scale: "A", values: engTicks("A"), size: 58 }),
       axis({ scale: "V", side: 1, values: engTicks("V"), size: 62, grid: { show: false } }),
     ],
-  }), []);
-  const data = useMemo<uPlot.AlignedData>(
-    () => (step ? [step.time, step.iLoad, step.vCommand, step.vOpampOut, step.vPass] : [[], [], [], [], []]),
-    [step],
-  );
+  }), [series, withCommandCurrent]);
+  const data = useMemo<uPlot.AlignedData>(() => {
+    if (!step) return [[], ...series.map(() => []), ...(withCommandCurrent ? [[]] : [])];
+    const cols: ArrayLike<number>[] = [step.time, ...series.map((s) => step[s.key as StepKey])];
+    if (withCommandCurrent) {
+      const c = new Float64Array(step.vCommand.length);
+      for (let i = 0; i < c.length; i++) c[i] = step.vCommand[i]! * transconductance!;
+      cols.push(c);
+    }
+    return cols as uPlot.AlignedData;
+  }, [step, series, withCommandCurrent, transconductance]);
   const under = useMemo<Overlay[]>(() => {
     const list: Overlay[] = ghost
-      ? STEP_SERIES.map((s) => ({ x: ghost.time, y: ghost[s.key], stroke: s.color, scale: s.scale, dash: GHOST_DASH, alpha: GHOST_ALPHA }))
+      ? series.map((s) => ({ x: ghost.time, y: ghost[s.key as StepKey], stroke: s.color, scale: s.scale, dash: GHOST_DASH, alpha: GHOST_ALPHA }))
       : [];
     // the linearised circuit's step, dotted in the load current's colour
     if (step?.small) list.push({ x: step.small.time, y: step.small.iLoad, stroke: SMALL_SIGNAL_COLOR, scale: "A", dash: [2, 3], alpha: 0.8, width: 1.4 });
     if (measured) list.push({ x: measured.time, y: measured.values, stroke: MEASURED_COLOR, scale: "A", alpha: 0.85, width: 1.2 });
     return list;
-  }, [ghost, step, measured]);
+  }, [ghost, step, series, measured]);
+  const marks = useMemo(() => (step ? stepMarks(step.time, step.iLoad, step.metrics) : null), [step]);
+  const markers = useMemo<Marker[]>(() => {
+    if (!marks) return [];
+    const m: Marker[] = [];
+    if (marks.band) {
+      m.push({ y: marks.band.high, scale: "A", label: "+1 %", color: MARK_INK });
+      m.push({ y: marks.band.low, scale: "A", label: "−1 %", color: MARK_INK });
+    }
+    const y = (t: number) => step!.iLoad[Math.max(0, Math.min(step!.time.length - 1, lowerIndex(step!.time, t)))]!;
+    if (marks.t10 !== null) m.push({ x: marks.t10, y: y(marks.t10), scale: "A", label: "10 %", color: MARK_INK });
+    if (marks.t90 !== null) m.push({ x: marks.t90, y: y(marks.t90), scale: "A", label: "90 %", color: MARK_INK });
+    if (marks.peak) m.push({ x: marks.peak.t, y: marks.peak.value, scale: "A", label: `peak ${formatEng(marks.peak.value, "A")}`, color: MARK_INK });
+    return m;
+  }, [marks, step]);
+  const readout = useMemo<CursorReadout>(() => ({
+    x: { name: "t", unit: "s" },
+    series: [{ index: 1, name: "I", unit: "A" }],
+  }), []);
   const columns = (): CsvColumn[] | null =>
-    step ? [{ name: "time", unit: "s", data: step.time }, ...STEP_SERIES.map((s) => ({ name: s.label, unit: s.unit, data: step[s.key] }))] : null;
+    step ? [{ name: "time", unit: "s", data: step.time }, ...series.map((s) => ({ name: s.label, unit: s.unit, data: step[s.key as StepKey] }))] : null;
   return (
-    <figure className="rounded border border-hairline bg-white p-2" data-testid="plot-step">
+    <figure className="rounded border border-hairline bg-white p-2" data-testid="plot-step" data-marks={marks ? [marks.t10 !== null ? "10" : "", marks.t90 !== null ? "90" : "", marks.peak ? "peak" : "", marks.band ? "band" : ""].filter(Boolean).join(" ") : ""}
+      data-series={[...series.map((s) => s.label), ...(withCommandCurrent ? [COMMAND_AS_CURRENT.label] : [])].join("|")}>
       <PlotHeader title={title}>
         {step?.small && (
           <span className="mr-auto pl-3 text-[11px] text-ink-muted" data-testid="small-signal-legend">
@@ -95,11 +148,29 @@ export function StepPlot({ step, ghost, measured = null, height = 230, title = "
             bench: {measured.label}
           </span>
         )}
+        {transconductance !== null && (
+          <label className="mr-2 flex items-center gap-1 text-[11px] text-ink-muted">
+            <input type="checkbox" className="accent-signal" checked={commandAsCurrent} onChange={(e) => setCommandAsCurrent(e.target.checked)} data-testid="toggle-command-current" />
+            Command as current
+          </label>
+        )}
         <ExportButtons name={title} columns={columns} png={() => ref.current?.toPng() ?? null} testId="export-step" />
       </PlotHeader>
-      <UPlotChart ref={ref} options={options} data={data} height={height} under={under} ariaLabel={`${title}: load current, command, op-amp output and collector voltage against time`} testId="uplot-step" />
+      <UPlotChart ref={ref} options={options} data={data} height={height} under={under} markers={markers} readout={readout}
+        ariaLabel={`${title}: load current, command, op-amp output${hasPass ? " and collector voltage" : ""} against time`} testId="uplot-step" />
     </figure>
   );
+}
+
+/** Index of the last sample at or before t in an ascending column. */
+function lowerIndex(xs: ArrayLike<number>, t: number): number {
+  let lo = 0, hi = xs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid]! <= t) lo = mid;
+    else hi = mid;
+  }
+  return lo;
 }
 
 export interface BodeProps {
@@ -125,7 +196,7 @@ export function BodePlot({ title, bode, ghost, magUnit, id, loop, second, height
   const mainLabel = loop && secondLabel ? "current loop" : title;
   const mk = (scale: "mag" | "ph"): Omit<uPlot.Options, "width" | "height"> => ({
     legend: { live: true },
-    cursor: { drag: { x: true, y: false }, sync: { key: id } },
+    cursor: { sync: { key: id } },
     scales: { x: { time: false, distr: 3 }, [scale]: { auto: true } },
     series: [
       { label: "f", value: (_u, v) => (v == null ? "—" : formatEng(v, "Hz")) },
@@ -205,8 +276,10 @@ export function BodePlot({ title, bode, ghost, magUnit, id, loop, second, height
       <PlotHeader title={title}>
         <ExportButtons name={title} columns={columns} png={() => magRef.current?.toPng() ?? null} testId={`export-${id}`} />
       </PlotHeader>
-      <UPlotChart ref={magRef} options={magOpts} data={magData} under={magGhost} markers={magMarkers} height={height} ariaLabel={`${title} magnitude against frequency`} testId={`uplot-${id}-mag`} />
-      <UPlotChart ref={phRef} options={phOpts} data={phData} under={phGhost} markers={phMarkers} height={Math.round(height * 0.8)} ariaLabel={`${title} phase against frequency`} testId={`uplot-${id}-phase`} />
+      <UPlotChart ref={magRef} options={magOpts} data={magData} under={magGhost} markers={magMarkers} height={height} ariaLabel={`${title} magnitude against frequency`} testId={`uplot-${id}-mag`}
+        readout={{ x: { name: "f", unit: "Hz" }, series: [{ index: 1, name: "dB", unit: magUnit, plain: true }] }} />
+      <UPlotChart ref={phRef} options={phOpts} data={phData} under={phGhost} markers={phMarkers} height={Math.round(height * 0.8)} ariaLabel={`${title} phase against frequency`} testId={`uplot-${id}-phase`}
+        readout={{ x: { name: "f", unit: "Hz" }, series: [{ index: 1, name: "phase", unit: "°", plain: true }] }} />
     </figure>
   );
 }

@@ -13,15 +13,20 @@ export const AXIS = {
   labelFont: '11px "Inter Variable", system-ui, sans-serif',
 };
 
-/** A sequential colour for a value in [0, 1]: a perceptually ordered ramp from deep blue through teal to yellow. */
+/**
+ * Quell's sequential scale for maps (design language): paper to ink through the signal teal,
+ * #F7F5F0 → #CFE8E4 → #5FB3A8 → #0F766E → #0B3B3A, interpolated linearly in sRGB between the stops.
+ */
+export const MAP_STOPS = ["#F7F5F0", "#CFE8E4", "#5FB3A8", "#0F766E", "#0B3B3A"] as const;
+
+const STOP_RGB: [number, number, number][] = MAP_STOPS.map((h) => [parseInt(h.slice(1, 3), 16), parseInt(h.slice(3, 5), 16), parseInt(h.slice(5, 7), 16)]);
+
+/** The map colour of a value in [0, 1] on Quell's sequential scale (0 = paper, 1 = deep teal). */
 export function ramp(t: number): string {
-  const stops: [number, number, number][] = [
-    [38, 24, 95], [43, 80, 140], [33, 145, 140], [94, 201, 98], [253, 231, 37],
-  ];
-  const x = Math.max(0, Math.min(1, t)) * (stops.length - 1);
-  const i = Math.min(stops.length - 2, Math.floor(x));
+  const x = Math.max(0, Math.min(1, Number.isFinite(t) ? t : 0)) * (STOP_RGB.length - 1);
+  const i = Math.min(STOP_RGB.length - 2, Math.floor(x));
   const f = x - i;
-  const a = stops[i]!, b = stops[i + 1]!;
+  const a = STOP_RGB[i]!, b = STOP_RGB[i + 1]!;
   const c = (k: 0 | 1 | 2) => Math.round(a[k] + f * (b[k] - a[k]));
   return `rgb(${c(0)},${c(1)},${c(2)})`;
 }

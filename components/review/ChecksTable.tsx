@@ -12,7 +12,7 @@ export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions
             <th className="py-1 pr-2 font-medium">Check</th>
             <th className="py-1 pr-2 font-medium">Verdict</th>
             <th className="py-1 pr-2 text-right font-medium">Value</th>
-            <th className="py-1 pr-2 text-right font-medium">Limit</th>
+            <th className="py-1 pr-2 text-right font-medium">Needs</th>
             <th className="py-1 font-medium">Formula</th>
           </tr>
         </thead>
@@ -21,8 +21,8 @@ export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions
             <tr key={c.id} className="border-b border-hairline/60 align-top">
               <td className="py-1 pr-2">{c.label}{c.detail && <span className="block text-xs text-ink-muted">{c.detail}</span>}</td>
               <td className="py-1 pr-2"><VerdictBadge verdict={c.verdict} /></td>
-              <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatQuantity(c.value, c.unit)}</td>
-              <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatQuantity(c.limit, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{c.valueKind === "margin" ? "margin " : ""}{formatQuantity(c.value, c.unit)}</td>
+              <td className="num whitespace-nowrap py-1 pr-2 text-right">{c.limitKind === "min" ? "needs ≥ " : c.limitKind === "max" ? "needs ≤ " : ""}{formatQuantity(c.limit, c.unit)}</td>
               <td className="num py-1 text-xs">{c.formula}</td>
             </tr>
           ))}

@@ -20,6 +20,7 @@ import { templateTitle } from "@/components/scenarios/RevisionView";
 import { PartList } from "./PartList";
 import { OperatingPoint } from "./OperatingPoint";
 import type { ReactNode } from "react";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export interface ReviewProps {
   title: string;
@@ -44,7 +45,7 @@ function Section({ id, title, children }: { id: string; title: string; children:
   );
 }
 
-const when = (iso: string | null | undefined) => (iso ? `${new Date(iso).toLocaleString("en-GB", { timeZone: "UTC" })} UTC` : "—");
+const when = (iso: string | null | undefined) => (iso ? formatDateTime(iso) : "—");
 
 export function ReviewDocument(p: ReviewProps) {
   const sim = useSimulation(p.body);

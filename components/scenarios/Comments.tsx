@@ -3,6 +3,7 @@ import { useState } from "react";
 import useSWR from "swr";
 import { ago, fetcher, send, type FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
+import { formatDateTime } from "@/lib/shared/dates";
 
 interface Comment {
   id: string;
@@ -52,7 +53,7 @@ export function Comments({ scenarioId, revisionId }: { scenarioId: string; revis
           {data?.comments.map((c) => (
             <li key={c.id} className="px-4 py-3 text-sm">
               <p className="text-xs text-ink-muted">
-                <span className="font-medium text-ink">{c.authorName}</span> · <time dateTime={c.createdAt} title={new Date(c.createdAt).toLocaleString()}>{ago(c.createdAt)}</time>
+                <span className="font-medium text-ink">{c.authorName}</span> · <time dateTime={c.createdAt} title={formatDateTime(c.createdAt)}>{ago(c.createdAt)}</time>
                 {c.revisionNumber !== null && <> · on revision {c.revisionNumber}</>}
               </p>
               <p className="mt-1 whitespace-pre-wrap">{c.body}</p>

@@ -6,6 +6,7 @@ import { ago, fetcher, type FetchError } from "./fetcher";
 import { diffBodies } from "@/lib/design/diff";
 import { DiffTable } from "./DiffTable";
 import { Loading, LoadError } from "./Status";
+import { formatDateTime } from "@/lib/shared/dates";
 
 interface Rev {
   id: string;
@@ -31,7 +32,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
   if (isLoading) return <Loading what="revisions" />;
   return (
     <div className="space-y-6">
-      <section aria-labelledby="revs-title" className="rounded border border-hairline bg-white">
+      <section aria-labelledby="revs-title" className="overflow-x-auto rounded border border-hairline bg-white">
         <h2 id="revs-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Revisions</h2>
         <table className="w-full text-sm">
           <thead className="text-xs uppercase tracking-wide text-ink-muted">
@@ -52,7 +53,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
                 </td>
                 <td className="px-4 py-1.5">{r.note || <span className="text-ink-muted">—</span>}</td>
                 <td className="px-4 py-1.5">{r.authorName}</td>
-                <td className="px-4 py-1.5 text-ink-muted" title={new Date(r.createdAt).toLocaleString()}>{ago(r.createdAt)}</td>
+                <td className="px-4 py-1.5 text-ink-muted" title={formatDateTime(r.createdAt)}>{ago(r.createdAt)}</td>
                 <td className="px-4 py-1.5">
                   <input type="radio" name="older" aria-label={`Compare from revision ${r.number}`} checked={a === r.id} onChange={() => setOlder(r.id)} />
                 </td>
@@ -65,7 +66,7 @@ export function RevisionHistory({ scenarioId }: { scenarioId: string }) {
         </table>
       </section>
       {a && b && (
-        <section aria-labelledby="diff-title" className="rounded border border-hairline bg-white">
+        <section aria-labelledby="diff-title" className="overflow-x-auto rounded border border-hairline bg-white">
           <h2 id="diff-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">
             Differences{ra.data && rb.data ? `: revision ${ra.data.number} → ${rb.data.number}` : ""}
           </h2>

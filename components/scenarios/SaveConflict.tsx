@@ -7,6 +7,7 @@ import type { ReactNode } from "react";
 import type { SaveResult } from "@/lib/db/revisions";
 import { diffBodies } from "@/lib/design/diff";
 import { DiffTable } from "./DiffTable";
+import { formatDateTime } from "@/lib/shared/dates";
 
 /** A save function as the pages pass it down (the server action saveScenarioRevision). */
 export type SaveFn = (input: { scenarioId: string; baseRevisionId: string; note: string; body: unknown }) => Promise<SaveResult>;
@@ -19,7 +20,7 @@ export function SaveConflict({ current, mine, children }: { current: Conflicting
     <div className="mt-3 rounded border border-verdict-warn/40 bg-verdict-warn/5" data-testid="save-conflict">
       <p className="px-4 py-2 text-sm">
         <span className="font-semibold text-verdict-warn">Conflict:</span> revision {current.number} by {current.author} (
-        {new Date(current.createdAt).toLocaleString()}) was saved after the one you started from. Differences from it to yours:
+        {formatDateTime(current.createdAt)}) was saved after the one you started from. Differences from it to yours:
       </p>
       <div className="max-h-64 overflow-auto">
         <DiffTable rows={diffBodies(current.body, mine)} beforeLabel={`Revision ${current.number}`} afterLabel="Yours" />

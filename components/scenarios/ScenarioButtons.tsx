@@ -1,9 +1,9 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { BUTTON } from "@/components/shell/classes";
+import { BUTTON, TOOL_BUTTON } from "@/components/shell/classes";
 
-type Fork = (input: { revisionId: string; title?: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
+export type Fork = (input: { revisionId: string; title?: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
 type SetDeleted = (input: { scenarioId: string; deleted: boolean }) => Promise<{ ok: true } | { ok: false; message: string }>;
 
 /** A button that runs a server action in a transition and shows its refusal beside it. */
@@ -26,15 +26,35 @@ function ActionButton({ run, label, busyLabel, className }: {
 }
 
 /** "Fork to my drafts": copies a revision into a new scenario of the user and opens it. */
-export function ForkButton({ revisionId, fork, label = "Fork to my drafts" }: { revisionId: string; fork: Fork; label?: string }) {
+export function ForkButton({ revisionId, fork, label = "Fork to my drafts", compact = false }: { revisionId: string; fork: Fork; label?: string; compact?: boolean }) {
   const router = useRouter();
   return (
     <ActionButton
       label={label}
       busyLabel="Forking…"
-      className={BUTTON}
+      className={compact ? `${TOOL_BUTTON} text-ink` : BUTTON}
       run={async () => {
         const r = await fork({ revisionId });
+        if (!r.ok) return r.message;
+        router.push(`/scenarios/${r.scenarioId}`);
+        return null;
+      }}
+    />
+  );
+}
+
+type CopyShared = (input: { token: string }) => Promise<{ ok: true; scenarioId: string } | { ok: false; message: string }>;
+
+/** "Open a copy" of a publicly shared revision in the signed-in user's team. */
+export function OpenCopyButton({ token, copy }: { token: string; copy: CopyShared }) {
+  const router = useRouter();
+  return (
+    <ActionButton
+      label="Open a copy"
+      busyLabel="Copying…"
+      className={BUTTON}
+      run={async () => {
+        const r = await copy({ token });
         if (!r.ok) return r.message;
         router.push(`/scenarios/${r.scenarioId}`);
         return null;

@@ -6,6 +6,8 @@ import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
 import { BUTTON_PRIMARY } from "@/components/shell/classes";
+import { formatDateTime } from "@/lib/shared/dates";
+import { StartingPoints } from "./StartingPoints";
 
 interface Row {
   id: string;
@@ -126,6 +128,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
       </div>
 
       {actionError && <p role="alert" className="mt-3 text-sm text-verdict-fail">Not done: {actionError}</p>}
+      {data && data.total === 0 && !deleted && !query && !owner && !template && !status && <StartingPoints canCreate={canCreate} />}
 
       <div className="mt-4 overflow-x-auto rounded border border-hairline bg-white">
         {error && !data ? (
@@ -150,7 +153,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
             <tbody className="divide-y divide-hairline">
               {data?.items.length === 0 && (
                 <tr>
-                  <td colSpan={7} className="px-4 py-6 text-ink-muted">{deleted ? "No deleted scenarios." : "No scenarios match."}</td>
+                  <td colSpan={7} className="px-4 py-6 text-ink-muted">{deleted ? "No deleted scenarios." : query || owner || template || status ? "No scenarios match." : "No scenarios yet: start from one of the starting points above."}</td>
                 </tr>
               )}
               {data?.items.map((r) => (
@@ -165,7 +168,7 @@ export function ScenarioTable({ me, canCreate, templates }: { me: { id: string; 
                   <td className="px-4 py-2 text-ink-muted">{templateTitle(r.template)}</td>
                   <td className="px-4 py-2">{r.ownerName}</td>
                   <td className="px-4 py-2">{r.status}</td>
-                  <td className="px-4 py-2 text-ink-muted" title={new Date(r.updatedAt).toLocaleString()}>{ago(r.updatedAt)}</td>
+                  <td className="px-4 py-2 text-ink-muted" title={formatDateTime(r.updatedAt)}>{ago(r.updatedAt)}</td>
                   <td className="num px-4 py-2">
                     {r.revisionNumber !== null && !deleted ? (
                       <Link href={`/scenarios/${r.id}/history`} className="text-signal hover:underline" aria-label={`History of ${r.title}`}>r{r.revisionNumber}</Link>

@@ -3,7 +3,8 @@ import { useRef, useState } from "react";
 import useSWR from "swr";
 import { fetcher, send, type FetchError } from "./fetcher";
 import { Loading, LoadError } from "./Status";
-import { BUTTON, FIELD } from "@/components/shell/classes";
+import { BUTTON, FIELD, TOOL_BUTTON } from "@/components/shell/classes";
+import { formatDate } from "@/lib/shared/dates";
 
 interface Link {
   id: string;
@@ -17,14 +18,19 @@ interface Link {
  * "Share link": the team link to one revision (members only, read-only with fork), and — for the owner or a
  * lead — public read-only links with an expiry, listed with their state and revocable.
  */
-export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish }: { scenarioId: string; revisionId: string; revisionNumber: number; canPublish: boolean }) {
+export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish, publicUrl, compact = false }: {
+  scenarioId: string; revisionId: string; revisionNumber: number; canPublish: boolean;
+  /** The site's configured public base URL (QUELL_PUBLIC_URL), so the team link matches the links in e-mails. */
+  publicUrl: string;
+  compact?: boolean;
+}) {
   const dialog = useRef<HTMLDialogElement>(null);
   const [open, setOpen] = useState(false);
   const [copied, setCopied] = useState<string | null>(null);
   const [fresh, setFresh] = useState<string | null>(null);
   const [days, setDays] = useState("14");
   const [err, setErr] = useState<string | null>(null);
-  const teamLink = typeof window === "undefined" ? `/share/r/${revisionId}` : `${window.location.origin}/share/r/${revisionId}`;
+  const teamLink = `${publicUrl.replace(/\/+$/, "")}/share/r/${revisionId}`;
   const url = `/api/scenarios/${scenarioId}/share-links`;
   const { data, error, isLoading, mutate } = useSWR<{ links: Link[] }, FetchError>(open ? url : null, fetcher);
 
@@ -65,11 +71,12 @@ export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish
           setOpen(true);
           dialog.current?.showModal();
         }}
-        className={BUTTON}
+        className={compact ? `${TOOL_BUTTON} text-ink` : BUTTON}
+        data-testid="share-open"
       >
         Share link
       </button>
-      <dialog ref={dialog} onClose={() => setOpen(false)} aria-labelledby="share-title" className="w-full max-w-lg rounded border border-hairline p-0 backdrop:bg-ink/30">
+      <dialog ref={dialog} onClose={() => setOpen(false)} aria-labelledby="share-title" data-testid="share-dialog" className="fixed inset-0 m-auto h-fit max-h-[90vh] w-[calc(100vw-2rem)] max-w-lg overflow-y-auto rounded border border-hairline bg-white p-0 text-ink shadow-xl backdrop:bg-ink/30">
         <div className="p-5">
           <h2 id="share-title" className="text-lg font-semibold">Share revision {revisionNumber}</h2>
           <label htmlFor="team-link" className="mt-4 block text-sm font-medium">Team link (members of your team, read-only)</label>
@@ -114,7 +121,7 @@ export function ShareDialog({ scenarioId, revisionId, revisionNumber, canPublish
                 {data?.links.map((l) => (
                   <li key={l.id} className="flex items-center justify-between py-1.5">
                     <span>
-                      Revision {l.revisionNumber} · {l.state === "active" ? `until ${new Date(l.expiresAt).toLocaleDateString()}` : l.state}
+                      Revision {l.revisionNumber} · {l.state === "active" ? `until ${formatDate(l.expiresAt)}` : l.state}
                       {l.createdBy ? ` · by ${l.createdBy}` : ""}
                     </span>
                     {l.state === "active" && canPublish && (

@@ -1,3 +1,4 @@
+import { formatRelative } from "@/lib/shared/dates";
 /** SWR fetcher and JSON mutation helper for the REST API: errors carry the server's message and status. */
 export class FetchError extends Error {
   constructor(
@@ -31,13 +32,7 @@ export async function send<T>(url: string, method: "POST" | "PATCH" | "DELETE", 
   );
 }
 
-/** Relative time for tables: "3 min ago", "2 days ago"; the full time goes in a title attribute. */
+/** Relative time for tables: "3 min ago", "2 days ago" (lib/shared/dates); the full time goes in a title attribute. */
 export function ago(iso: string, now = Date.now()): string {
-  const s = Math.max(0, Math.round((now - new Date(iso).getTime()) / 1000));
-  if (s < 60) return "just now";
-  const m = Math.round(s / 60);
-  if (m < 60) return `${m} min ago`;
-  const h = Math.round(m / 60);
-  if (h < 48) return `${h} h ago`;
-  return `${Math.round(h / 24)} days ago`;
+  return formatRelative(iso, now);
 }

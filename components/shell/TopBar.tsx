@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { ComponentProps } from "react";
 import { UserMenu } from "@/components/account/UserMenu";
+import { MainMenu } from "./MainMenu";
 
 type Action = ComponentProps<typeof UserMenu>["switchTeam"];
 
@@ -17,7 +18,7 @@ export interface TopBarAccount {
 export function TopBar({ me }: { me: TopBarAccount | null }) {
   return (
     <header className="no-print border-b border-hairline bg-white">
-      <nav className="mx-auto flex h-12 max-w-screen-2xl items-center gap-6 px-4 text-sm" aria-label="Main">
+      <nav className="relative mx-auto flex h-12 max-w-screen-2xl items-center gap-6 px-4 text-sm" aria-label="Main">
         <Link href="/" className="flex items-center gap-2 font-semibold tracking-tight text-ink">
           <svg aria-hidden viewBox="0 0 32 32" className="h-6 w-6">
             <rect width="32" height="32" rx="6" fill="#0F766E" />
@@ -25,6 +26,7 @@ export function TopBar({ me }: { me: TopBarAccount | null }) {
           </svg>
           Quell
         </Link>
+        <MainMenu>
         <Link href="/scenarios" className="text-ink-muted hover:text-ink">Scenarios</Link>
         {me && <Link href="/library" className="text-ink-muted hover:text-ink">Library</Link>}
         {me && <Link href="/team" className="text-ink-muted hover:text-ink">Team</Link>}
@@ -39,8 +41,12 @@ export function TopBar({ me }: { me: TopBarAccount | null }) {
             signOutEverywhere={me.signOutEverywhere}
           />
         ) : (
-          <Link href="/sign-in" className="ml-auto rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>
+          <span className="flex flex-wrap items-center gap-3 md:ml-auto">
+            <Link href="/sign-up" className="text-ink-muted hover:text-ink">Create a team</Link>
+            <Link href="/sign-in" className="rounded border border-hairline px-2 py-1 text-ink hover:border-signal">Sign in</Link>
+          </span>
         )}
+        </MainMenu>
       </nav>
     </header>
   );

@@ -13,5 +13,9 @@ export const BUTTON = "rounded border border-hairline bg-white px-3 py-1.5 text-
 export const TOOL_BUTTON =
   "rounded border border-hairline bg-white px-2 py-1 text-[13px] hover:bg-paper focus-visible:outline-2 focus-visible:outline-signal disabled:opacity-40";
 
+/** The primary action among the workbench's tool buttons (white on signal teal, 5.5:1). */
+export const TOOL_BUTTON_PRIMARY =
+  "rounded border border-signal bg-signal px-2 py-1 text-[13px] font-medium text-white hover:bg-signal-dark focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-signal disabled:opacity-60";
+
 /** A text field or a select. */
 export const FIELD = "rounded border border-hairline bg-white px-2 py-1 text-sm";

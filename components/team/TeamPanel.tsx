@@ -4,6 +4,7 @@ import useSWR from "swr";
 import { ago, fetcher, send, FetchError } from "@/components/scenarios/fetcher";
 import { Loading, LoadError } from "@/components/scenarios/Status";
 import { BUTTON_PRIMARY, FIELD } from "@/components/shell/classes";
+import { formatDate } from "@/lib/shared/dates";
 
 type Role = "viewer" | "designer" | "lead";
 interface Member { userId: string; name: string; email: string; role: Role; joinedAt: string }
@@ -28,7 +29,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
   return (
     <div className="space-y-8">
       {err && <p role="alert" className="rounded border border-verdict-fail/30 bg-red-50 px-3 py-2 text-sm text-verdict-fail">Not done: {err}</p>}
-      <section aria-labelledby="members-title" className="rounded border border-hairline bg-white">
+      <section aria-labelledby="members-title" className="overflow-x-auto rounded border border-hairline bg-white">
         <h2 id="members-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Members</h2>
         {members.error ? (
           <LoadError error={members.error} retry={() => members.mutate()} />
@@ -91,7 +92,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
       </section>
 
       {isLead && (
-        <section aria-labelledby="inv-title" className="rounded border border-hairline bg-white">
+        <section aria-labelledby="inv-title" className="overflow-x-auto rounded border border-hairline bg-white">
           <h2 id="inv-title" className="border-b border-hairline px-4 py-2 text-sm font-semibold">Invitations</h2>
           <InviteForm onSent={() => invites.mutate()} />
           {invites.error ? (
@@ -105,7 +106,7 @@ export function TeamPanel({ meId, isLead }: { meId: string; isLead: boolean }) {
                 <li key={i.id} className="flex items-center justify-between px-4 py-1.5">
                   <span>
                     {i.email} · {i.role} · <span className={i.status === "pending" ? "" : "text-ink-muted"}>{i.status}</span>
-                    {i.status === "pending" && <span className="text-ink-muted"> · until {new Date(i.expiresAt).toLocaleDateString()}</span>}
+                    {i.status === "pending" && <span className="text-ink-muted"> · until {formatDate(i.expiresAt)}</span>}
                   </span>
                   {i.status === "pending" && (
                     <button type="button" onClick={() => act(() => send(`/api/team/invitations?id=${i.id}`, "DELETE"))} className="text-xs text-verdict-fail underline">

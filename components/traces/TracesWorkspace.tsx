@@ -11,6 +11,7 @@ import { formatEng } from "@/lib/units/eng";
 import { TraceUpload } from "./TraceUpload";
 import { BenchComparison, type ComparisonResult, type TraceMeta } from "./BenchComparison";
 import { useSimulation } from "./useSimulation";
+import { formatDateTime } from "@/lib/shared/dates";
 
 const SETTING_LABEL: Record<string, string> = {
   probe: "Probe / shunt", verticalScale: "Vertical scale", timebase: "Timebase", bandwidthLimit: "Bandwidth limit", notes: "Notes",
@@ -128,7 +129,7 @@ export function TracesWorkspace(p: WorkspaceProps) {
                     {Object.keys(t.settings).length > 0 && (
                       <span className="block text-xs text-ink-muted">{Object.entries(t.settings).map(([k, v]) => `${SETTING_LABEL[k] ?? k}: ${v}`).join(" · ")}</span>
                     )}
-                    <span className="text-xs text-ink-muted num">rev {t.revisionNumber} · {t.sampleCount.toLocaleString("en")} samples · {formatEng(t.duration, "s")} · {t.channels.map((c) => `${c.name} [${c.unit}]`).join(", ")} · {t.uploaderName}, {new Date(t.createdAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC</span>
+                    <span className="text-xs text-ink-muted num">rev {t.revisionNumber} · {t.sampleCount.toLocaleString("en")} samples · {formatEng(t.duration, "s")} · {t.channels.map((c) => `${c.name} [${c.unit}]`).join(", ")} · {t.uploaderName}, {formatDateTime(t.createdAt)}</span>
                   </span>
                   {(p.canDeleteAll || t.uploaderId === p.userId) && (
                     <button type="button" className="text-xs text-verdict-fail underline" onClick={() => void deleteTrace(t.id)} aria-label={`Delete ${t.label}`}>Delete</button>

@@ -216,7 +216,7 @@ export function OpampPanel() {
   return (
     <Section title="Op-amp" id="panel-opamp" defaultOpen={false}>
       <Select
-        id="opamp-preset" label="Preset" value={known ? preset : ""}
+        id="opamp-preset" label="Op-amp preset" value={known ? preset : ""}
         options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset }))]}
         onChange={(v) => {
           const p = OPAMP_PRESETS.find((x) => x.preset === v);
@@ -250,7 +250,7 @@ export function PassPanel() {
   return (
     <Section title="Pass device" id="panel-pass" defaultOpen={false}>
       <Select
-        id="pass-preset" label="Preset" value={known ? preset : ""}
+        id="pass-preset" label="Pass-device preset" value={known ? preset : ""}
         options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...presets.map((p) => ({ value: p.preset, label: p.preset }))]}
         onChange={(v) => {
           const p = PASS_PRESETS.find((x) => x.preset === v);
@@ -259,26 +259,26 @@ export function PassPanel() {
       />
       {bjt ? (
         <>
-          <ParamField partKey="pass" spec={{ path: "pass.betaF", label: "Forward beta βF", unit: "" }} />
-          <ParamField partKey="pass" spec={{ path: "pass.betaMin", label: "Minimum beta", unit: "" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.betaF", label: "Forward current gain βF", unit: "" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.betaMin", label: "Minimum current gain βmin", unit: "" }} />
           <ParamField partKey="pass" spec={{ path: "pass.Is", label: "Saturation current Is", unit: "A" }} />
           <ParamField partKey="pass" spec={{ path: "pass.VA", label: "Early voltage VA (empty = none)", unit: "V", nullable: true }} />
-          <ParamField partKey="pass" spec={{ path: "pass.Cje0", label: "Cje0", unit: "F" }} />
-          <ParamField partKey="pass" spec={{ path: "pass.Cjc0", label: "Cjc0", unit: "F" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.Cje0", label: "Base–emitter capacitance Cje0", unit: "F" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.Cjc0", label: "Base–collector capacitance Cjc0", unit: "F" }} />
           <ParamField partKey="pass" spec={{ path: "pass.tauF", label: "Transit time τF", unit: "s" }} />
         </>
       ) : (
         <>
           <ParamField partKey="pass" spec={{ path: "pass.Vth", label: "Threshold Vth", unit: "V" }} />
           <ParamField partKey="pass" spec={{ path: "pass.K", label: "K (square law)", unit: "A/V²" }} />
-          <ParamField partKey="pass" spec={{ path: "pass.lambda", label: "λ", unit: "1/V" }} />
-          <ParamField partKey="pass" spec={{ path: "pass.Cgs", label: "Cgs", unit: "F" }} />
-          <ParamField partKey="pass" spec={{ path: "pass.Cgd", label: "Cgd", unit: "F" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.lambda", label: "Channel-length modulation λ", unit: "1/V" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.Cgs", label: "Gate–source capacitance Cgs", unit: "F" }} />
+          <ParamField partKey="pass" spec={{ path: "pass.Cgd", label: "Gate–drain capacitance Cgd", unit: "F" }} />
         </>
       )}
       <ParamField partKey="pass" spec={{ path: "pass.vMax", label: "Rated voltage", unit: "V" }} />
       <ParamField partKey="pass" spec={{ path: "pass.pMax", label: "Rated dissipation (25 °C case)", unit: "W" }} />
-      <ParamField partKey="pass" spec={{ path: "pass.thetaJC", label: "θjc", unit: "°C/W" }} />
+      <ParamField partKey="pass" spec={{ path: "pass.thetaJC", label: "Thermal resistance θjc", unit: "°C/W" }} />
       <ParamField partKey="pass" spec={{ path: "pass.tjMax", label: "Max junction temperature", unit: "°C" }} />
     </Section>
   );

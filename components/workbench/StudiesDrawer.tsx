@@ -475,7 +475,7 @@ export function StudiesDrawer({ open, onToggle, engine }: { open: boolean; onTog
   useEffect(() => () => runner?.cancelAll(), [runner]);
   const running = useWb((s) => TABS.filter((t) => s.studies[t.id].status === "running").map((t) => t.label).join(", "));
   return (
-    <div className="fixed inset-x-0 bottom-0 z-20 border-t border-hairline bg-white shadow-[0_-4px_16px_rgba(28,36,48,0.08)]" data-testid="studies-drawer">
+    <div className="fixed inset-x-0 bottom-0 z-30 border-t border-hairline bg-white shadow-[0_-4px_16px_rgba(28,36,48,0.08)]" data-testid="studies-drawer">
       <div className="flex items-center gap-3 px-4">
         <button type="button" onClick={onToggle} aria-expanded={open} aria-controls="studies-panel" className="py-1.5 text-[13px] font-semibold" data-testid="studies-toggle">
           Studies {open ? "▾" : "▴"}

@@ -126,6 +126,17 @@ function fmtValue(c: CheckRow): string {
   return formatEng(c.value, c.unit);
 }
 
+/** The value cell: a margin says so ("margin 300 mV"); the words may wrap, the quantity does not. */
+function valueText(c: CheckRow) {
+  return <>{c.valueKind === "margin" ? "margin " : ""}<span className="whitespace-nowrap">{fmtValue(c)}</span></>;
+}
+
+/** The limit cell: what the value needs ("needs ≥ 0 V", "needs ≤ 10.8 V"), or the limit as it is. */
+function limitText(c: CheckRow) {
+  const v = fmtValue({ ...c, value: c.limit });
+  return <>{c.limitKind === "min" ? "needs ≥ " : c.limitKind === "max" ? "needs ≤ " : ""}<span className="whitespace-nowrap">{v}</span></>;
+}
+
 export function ChecksTable() {
   const checks = useWb((s) => s.run.current?.checks ?? null);
   if (!checks) return <p className="text-[13px] text-ink-muted">Checks appear after the first run.</p>;
@@ -136,7 +147,7 @@ export function ChecksTable() {
         <tr className="border-b border-hairline text-left text-ink-muted">
           <th scope="col" className="py-1 pr-2 font-medium">Check</th>
           <th scope="col" className="py-1 pr-2 text-right font-medium">Value</th>
-          <th scope="col" className="py-1 pr-2 text-right font-medium">Limit</th>
+          <th scope="col" className="py-1 pr-2 text-right font-medium">Needs</th>
           <th scope="col" className="py-1 font-medium">Verdict</th>
         </tr>
       </thead>
@@ -150,8 +161,8 @@ export function ChecksTable() {
                 <p className="mt-0.5 text-[11px] text-ink-muted">{c.detail}</p>
               </details>
             </td>
-            <td className="num whitespace-nowrap py-1 pr-2 text-right">{fmtValue(c)}</td>
-            <td className="num whitespace-nowrap py-1 pr-2 text-right text-ink-muted">{fmtValue({ ...c, value: c.limit })}</td>
+            <td className="num py-1 pr-2 text-right" data-testid={`check-${c.id}-value`}>{valueText(c)}</td>
+            <td className="num py-1 pr-2 text-right text-ink-muted" data-testid={`check-${c.id}-limit`}>{limitText(c)}</td>
             <td className="py-1"><VerdictWordBadge v={c.verdict} /></td>
           </tr>
         ))}

@@ -6,7 +6,7 @@
 import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
 import type { Scenario } from "@/lib/design/schema";
-import { compileNetlistJson } from "@/lib/design/compile";
+import { compileNetlistJson, idealTransconductance } from "@/lib/design/compile";
 import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
@@ -24,6 +24,10 @@ import { SaveControl, type SaveFn } from "./SaveControl";
 import { TOOL_BUTTON } from "@/components/shell/classes";
 import { alignCapture } from "@/lib/traces/compare";
 import { useLatestTrace } from "./useLatestTrace";
+import { ShareDialog } from "@/components/scenarios/ShareDialog";
+import { ForkButton, type Fork } from "@/components/scenarios/ScenarioButtons";
+import { useKeptDraft } from "./useKeptDraft";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export interface WorkbenchProps {
   scenario: Scenario;
@@ -31,8 +35,12 @@ export interface WorkbenchProps {
   scenarioId: string | null;
   revisionId: string | null;
   revisionNumber: number | null;
-  /** Server action that saves a revision; null when saving is not possible here (a local draft). */
+  /** Server action that saves a revision; null when saving is not possible here (a local draft, a viewer). */
   save: SaveFn | null;
+  /** Server action that copies the revision into a new scenario of the user; null for roles that may not fork. */
+  fork?: Fork | null;
+  /** Share links: shown for members who may share; `canPublish` for the owner or a lead (public links). */
+  share?: { canPublish: boolean; publicUrl: string } | null;
 }
 
 export function Workbench(props: WorkbenchProps) {
@@ -63,7 +71,7 @@ function focusField(key: string) {
 
 const BTN = `${TOOL_BUTTON} text-ink`;
 
-function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: WorkbenchProps) {
+function Toolbar({ title, scenarioId, revisionId, revisionNumber, save, fork, share }: WorkbenchProps) {
   const store = useWbStore();
   const canUndo = useWb((s) => s.past.length > 0);
   const canRedo = useWb((s) => s.future.length > 0);
@@ -73,17 +81,21 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
   const showOp = useWb((s) => s.showOperatingPoint);
   const template = useWb((s) => s.scenario.template);
   const [shownRevision, setShownRevision] = useState(revisionNumber);
+  const [shownRevisionId, setShownRevisionId] = useState(revisionId);
+  /** A viewer's edits (and a saved scenario opened without the right to save) are a what-if that is not kept. */
+  const whatIf = !save && scenarioId !== null;
   const templateTitle = TEMPLATES.find((t) => t.id === template)?.title ?? template;
   return (
     <div className="flex flex-wrap items-center gap-2 border-b border-hairline bg-white px-4 py-2">
       <h1 className="mr-2 truncate text-[15px] font-semibold" data-testid="scenario-title">{title}</h1>
       <span className="text-[12px] text-ink-muted" data-testid="revision-label">{[templateTitle === title ? null : templateTitle, shownRevision !== null ? `revision ${shownRevision}` : "local draft"].filter(Boolean).join(" · ")}</span>
       <span
-        className={`rounded px-1.5 py-0.5 text-[11px] ${dirty ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
+        className={`rounded px-1.5 py-0.5 text-[11px] ${dirty && !whatIf ? "bg-verdict-warn/10 text-verdict-warn" : "text-ink-muted"}`}
         data-testid="dirty-indicator"
         aria-live="polite"
+        title={whatIf ? "Your role can read and comment: edits here are for trying values out and are not kept" : undefined}
       >
-        {dirty ? "● Unsaved changes" : "Saved"}
+        {whatIf ? (dirty ? "What-if, not kept" : "Read only") : dirty ? "● Unsaved changes" : scenarioId ? "Saved" : "Local draft, not saved"}
       </span>
       {scenarioId && (
         <nav aria-label="Scenario" className="flex gap-3 text-[12px]">
@@ -118,7 +130,11 @@ function Toolbar({ title, scenarioId, revisionId, revisionNumber, save }: Workbe
         >
           Netlist JSON
         </button>
-        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={setShownRevision} />
+        {scenarioId && share && shownRevisionId && shownRevision !== null && (
+          <ShareDialog scenarioId={scenarioId} revisionId={shownRevisionId} revisionNumber={shownRevision} canPublish={share.canPublish} publicUrl={share.publicUrl} compact />
+        )}
+        {fork && shownRevisionId && <ForkButton revisionId={shownRevisionId} fork={fork} label="Fork to my scenarios" compact />}
+        <SaveControl scenarioId={scenarioId} revisionId={revisionId} save={save} onSaved={(id, n) => { setShownRevision(n); setShownRevisionId(id); }} />
       </div>
     </div>
   );
@@ -170,7 +186,16 @@ function useBenchOverlay(scenarioId: string | null, on: boolean) {
 function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
   const current = useWb((s) => s.run.current);
   const previous = useWb((s) => s.run.previous);
+  const scenario = useWb((s) => s.scenario);
   const [tab, setTab] = useState<"closed" | "zout">("closed");
+  const transconductance = useMemo(() => {
+    try {
+      const g = idealTransconductance(scenario);
+      return Number.isFinite(g) ? g : null;
+    } catch {
+      return null;
+    }
+  }, [scenario]);
   const [bench, setBench] = useState(false);
   const overlay = useBenchOverlay(scenarioId, bench);
   return (
@@ -185,7 +210,7 @@ function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
           {overlay.note && <span role="status" data-testid="bench-overlay-note">{overlay.note}</span>}
         </div>
       )}
-      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} measured={bench ? overlay.overlay : null} />
+      <StepPlot step={current?.step ?? null} ghost={previous?.step ?? null} measured={bench ? overlay.overlay : null} hasPass={scenario.template !== "howland"} transconductance={transconductance} />
       <BodePlot id="loop" title="Loop gain" bode={current?.loop ?? null} ghost={previous?.loop ?? null} loop={current?.loop ?? null} magUnit="dB"
         second={current?.loop?.local !== undefined && current?.loop?.local !== null ? { label: "local op-amp loop", bode: current.loop.local } : null} />
       <div>
@@ -269,21 +294,18 @@ function useShortcuts() {
 function WorkbenchInner(props: WorkbenchProps) {
   const engine = useEngine();
   const [drawer, setDrawer] = useState(false);
-  const dirty = useWb((s) => s.dirty);
   useShortcuts();
-  useEffect(() => {
-    const onBefore = (e: BeforeUnloadEvent) => {
-      if (dirty && props.save) {
-        // Asks the browser to confirm leaving with unsaved changes.
-        e.preventDefault();
-      }
-    };
-    window.addEventListener("beforeunload", onBefore);
-    return () => window.removeEventListener("beforeunload", onBefore);
-  }, [dirty, props.save]);
+  const kept = useKeptDraft(props.scenarioId, props.revisionId, props.save !== null);
   return (
     <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
       <Toolbar {...props} />
+      {kept.offer && (
+        <div role="region" aria-label="Unsaved edits" className="flex flex-wrap items-center gap-2 border-b border-verdict-warn/40 bg-verdict-warn/5 px-4 py-2 text-[13px]" data-testid="draft-offer">
+          <span>You have unsaved edits to this scenario from {formatDateTime(kept.offer.savedAt)}, kept in this browser.</span>
+          <button type="button" className={`${TOOL_BUTTON} text-ink`} onClick={kept.restore} data-testid="draft-restore">Restore my edits</button>
+          <button type="button" className={`${TOOL_BUTTON} text-ink`} onClick={kept.discard} data-testid="draft-discard">Discard them</button>
+        </div>
+      )}
       <div className="grid flex-1 grid-cols-1 gap-3 p-3 md:grid-cols-[minmax(300px,380px)_minmax(0,1fr)] xl:grid-cols-[minmax(320px,380px)_minmax(0,1fr)_340px]">
         <section aria-label="Circuit" className="min-w-0 md:max-h-[calc(100vh-11rem)] xl:max-h-[calc(100vh-9rem)] md:overflow-y-auto md:pr-1">
           <h2 className="sr-only">Circuit</h2>
@@ -297,7 +319,7 @@ function WorkbenchInner(props: WorkbenchProps) {
           <h2 className="sr-only">Verdict</h2>
           <HeadlineFigures />
           <VerdictNote />
-          <div className="rounded border border-hairline bg-white p-2">
+          <div className="overflow-x-auto rounded border border-hairline bg-white p-2">
             <h3 className="mb-1 text-[13px] font-semibold">Checks</h3>
             <ChecksTable />
           </div>

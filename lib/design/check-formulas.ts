@@ -16,6 +16,10 @@ export interface CheckRow {
   unit: string;
   formula: string;
   detail: string;
+  /** "margin": the value is a margin (distance to the limit), not the quantity itself */
+  valueKind?: "margin";
+  /** whether the value must be at least ("min") or at most ("max") the limit, where one of the two is meant */
+  limitKind?: "min" | "max";
 }
 
 export interface Caution {

@@ -18,6 +18,11 @@ export function demoUser(role: DemoRole) {
 export async function signIn(page: Page, role: DemoRole, next = "/scenarios"): Promise<void> {
   const u = demoUser(role);
   await page.goto(`${BASE_URL}/sign-in?next=${encodeURIComponent(next)}`, { waitUntil: "load" });
+  if (new URL(page.url()).pathname !== "/sign-in") {
+    // Someone is signed in already (the sign-in page sends them to their scenarios): sign them out first.
+    await signOut(page);
+    await page.goto(`${BASE_URL}/sign-in?next=${encodeURIComponent(next)}`, { waitUntil: "load" });
+  }
   await page.getByLabel("E-mail").fill(u.email);
   await page.getByLabel("Password").fill(u.password);
   await page.getByRole("button", { name: "Sign in" }).click();

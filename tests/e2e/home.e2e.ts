@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { BASE_URL, launch, watchErrors } from "./browser";
+import { signIn } from "./auth";
 
 describe("home page", () => {
   let browser: Browser;
@@ -11,15 +12,31 @@ describe("home page", () => {
     await browser?.close();
   });
 
-  it("shows that the database and the mail fake are up", async () => {
+  it("says what Quell does with a picture of the workbench, offers Create a team beside Sign in, and shows no system status", async () => {
     const page = await browser.newPage();
     const errors = watchErrors(page);
     await page.goto(BASE_URL, { waitUntil: "load" });
-    const health = page.getByTestId("health");
-    await health.getByText("System ok").waitFor({ timeout: 15_000 });
-    expect(await health.textContent()).toContain("database up · mail up");
+    const picture = page.getByRole("img", { name: /The Quell workbench/ });
+    await picture.waitFor();
+    await expect.poll(() => picture.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth), { timeout: 15_000 }).toBeGreaterThan(1000);
+    const main = page.getByRole("main");
+    expect(await main.getByRole("link", { name: "Create a team" }).getAttribute("href")).toBe("/sign-up");
+    expect(await main.getByRole("link", { name: "Sign in" }).getAttribute("href")).toBe("/sign-in");
+    expect(await page.getByTestId("health").count()).toBe(0);
+    expect(await main.textContent()).not.toMatch(/database up|System ok/);
     expect(errors).toEqual([]);
     await page.close();
+  });
+
+  it("a signed-in user who opens the sign-in or forgot-password page goes to their scenarios", async () => {
+    const ctx = await browser.newContext();
+    const page = await ctx.newPage();
+    await signIn(page, "designer");
+    for (const path of ["/sign-in", "/forgot-password"]) {
+      await page.goto(`${BASE_URL}${path}`, { waitUntil: "load" });
+      expect(new URL(page.url()).pathname).toBe("/scenarios");
+    }
+    await ctx.close();
   });
 
   it("answers /api/health with JSON", async () => {

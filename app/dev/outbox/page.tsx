@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { requirePageUser } from "@/lib/auth/current";
 import { devOutboxEnabled } from "@/lib/mail/outbox";
 import { teamOutbox } from "@/lib/db/outbox";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Development outbox" };
@@ -20,7 +21,7 @@ export default async function OutboxPage() {
         {mail.map((m) => (
           <li key={m.id} className="rounded border border-hairline bg-white">
             <p className="border-b border-hairline px-4 py-2 text-sm">
-              <span className="font-medium">{m.subject}</span> → {m.to} · <time dateTime={m.receivedAt}>{new Date(m.receivedAt).toUTCString()}</time>
+              <span className="font-medium">{m.subject}</span> → {m.to} · <time dateTime={m.receivedAt}>{formatDateTime(m.receivedAt)}</time>
             </p>
             <pre className="num whitespace-pre-wrap px-4 py-3 text-xs">{m.text}</pre>
           </li>

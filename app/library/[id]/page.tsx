@@ -11,6 +11,7 @@ import { EntryHistory } from "@/components/library/EntryHistory";
 import { EntryEvidence } from "@/components/library/EntryEvidence";
 import { startFromEntryAction } from "../actions";
 import { templateTitle } from "@/components/scenarios/RevisionView";
+import { formatDate } from "@/lib/shared/dates";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Library entry" };
@@ -40,7 +41,7 @@ export default async function EntryPage({ params }: { params: Promise<{ id: stri
         <div>
           <h1 className="text-2xl font-semibold">{entry.title} <span className="text-base font-normal text-ink-muted">revision {entry.revisionNumber}</span></h1>
           <p className="mt-1 text-sm"><StatusBadge status={entry.status} testId="entry-status" /> <span className="ml-2 text-ink-muted">{templateTitle(entry.template)} · {entry.passElement || "—"} · {entry.loadType || "—"}{entry.currentMax !== null ? ` · ${formatEng(entry.currentMin ?? 0, "A")} – ${formatEng(entry.currentMax, "A")}` : ""}</span></p>
-          {entry.validatedByName && <p className="mt-1 text-sm" data-testid="entry-validated-by">Validated by {entry.validatedByName}, {entry.validatedAt?.slice(0, 10)}</p>}
+          {entry.validatedByName && <p className="mt-1 text-sm" data-testid="entry-validated-by">Validated by {entry.validatedByName}, {entry.validatedAt ? formatDate(entry.validatedAt) : "—"}</p>}
           {entry.overrideReason && entry.status === "validated" && (
             <p className="mt-1 max-w-2xl rounded border border-verdict-fail/30 bg-red-50 px-3 py-2 text-sm text-verdict-fail" data-testid="entry-override">
               Validated with an override, against failing or missing bench evidence. Reason given: “{entry.overrideReason}”

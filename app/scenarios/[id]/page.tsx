@@ -2,8 +2,9 @@ import { notFound } from "next/navigation";
 import { getScenarioWithRevision } from "@/lib/db/scenarios";
 import { currentUser, requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
+import { publicBaseUrl } from "@/lib/shared/tokens";
 import { Workbench } from "@/components/workbench/Workbench";
-import { saveScenarioRevision } from "./actions";
+import { forkScenario, saveScenarioRevision } from "./actions";
 
 export const dynamic = "force-dynamic";
 
@@ -38,6 +39,8 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
       revisionId={row.revisionId}
       revisionNumber={row.revisionNumber}
       save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
+      fork={roleAtLeast(user.role, "designer") ? forkScenario : null}
+      share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id, publicUrl: publicBaseUrl() } : null}
     />
   );
 }

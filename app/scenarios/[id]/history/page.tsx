@@ -12,6 +12,7 @@ import { StatusSelect } from "@/components/scenarios/StatusSelect";
 import { TEMPLATE_CHOICES } from "@/lib/design/scenarioBody";
 import { SCENARIO_STATUSES } from "@/lib/shared/statuses";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
+import { publicBaseUrl } from "@/lib/shared/tokens";
 import { forkScenario, saveScenarioRevision, setScenarioDeleted } from "../actions";
 
 export const dynamic = "force-dynamic";
@@ -37,7 +38,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
       <div className="mt-1 flex flex-wrap items-center gap-3">
         <h1 className="mr-auto text-2xl font-semibold">History of {s.title}</h1>
         {s.can.share && s.revisionId && s.revisionNumber !== null && (
-          <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} />
+          <ShareDialog scenarioId={s.id} revisionId={s.revisionId} revisionNumber={s.revisionNumber} canPublish={s.can.delete} publicUrl={publicBaseUrl()} />
         )}
         {s.can.edit && <StatusSelect scenarioId={s.id} status={s.status} statuses={[...new Set<string>([...SCENARIO_STATUSES, s.status])]} />}
         {s.can.share && s.revisionId && <ForkButton revisionId={s.revisionId} fork={forkScenario} label="Fork" />}
@@ -47,7 +48,7 @@ export default async function HistoryPage({ params }: { params: Promise<{ id: st
         {templateTitle} · owner {s.ownerName} · status {s.status}
         {s.deletedAt && <span className="ml-2 font-medium text-verdict-fail">Deleted — restore it to edit</span>}
       </p>
-      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr] [&>*]:min-w-0">
         <div className="space-y-6">
           <RevisionHistory scenarioId={s.id} />
           {s.can.edit && s.revisionId && s.revisionNumber !== null && (

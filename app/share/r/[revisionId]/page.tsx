@@ -10,6 +10,7 @@ import { ForkButton } from "@/components/scenarios/ScenarioButtons";
 import { forkScenario } from "@/app/scenarios/[id]/actions";
 import { templateTitle } from "@/components/scenarios/RevisionView";
 import { BUTTON } from "@/components/shell/classes";
+import { formatDateTime } from "@/lib/shared/dates";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Shared revision" };
@@ -36,12 +37,12 @@ export default async function TeamSharePage({ params }: { params: Promise<{ revi
         )}
       </div>
       <p className="mt-1 text-sm text-ink-muted">
-        Saved by {r.authorName} on {new Date(r.createdAt).toUTCString()} · {templateTitle(r.template)}
+        Saved by {r.authorName} on {formatDateTime(r.createdAt)} · {templateTitle(r.template)}
         {!latest && <span className="ml-2 text-verdict-warn">A newer revision exists.</span>}
         {r.scenarioDeleted && <span className="ml-2 text-verdict-fail">The scenario has been deleted.</span>}
       </p>
       {r.note && <p className="mt-3 rounded border border-hairline bg-white px-4 py-2 text-sm">“{r.note}”</p>}
-      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr] [&>*]:min-w-0">
         <RevisionView body={r.body} />
         {!r.scenarioDeleted && <Comments scenarioId={r.scenarioId} revisionId={r.id} />}
       </div>
