@@ -11,6 +11,7 @@ import {
   soaCheck, thermalChecks, type CheckContext,
 } from "./check-rows";
 import { cautionsFor } from "./cautions";
+import { clampChecks, networkDissipationChecks } from "./network-checks";
 
 export * from "./check-formulas";
 
@@ -21,7 +22,9 @@ const CHECKS: readonly ((c: CheckContext) => CheckRow[])[] = [
   commonModeCheck,
   thermalChecks,
   soaCheck,
+  clampChecks,
   sensePowerCheck,
+  networkDissipationChecks,
   accuracyCheck,
   commandCurrentCheck,
   operatingPointChecks,

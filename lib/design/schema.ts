@@ -6,7 +6,7 @@
 import { z } from "zod";
 
 /** Current schema version; bump it and add a step to `upgradeScenario` whenever the shape changes. */
-export const SCHEMA_VERSION = 1 as const;
+export const SCHEMA_VERSION = 2 as const;
 
 export const TEMPLATE_IDS = ["sink-npn", "sink-darlington", "sink-nmos", "source-highside", "howland"] as const;
 export type TemplateId = (typeof TEMPLATE_IDS)[number];
@@ -133,6 +133,15 @@ export const cableSchema = z.object({
   sections: z.number().int("Cable sections must be a whole number").min(1, "At least one cable section").max(10, "At most 10 cable sections"),
 });
 
+export const CLAMP_KINDS = ["none", "diode", "diode-zener"] as const;
+
+export const clampSchema = z.object({
+  kind: z.enum(CLAMP_KINDS, { error: "Clamp must be none, diode or diode-zener" }),
+  /** the Zener's breakdown voltage, V (used by "diode-zener") */
+  zenerVoltage: positive("Zener voltage"),
+});
+export type ClampParams = z.infer<typeof clampSchema>;
+
 export const loadSchema = z.object({
   kind: z.enum(LOAD_KINDS, { error: "Load kind must be resistor, coil, led or cell" }),
   /** load resistance (resistor, coil winding, LED-string series resistor, cell internal resistance), Ω */
@@ -142,8 +151,8 @@ export const loadSchema = z.object({
   resistanceMax: nonNegative("Maximum load resistance"),
   /** coil inductance, H */
   inductance: nonNegative("Coil inductance"),
-  /** clamp (freewheel) diode across the coil */
-  clampDiode: z.boolean(),
+  /** clamp across the coil: none, a freewheel diode (slow decay), or a diode plus a Zener (fast decay at a set voltage) */
+  clamp: clampSchema,
   /** LEDs in the string */
   ledCount: z.number().int("LED count must be a whole number").min(1, "At least one LED").max(100, "At most 100 LEDs"),
   /** one LED: saturation current, A, and emission coefficient */
@@ -164,6 +173,28 @@ export const loadSchema = z.object({
   stepResistance: positive("Load-step resistor"),
 });
 export type LoadParams = z.infer<typeof loadSchema>;
+
+/** A series R–C snubber. */
+export const snubberSchema = z.object({
+  /** Ω */
+  resistance: positive("Snubber resistance"),
+  /** F */
+  capacitance: positive("Snubber capacitance"),
+});
+export type Snubber = z.infer<typeof snubberSchema>;
+
+/** Optional networks the engineer adds to a template's circuit; null = not fitted (the default). */
+export const networksSchema = z.object({
+  /** series R–C across the load's terminals at the far end of the cable */
+  loadSnubber: snubberSchema.nullable(),
+  /** series R–C across the pass device's collector–emitter (drain–source) */
+  passSnubber: snubberSchema.nullable(),
+  /** resistor from the pass device's base to emitter (gate to source), Ω */
+  baseEmitterResistor: optionalPositive("Base–emitter resistor"),
+  /** capacitor across the feedback resistor (sense node to inverting input), F */
+  feedbackCapacitor: optionalPositive("Feedback-resistor capacitor"),
+});
+export type Networks = z.infer<typeof networksSchema>;
 
 export const suppliesSchema = z.object({
   /** load supply, V (for a cell under test, a supply in series with the cell; usually 0) */
@@ -266,6 +297,7 @@ export const scenarioSchema = z.object({
   opamp: opampSchema,
   pass: passSchema,
   load: loadSchema,
+  networks: networksSchema,
   supplies: suppliesSchema,
   stimulus: stimulusSchema,
   thermal: thermalSchema,
@@ -288,6 +320,9 @@ export const scenarioSchema = z.object({
   }
   if (s.stimulus.stepTime >= s.stimulus.stopTime) {
     ctx.addIssue({ code: "custom", path: ["stimulus", "stepTime"], message: "The step must happen before the stop time" });
+  }
+  if (s.template === "howland" && (s.networks.passSnubber || s.networks.baseEmitterResistor !== null || s.networks.feedbackCapacitor !== null)) {
+    ctx.addIssue({ code: "custom", path: ["networks"], message: "The Howland pump has no pass device or feedback resistor: only the load snubber applies" });
   }
   if (s.pass.betaMin > s.pass.betaF) {
     ctx.addIssue({ code: "custom", path: ["pass", "betaMin"], message: "Minimum beta is above the typical beta" });

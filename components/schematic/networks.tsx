@@ -1,0 +1,107 @@
+/**
+ * The optional networks drawn in place: the coil clamp beside the coil, the load snubber beside the load, the
+ * pass-device snubber and base–emitter (gate–source) resistor beside the pass device, the feedback-resistor
+ * capacitor under the feedback resistor. Each layout says where its anchors are; each piece is a selectable part.
+ */
+import { formatEng } from "@/lib/units/eng";
+import type { ClampParams, Scenario } from "@/lib/design/schema";
+import { Part, type Box } from "./parts";
+import { Capacitor, Diode, INK, Resistor, Wire } from "./symbols";
+
+const small = (x: number, y: number, text: string, anchor: "start" | "end" | "middle" = "start") => (
+  <text x={x} y={y} fontSize={10.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>{text}</text>
+);
+
+/** Clamp across the coil (x is the load's wire; y1 the supply-side end, y2 the pass-device end). */
+export function ClampSymbol({ clamp, x, y1, y2 }: { clamp: ClampParams; x: number; y1: number; y2: number }) {
+  if (clamp.kind === "none") return null;
+  const m = (y1 + y2) / 2;
+  return (
+    <g data-testid="schematic-clamp">
+      <Wire d={[[x, y1 + 4], [x + 28, y1 + 4]]} />
+      <Wire d={[[x, y2 - 4], [x + 28, y2 - 4]]} />
+      {clamp.kind === "diode" ? (
+        <Diode x={x + 28} y1={y2 - 4} y2={y1 + 4} />
+      ) : (
+        <g>
+          <Diode x={x + 28} y1={y2 - 4} y2={m} />
+          {/* the Zener: conducts in reverse, its cathode toward the diode's */}
+          <Diode x={x + 28} y1={y1 + 4} y2={m} />
+          <path d={`M ${x + 20} ${m - 11} l -3 -3 M ${x + 36} ${m - 11} l 3 3`} stroke={INK} strokeWidth={1.2} />
+          {small(x + 40, m - 8, `${Number(clamp.zenerVoltage.toPrecision(3))} V`)}
+        </g>
+      )}
+    </g>
+  );
+}
+
+/** A vertical series R–C from (x, y1) to (x, y2), with the two values beside it. */
+function SeriesRC({ x, y1, y2, resistance, capacitance, side }: { x: number; y1: number; y2: number; resistance: number; capacitance: number; side: "left" | "right" }) {
+  const m = (y1 + y2) / 2;
+  const tx = side === "right" ? x + 10 : x - 10;
+  const anchor = side === "right" ? "start" : "end";
+  return (
+    <g>
+      <Resistor x1={x} y1={y1} x2={x} y2={m} />
+      <Capacitor x1={x} y1={m} x2={x} y2={y2} />
+      {small(tx, (y1 + m) / 2 + 4, formatEng(resistance, "Ω"), anchor)}
+      {small(tx, (m + y2) / 2 + 4, formatEng(capacitance, "F"), anchor)}
+    </g>
+  );
+}
+
+/** Where a layout's networks attach, in its own coordinates. */
+export interface NetworkAnchors {
+  /** the load's two terminals: x of the load wire, top and bottom y */
+  load?: { x: number; y1: number; y2: number };
+  /** pass device: collector/drain and emitter/source points, and the base/gate point */
+  pass?: { cx: number; cy: number; ex: number; ey: number; bx: number; by: number };
+  /** the feedback resistor's two ends (horizontal) */
+  feedback?: { x1: number; x2: number; y: number };
+}
+
+/** The fitted networks of the scenario, drawn at the layout's anchors. */
+export function NetworkPieces({ s, anchors, sel, on }: { s: Scenario; anchors: NetworkAnchors; sel: string | null; on: (k: string) => void }) {
+  const n = s.networks;
+  const a = anchors;
+  const gate = s.template === "sink-nmos" || s.pass.kind === "pmos";
+  const box = (x: number, y: number, w: number, h: number): Box => [x, y, w, h];
+  return (
+    <g data-testid="schematic-networks">
+      {n.loadSnubber && a.load && (
+        <Part id="loadSnubber" label={`Load snubber ${formatEng(n.loadSnubber.resistance, "Ω")} + ${formatEng(n.loadSnubber.capacitance, "F")}`}
+          box={box(a.load.x + 44, a.load.y1, 64, a.load.y2 - a.load.y1)} selected={sel} onSelect={on}>
+          <Wire d={[[a.load.x, a.load.y1], [a.load.x + 60, a.load.y1], [a.load.x + 60, a.load.y1 + 6]]} />
+          <Wire d={[[a.load.x, a.load.y2], [a.load.x + 60, a.load.y2], [a.load.x + 60, a.load.y2 - 6]]} />
+          <SeriesRC x={a.load.x + 60} y1={a.load.y1 + 6} y2={a.load.y2 - 6} resistance={n.loadSnubber.resistance} capacitance={n.loadSnubber.capacitance} side="right" />
+        </Part>
+      )}
+      {n.passSnubber && a.pass && (
+        <Part id="passSnubber" label={`Pass-device snubber ${formatEng(n.passSnubber.resistance, "Ω")} + ${formatEng(n.passSnubber.capacitance, "F")}`}
+          box={box(a.pass.cx + 30, Math.min(a.pass.cy, a.pass.ey), 70, Math.abs(a.pass.ey - a.pass.cy))} selected={sel} onSelect={on}>
+          <Wire d={[[a.pass.cx, a.pass.cy], [a.pass.cx + 44, a.pass.cy], [a.pass.cx + 44, a.pass.cy + 4]]} />
+          <Wire d={[[a.pass.ex, a.pass.ey], [a.pass.cx + 44, a.pass.ey], [a.pass.cx + 44, a.pass.ey - 4]]} />
+          <SeriesRC x={a.pass.cx + 44} y1={a.pass.cy + 4} y2={a.pass.ey - 4} resistance={n.passSnubber.resistance} capacitance={n.passSnubber.capacitance} side="right" />
+        </Part>
+      )}
+      {n.baseEmitterResistor !== null && a.pass && (
+        <Part id="baseEmitterResistor" label={`${gate ? "Gate–source" : "Base–emitter"} resistor ${formatEng(n.baseEmitterResistor, "Ω")}`}
+          box={box(a.pass.bx - 30, a.pass.by, 28, a.pass.ey - a.pass.by)} selected={sel} onSelect={on}>
+          <Wire d={[[a.pass.bx, a.pass.by], [a.pass.bx - 16, a.pass.by]]} />
+          <Resistor x1={a.pass.bx - 16} y1={a.pass.by} x2={a.pass.bx - 16} y2={a.pass.ey} />
+          <Wire d={[[a.pass.bx - 16, a.pass.ey], [a.pass.ex, a.pass.ey]]} />
+          {small(a.pass.bx - 20, (a.pass.by + a.pass.ey) / 2 + 4, formatEng(n.baseEmitterResistor, "Ω"), "end")}
+        </Part>
+      )}
+      {n.feedbackCapacitor !== null && a.feedback && (
+        <Part id="feedbackCapacitor" label={`Feedback-resistor capacitor ${formatEng(n.feedbackCapacitor, "F")}`}
+          box={box(a.feedback.x1, a.feedback.y + 4, a.feedback.x2 - a.feedback.x1, 30)} selected={sel} onSelect={on}>
+          <Wire d={[[a.feedback.x1, a.feedback.y], [a.feedback.x1, a.feedback.y + 20], [(a.feedback.x1 + a.feedback.x2) / 2 - 10, a.feedback.y + 20]]} />
+          <Capacitor x1={(a.feedback.x1 + a.feedback.x2) / 2 - 10} y1={a.feedback.y + 20} x2={(a.feedback.x1 + a.feedback.x2) / 2 + 10} y2={a.feedback.y + 20} />
+          <Wire d={[[(a.feedback.x1 + a.feedback.x2) / 2 + 10, a.feedback.y + 20], [a.feedback.x2, a.feedback.y + 20], [a.feedback.x2, a.feedback.y]]} />
+          {small((a.feedback.x1 + a.feedback.x2) / 2, a.feedback.y + 34, formatEng(n.feedbackCapacitor, "F"), "middle")}
+        </Part>
+      )}
+    </g>
+  );
+}
