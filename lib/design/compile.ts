@@ -8,8 +8,9 @@
  * pair "probe-series"/"probe-shunt" in the wire of the loop being broken (see CompileOptions.loop).
  *
  * Optional networks (scenario.networks, load.clamp), each only when fitted:
- *  - load snubber: "load-snubber-r" from the load's supply-side terminal to node "lsn", "load-snubber-c" from "lsn" to
- *    the other terminal (across the load at the far end of the cable, beside "load-c");
+ *  - load snubber: "load-snubber-r" from the load's terminal the current enters (sinks: the load supply "vs"; sources:
+ *    "lt") to node "lsn", "load-snubber-c" from "lsn" to the other terminal (across the load at the far end of the
+ *    cable, beside "load-c");
  *  - pass snubber: "pass-snubber-r" from the collector/drain "c" to "psn", "pass-snubber-c" from "psn" to the
  *    emitter/source "e" (Darlington: across the pair);
  *  - "base-emitter-resistor" (MOSFET: "gate-source-resistor") from "b" to "e", after the drive resistor, so the

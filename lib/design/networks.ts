@@ -11,7 +11,7 @@ export const NETWORK_KEYS: readonly NetworkKey[] = ["loadSnubber", "passSnubber"
 
 /** Values a network starts from when switched on (or swept while off): common starting points, to be tuned. */
 export const NETWORK_DEFAULTS: { loadSnubber: Snubber; passSnubber: Snubber; baseEmitterResistor: number; feedbackCapacitor: number } = {
-  loadSnubber: { resistance: 100, capacitance: 100e-9 },
+  loadSnubber: { resistance: 47, capacitance: 1e-6 },
   passSnubber: { resistance: 100, capacitance: 10e-9 },
   baseEmitterResistor: 10e3,
   feedbackCapacitor: 1e-9,
