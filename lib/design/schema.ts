@@ -287,6 +287,8 @@ export const studiesSchema = z.object({
     maxOvershootPct: z.number().min(0).max(100),
     series: z.enum(["E6", "E12", "E24", "E48", "E96", "E192"]),
     tuneBaseResistor: z.boolean(),
+    /** also search the load snubber (E-series R–C across the load), the cheapest set that meets the targets */
+    tuneLoadSnubber: z.boolean(),
   }),
 });
 

@@ -167,7 +167,7 @@ function referenceSink(): Scenario {
         metric: "overshootPct",
       },
       spread: { runs: 200, seed: 1, },
-      compensate: { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false },
+      compensate: { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false, tuneLoadSnubber: false },
     },
   };
 }

@@ -7,7 +7,8 @@ import {
 } from "@/lib/design";
 import { valveCoilDemo } from "@/lib/design/demos";
 import { NETWORK_DEFAULTS, coilTurnOff, networkParts } from "@/lib/design/networks";
-import { compileNetlist } from "@/lib/design/run";
+import { compileNetlist, runStep } from "@/lib/design/run";
+import { compensate } from "@/lib/design/studies";
 import type { NetlistElementJson } from "@/lib/design/netlist";
 
 const el = (s: Scenario, name: string, purpose: "op" | "step" | "loopgain-v" = "op"): NetlistElementJson | undefined =>
@@ -367,4 +368,28 @@ describe("network values as study parameters", () => {
     expect(Math.abs(r.resistance / 47 - 1)).toBeLessThanOrEqual(s.tolerances.resistor);
     expect(Math.abs(r.capacitance / 1e-6 - 1)).toBeLessThanOrEqual(s.tolerances.capacitor);
   });
+});
+
+describe("Compensate tunes the load snubber", () => {
+  it("on the valve demo: the smallest capacitor that meets the targets, every smaller one tried misses, and it says what it tried", () => {
+    const s = valveCoilDemo();
+    const settings = { ...s.studies.compensate, series: "E6" as const, targetPhaseMarginDeg: 50, maxOvershootPct: 20, tuneLoadSnubber: true };
+    const r = compensate(s, settings);
+    const snub = r.loadSnubber!;
+    expect(snub.chosen).not.toBeNull();
+    const c = snub.chosen!;
+    // an E6 pair (IEC 60063 E6: 1.0 1.5 2.2 3.3 4.7 6.8)
+    const e6 = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8];
+    const mantissa = (x: number) => Number((x / 10 ** Math.floor(Math.log10(x) + 1e-9)).toPrecision(2));
+    expect(e6).toContain(mantissa(c.capacitance));
+    expect(e6).toContain(mantissa(c.resistance));
+    expect(c.check?.meetsTargets).toBe(true);
+    for (const t of snub.tried) if (t.capacitance < c.capacitance) expect(t.meets).toBe(false);
+    expect(snub.tried.some((t) => t.capacitance < c.capacitance)).toBe(true);
+    expect(r.message).toMatch(/Load snubber .*\(tried \d+ capacitors/);
+    // the set it chose, simulated independently of the search, meets the overshoot target at the nominal load
+    const v = valveCoilDemo();
+    v.networks.loadSnubber = { resistance: c.resistance, capacitance: c.capacitance };
+    expect(runStep(v).metrics.overshootPct).toBeLessThanOrEqual(20);
+  }, 60000);
 });
