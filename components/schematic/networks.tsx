@@ -4,6 +4,7 @@
  * capacitor under the feedback resistor. Each layout says where its anchors are; each piece is a selectable part.
  */
 import { formatEng } from "@/lib/units/eng";
+import { usesGateDrive } from "@/lib/design/networks";
 import type { ClampParams, Scenario } from "@/lib/design/schema";
 import { Part, type Box } from "./parts";
 import { Capacitor, Diode, INK, Resistor, Wire } from "./symbols";
@@ -64,29 +65,37 @@ export interface NetworkAnchors {
 export function NetworkPieces({ s, anchors, sel, on }: { s: Scenario; anchors: NetworkAnchors; sel: string | null; on: (k: string) => void }) {
   const n = s.networks;
   const a = anchors;
-  const gate = s.template === "sink-nmos" || s.pass.kind === "pmos";
+  const gate = usesGateDrive(s);
   const box = (x: number, y: number, w: number, h: number): Box => [x, y, w, h];
   return (
     <g data-testid="schematic-networks">
       {n.loadSnubber && a.load && (
+        // narrow and without value text: the load supply sits to its right; the values are in its title and the panel
         <Part id="loadSnubber" label={`Load snubber ${formatEng(n.loadSnubber.resistance, "Ω")} + ${formatEng(n.loadSnubber.capacitance, "F")}`}
-          box={box(a.load.x + 44, a.load.y1, 64, a.load.y2 - a.load.y1)} selected={sel} onSelect={on}>
-          <Wire d={[[a.load.x, a.load.y1], [a.load.x + 60, a.load.y1], [a.load.x + 60, a.load.y1 + 6]]} />
-          <Wire d={[[a.load.x, a.load.y2], [a.load.x + 60, a.load.y2], [a.load.x + 60, a.load.y2 - 6]]} />
-          <SeriesRC x={a.load.x + 60} y1={a.load.y1 + 6} y2={a.load.y2 - 6} resistance={n.loadSnubber.resistance} capacitance={n.loadSnubber.capacitance} side="right" />
+          box={box(a.load.x + 44, a.load.y1, 22, a.load.y2 - a.load.y1)} selected={sel} onSelect={on}>
+          <Wire d={[[a.load.x + 28, a.load.y1 + 4], [a.load.x + 54, a.load.y1 + 4], [a.load.x + 54, a.load.y1 + 8]]} />
+          <Wire d={[[a.load.x + 28, a.load.y2 - 4], [a.load.x + 54, a.load.y2 - 4], [a.load.x + 54, a.load.y2 - 8]]} />
+          <Wire d={[[a.load.x, a.load.y1 + 4], [a.load.x + 28, a.load.y1 + 4]]} />
+          <Wire d={[[a.load.x, a.load.y2 - 4], [a.load.x + 28, a.load.y2 - 4]]} />
+          <Resistor x1={a.load.x + 54} y1={a.load.y1 + 8} x2={a.load.x + 54} y2={(a.load.y1 + a.load.y2) / 2} />
+          <Capacitor x1={a.load.x + 54} y1={(a.load.y1 + a.load.y2) / 2} x2={a.load.x + 54} y2={a.load.y2 - 8} />
         </Part>
       )}
-      {n.passSnubber && a.pass && (
-        <Part id="passSnubber" label={`Pass-device snubber ${formatEng(n.passSnubber.resistance, "Ω")} + ${formatEng(n.passSnubber.capacitance, "F")}`}
-          box={box(a.pass.cx + 30, Math.min(a.pass.cy, a.pass.ey), 70, Math.abs(a.pass.ey - a.pass.cy))} selected={sel} onSelect={on}>
-          <Wire d={[[a.pass.cx, a.pass.cy], [a.pass.cx + 44, a.pass.cy], [a.pass.cx + 44, a.pass.cy + 4]]} />
-          <Wire d={[[a.pass.ex, a.pass.ey], [a.pass.cx + 44, a.pass.ey], [a.pass.cx + 44, a.pass.ey - 4]]} />
-          <SeriesRC x={a.pass.cx + 44} y1={a.pass.cy + 4} y2={a.pass.ey - 4} resistance={n.passSnubber.resistance} capacitance={n.passSnubber.capacitance} side="right" />
-        </Part>
-      )}
+      {n.passSnubber && a.pass && (() => {
+        const d = Math.sign(a.pass.ey - a.pass.cy) || 1;
+        const x = a.pass.cx + 44;
+        return (
+          <Part id="passSnubber" label={`Pass-device snubber ${formatEng(n.passSnubber.resistance, "Ω")} + ${formatEng(n.passSnubber.capacitance, "F")}`}
+            box={box(a.pass.cx + 30, Math.min(a.pass.cy, a.pass.ey), 70, Math.abs(a.pass.ey - a.pass.cy))} selected={sel} onSelect={on}>
+            <Wire d={[[a.pass.cx, a.pass.cy], [x, a.pass.cy], [x, a.pass.cy + 4 * d]]} />
+            <Wire d={[[a.pass.ex, a.pass.ey], [x, a.pass.ey], [x, a.pass.ey - 4 * d]]} />
+            <SeriesRC x={x} y1={a.pass.cy + 4 * d} y2={a.pass.ey - 4 * d} resistance={n.passSnubber.resistance} capacitance={n.passSnubber.capacitance} side="right" />
+          </Part>
+        );
+      })()}
       {n.baseEmitterResistor !== null && a.pass && (
         <Part id="baseEmitterResistor" label={`${gate ? "Gate–source" : "Base–emitter"} resistor ${formatEng(n.baseEmitterResistor, "Ω")}`}
-          box={box(a.pass.bx - 30, a.pass.by, 28, a.pass.ey - a.pass.by)} selected={sel} onSelect={on}>
+          box={box(a.pass.bx - 30, Math.min(a.pass.by, a.pass.ey), 28, Math.abs(a.pass.ey - a.pass.by))} selected={sel} onSelect={on}>
           <Wire d={[[a.pass.bx, a.pass.by], [a.pass.bx - 16, a.pass.by]]} />
           <Resistor x1={a.pass.bx - 16} y1={a.pass.by} x2={a.pass.bx - 16} y2={a.pass.ey} />
           <Wire d={[[a.pass.bx - 16, a.pass.ey], [a.pass.ex, a.pass.ey]]} />
@@ -95,11 +104,11 @@ export function NetworkPieces({ s, anchors, sel, on }: { s: Scenario; anchors: N
       )}
       {n.feedbackCapacitor !== null && a.feedback && (
         <Part id="feedbackCapacitor" label={`Feedback-resistor capacitor ${formatEng(n.feedbackCapacitor, "F")}`}
-          box={box(a.feedback.x1, a.feedback.y + 4, a.feedback.x2 - a.feedback.x1, 30)} selected={sel} onSelect={on}>
-          <Wire d={[[a.feedback.x1, a.feedback.y], [a.feedback.x1, a.feedback.y + 20], [(a.feedback.x1 + a.feedback.x2) / 2 - 10, a.feedback.y + 20]]} />
-          <Capacitor x1={(a.feedback.x1 + a.feedback.x2) / 2 - 10} y1={a.feedback.y + 20} x2={(a.feedback.x1 + a.feedback.x2) / 2 + 10} y2={a.feedback.y + 20} />
-          <Wire d={[[(a.feedback.x1 + a.feedback.x2) / 2 + 10, a.feedback.y + 20], [a.feedback.x2, a.feedback.y + 20], [a.feedback.x2, a.feedback.y]]} />
-          {small((a.feedback.x1 + a.feedback.x2) / 2, a.feedback.y + 34, formatEng(n.feedbackCapacitor, "F"), "middle")}
+          box={box(a.feedback.x1, a.feedback.y + 18, a.feedback.x2 - a.feedback.x1, 32)} selected={sel} onSelect={on}>
+          <Wire d={[[a.feedback.x1, a.feedback.y], [a.feedback.x1, a.feedback.y + 30], [(a.feedback.x1 + a.feedback.x2) / 2 - 10, a.feedback.y + 30]]} />
+          <Capacitor x1={(a.feedback.x1 + a.feedback.x2) / 2 - 10} y1={a.feedback.y + 30} x2={(a.feedback.x1 + a.feedback.x2) / 2 + 10} y2={a.feedback.y + 30} />
+          <Wire d={[[(a.feedback.x1 + a.feedback.x2) / 2 + 10, a.feedback.y + 30], [a.feedback.x2, a.feedback.y + 30], [a.feedback.x2, a.feedback.y]]} />
+          {small((a.feedback.x1 + a.feedback.x2) / 2, a.feedback.y + 46, formatEng(n.feedbackCapacitor, "F"), "middle")}
         </Part>
       )}
     </g>

@@ -10,7 +10,7 @@ import { compileNetlistJson } from "@/lib/design/compile";
 import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
-import { LoadSupplyPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
+import { LoadSupplyPanel, NetworksPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
 import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
@@ -205,6 +205,7 @@ function CircuitZone() {
         />
       </div>
       <PartValues />
+      <NetworksPanel />
       <LoadSupplyPanel />
       <StimulusPanel />
       <OpampPanel />
