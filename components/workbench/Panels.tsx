@@ -278,7 +278,7 @@ export function OpampPanel() {
         options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset }))]}
         onChange={(v) => {
           const p = OPAMP_PRESETS.find((x) => x.preset === v);
-          if (p) store.getState().edit((s) => ({ ...s, opamp: { ...p } }));
+          if (p) store.getState().edit((s) => ({ ...s, opamp: { ...p, part: null } }));
         }}
       />
       <ParamField partKey="opamp" spec={{ path: "opamp.GBW", label: "Gain–bandwidth", unit: "Hz" }} />
@@ -312,7 +312,7 @@ export function PassPanel() {
         options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...presets.map((p) => ({ value: p.preset, label: p.preset }))]}
         onChange={(v) => {
           const p = PASS_PRESETS.find((x) => x.preset === v);
-          if (p) store.getState().edit((s) => ({ ...s, pass: { ...p } }));
+          if (p) store.getState().edit((s) => ({ ...s, pass: { ...p, part: null } }));
         }}
       />
       {bjt ? (

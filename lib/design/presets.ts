@@ -4,7 +4,11 @@
  */
 import type { OpampParams, PassParams } from "./schema";
 
-export const OPAMP_PRESETS: readonly OpampParams[] = [
+/** A built-in preset: the values without a team part behind them. */
+export type OpampPreset = Omit<OpampParams, "part">;
+export type PassPreset = Omit<PassParams, "part">;
+
+export const OPAMP_PRESETS: readonly OpampPreset[] = [
   {
     preset: "General 1 MHz single-supply",
     Aol: 2e5, GBW: 1e6, fp2: null, Rout: 40, slewRate: 0.5e6, Vos: 0, Ib: 0,
@@ -30,7 +34,7 @@ export const OPAMP_PRESETS: readonly OpampParams[] = [
 const BJT_UNUSED = { Vth: 2, K: 1, lambda: 0, Cgs: 0, Cgd: 0 };
 const MOS_UNUSED = { Is: 1e-14, betaF: 100, betaR: 1, VA: null, Cje0: 0, Cjc0: 0, tauF: 0, betaMin: 100, vSat: 0 };
 
-export const PASS_PRESETS: readonly PassParams[] = [
+export const PASS_PRESETS: readonly PassPreset[] = [
   {
     preset: "Medium power NPN 60 V", kind: "npn",
     Is: 2e-12, betaF: 60, betaR: 2, VA: 80, Cje0: 600e-12, Cjc0: 150e-12, tauF: 40e-9, betaMin: 30,
@@ -72,11 +76,11 @@ export const PASS_PRESETS: readonly PassParams[] = [
 export function opampPreset(name: string): OpampParams {
   const p = OPAMP_PRESETS.find((x) => x.preset === name);
   if (!p) throw new Error(`Unknown op-amp preset "${name}"`);
-  return { ...p };
+  return { ...p, part: null };
 }
 
 export function passPreset(name: string): PassParams {
   const p = PASS_PRESETS.find((x) => x.preset === name);
   if (!p) throw new Error(`Unknown pass-device preset "${name}"`);
-  return { ...p };
+  return { ...p, part: null };
 }

@@ -45,9 +45,22 @@ export const partsSchema = z.object({
 });
 export type Parts = z.infer<typeof partsSchema>;
 
+/**
+ * Which of the team's parts a scenario's op-amp or pass device came from: its id and version (null = a built-in
+ * preset or values typed in). The values themselves are stored beside it, so a revision reproduces whatever becomes
+ * of the part later.
+ */
+export const partRefSchema = z.object({
+  id: z.string().uuid("part.id must be a part's id"),
+  version: z.number().int("part.version must be a whole number").min(1, "part.version starts at 1"),
+});
+export type PartRef = z.infer<typeof partRefSchema>;
+
 /** Op-amp macro-model parameters (the engine's names) plus what the checks need. */
 export const opampSchema = z.object({
   preset: z.string().max(80),
+  /** the team's part these values came from (null = a built-in preset or typed in) */
+  part: partRefSchema.nullable().default(null),
   /** DC open-loop gain, V/V */
   Aol: positive("Open-loop gain"),
   /** gain–bandwidth product, Hz */
@@ -86,6 +99,8 @@ export const PASS_KINDS = ["npn", "pnp", "nmos", "pmos"] as const;
 /** Pass-device parameters: BJT (Ebers–Moll) and MOSFET (square law) fields plus ratings for the checks. */
 export const passSchema = z.object({
   preset: z.string().max(80),
+  /** the team's part these values came from (null = a built-in preset or typed in) */
+  part: partRefSchema.nullable().default(null),
   kind: z.enum(PASS_KINDS, { error: "Pass device kind must be npn, pnp, nmos or pmos" }),
   Is: positive("Saturation current Is"),
   betaF: positive("Forward beta"),
