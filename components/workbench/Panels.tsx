@@ -14,6 +14,8 @@ import { E_SERIES_NAMES, type ESeriesName } from "@/lib/design/eseries";
 import { getPath, setPath } from "@/lib/workbench/paths";
 import { useWb, useWbStore } from "./context";
 import { ValueField } from "./ValueField";
+import { useTeamParts } from "./team-parts";
+import { applyPart } from "@/lib/design/part-records";
 
 /** The schema's message for `path` if the scenario with `value` there is invalid at that path. */
 function schemaReason(s: Scenario, path: string, value: unknown): string | null {
@@ -267,16 +269,31 @@ export function StimulusPanel() {
   );
 }
 
+/** A team part's option value in the preset pickers ("team:<id>"), beside the built-in presets' names. */
+const TEAM = "team:";
+
 export function OpampPanel() {
   const store = useWbStore();
   const preset = useWb((s) => s.scenario.opamp.preset);
-  const known = OPAMP_PRESETS.some((p) => p.preset === preset);
+  const ref = useWb((s) => s.scenario.opamp.part);
+  const team = useTeamParts("opamp");
+  const known = ref ? team.some((p) => p.id === ref.id) : OPAMP_PRESETS.some((p) => p.preset === preset);
+  const value = ref ? `${TEAM}${ref.id}` : preset;
   return (
     <Section title="Op-amp" id="panel-opamp" defaultOpen={false}>
       <Select
-        id="opamp-preset" label="Preset" value={known ? preset : ""}
-        options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset }))]}
+        id="opamp-preset" label="Preset" value={known ? value : ""}
+        options={[
+          ...(known ? [] : [{ value: "", label: ref ? `${preset} (v${ref.version})` : "Custom" }]),
+          ...team.map((p) => ({ value: `${TEAM}${p.id}`, label: `Team: ${p.name} (v${p.version})` })),
+          ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset })),
+        ]}
         onChange={(v) => {
+          const t = team.find((x) => `${TEAM}${x.id}` === v);
+          if (t) {
+            store.getState().edit((s) => applyPart(s, { id: t.id, version: t.version, kind: t.kind, name: t.name, values: t.values }));
+            return;
+          }
           const p = OPAMP_PRESETS.find((x) => x.preset === v);
           if (p) store.getState().edit((s) => ({ ...s, opamp: { ...p, part: null } }));
         }}
@@ -302,15 +319,27 @@ export function PassPanel() {
   const template = useWb((s) => s.scenario.template);
   const wanted = template === "sink-nmos" ? ["nmos"] : template === "source-highside" ? ["pnp", "pmos"] : template === "howland" ? [] : ["npn"];
   const presets = PASS_PRESETS.filter((p) => wanted.includes(p.kind));
-  const known = presets.some((p) => p.preset === preset);
+  const ref = useWb((s) => s.scenario.pass.part);
+  const team = useTeamParts("pass").filter((p) => wanted.includes(String(p.values.kind)));
+  const known = ref ? team.some((p) => p.id === ref.id) : presets.some((p) => p.preset === preset);
+  const value = ref ? `${TEAM}${ref.id}` : preset;
   if (template === "howland") return null;
   const bjt = kind === "npn" || kind === "pnp";
   return (
     <Section title="Pass device" id="panel-pass" defaultOpen={false}>
       <Select
-        id="pass-preset" label="Preset" value={known ? preset : ""}
-        options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...presets.map((p) => ({ value: p.preset, label: p.preset }))]}
+        id="pass-preset" label="Preset" value={known ? value : ""}
+        options={[
+          ...(known ? [] : [{ value: "", label: ref ? `${preset} (v${ref.version})` : "Custom" }]),
+          ...team.map((p) => ({ value: `${TEAM}${p.id}`, label: `Team: ${p.name} (v${p.version})` })),
+          ...presets.map((p) => ({ value: p.preset, label: p.preset })),
+        ]}
         onChange={(v) => {
+          const t = team.find((x) => `${TEAM}${x.id}` === v);
+          if (t) {
+            store.getState().edit((s) => applyPart(s, { id: t.id, version: t.version, kind: t.kind, name: t.name, values: t.values }));
+            return;
+          }
           const p = PASS_PRESETS.find((x) => x.preset === v);
           if (p) store.getState().edit((s) => ({ ...s, pass: { ...p, part: null } }));
         }}

@@ -20,6 +20,8 @@ import { formatEng } from "@/lib/units/eng";
 import { downloadText } from "@/components/plots/ExportMenu";
 import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
+import { PartUpdateOffer, TeamPartsProvider } from "./team-parts";
+import type { PartOption } from "@/lib/db/parts";
 import { SaveControl, type SaveFn } from "./SaveControl";
 import { TOOL_BUTTON } from "@/components/shell/classes";
 
@@ -31,12 +33,16 @@ export interface WorkbenchProps {
   revisionNumber: number | null;
   /** Server action that saves a revision; null when saving is not possible here (a local draft). */
   save: SaveFn | null;
+  /** The team's live parts (pickers and the "newer version" offer); none for a local draft. */
+  teamParts?: readonly PartOption[];
 }
 
 export function Workbench(props: WorkbenchProps) {
   return (
     <WorkbenchProvider scenario={props.scenario}>
-      <WorkbenchInner {...props} />
+      <TeamPartsProvider parts={props.teamParts ?? []}>
+        <WorkbenchInner {...props} />
+      </TeamPartsProvider>
     </WorkbenchProvider>
   );
 }
@@ -204,6 +210,7 @@ function CircuitZone() {
           }}
         />
       </div>
+      <PartUpdateOffer />
       <PartValues />
       <NetworksPanel />
       <LoadSupplyPanel />

@@ -163,3 +163,24 @@ export async function retirePart(actor: CurrentUser, id: string): Promise<void> 
     await audit({ teamId: actor.teamId, actorId: actor.id, action: "part.retire", subjectType: "part", subjectId: id, detail: { name: r.name, version: r.current_version } }, trx);
   });
 }
+
+/** A live part with its current values, for the workbench's pickers and its "a newer version exists" offer. */
+export interface PartOption {
+  id: string;
+  kind: "opamp" | "pass";
+  name: string;
+  version: number;
+  values: Record<string, unknown>;
+}
+
+export async function livePartOptions(actor: CurrentUser): Promise<PartOption[]> {
+  const rows = await db()("parts as p")
+    .join("part_versions as v", function join() {
+      this.on("v.part_id", "=", "p.id").andOn("v.version", "=", "p.current_version");
+    })
+    .where("p.team_id", actor.teamId)
+    .whereNull("p.retired_at")
+    .orderBy([{ column: "p.kind" }, { column: "p.name" }])
+    .select("p.id", "p.kind", "p.name", "p.current_version", "v.values");
+  return rows.map((r) => ({ id: r.id, kind: r.kind, name: r.name, version: r.current_version, values: r.values }));
+}

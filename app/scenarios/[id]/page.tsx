@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { getScenarioWithRevision } from "@/lib/db/scenarios";
 import { currentUser, requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
+import { livePartOptions } from "@/lib/db/parts";
 import { Workbench } from "@/components/workbench/Workbench";
 import { saveScenarioRevision } from "./actions";
 
@@ -38,6 +39,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
       revisionId={row.revisionId}
       revisionNumber={row.revisionNumber}
       save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
+      teamParts={await livePartOptions(user)}
     />
   );
 }
