@@ -29,7 +29,8 @@ export function ClampSymbol({ clamp, x, y1, y2 }: { clamp: ClampParams; x: numbe
           {/* the Zener: conducts in reverse, its cathode toward the diode's */}
           <Diode x={x + 28} y1={y1 + 4} y2={m} />
           <path d={`M ${x + 20} ${m - 11} l -3 -3 M ${x + 36} ${m - 11} l 3 3`} stroke={INK} strokeWidth={1.2} />
-          {small(x + 40, m - 8, `${Number(clamp.zenerVoltage.toPrecision(3))} V`)}
+          {/* the voltage in the title only: to the right sits the load snubber, to the left the load's own label */}
+          <title>{`Clamp: diode + ${Number(clamp.zenerVoltage.toPrecision(3))} V Zener`}</title>
         </g>
       )}
     </g>
@@ -54,11 +55,11 @@ function SeriesRC({ x, y1, y2, resistance, capacitance, side }: { x: number; y1:
 /** Where a layout's networks attach, in its own coordinates. */
 export interface NetworkAnchors {
   /** the load's two terminals: x of the load wire, top and bottom y */
-  load?: { x: number; y1: number; y2: number };
+  load?: { x: number; y1: number; y2: number; side?: "left" | "right" };
   /** pass device: collector/drain and emitter/source points, and the base/gate point */
   pass?: { cx: number; cy: number; ex: number; ey: number; bx: number; by: number };
-  /** the feedback resistor's two ends (horizontal) */
-  feedback?: { x1: number; x2: number; y: number };
+  /** the feedback resistor's two ends (horizontal); the capacitor goes below it unless `above` */
+  feedback?: { x1: number; x2: number; y: number; above?: boolean };
 }
 
 /** The fitted networks of the scenario, drawn at the layout's anchors. */
@@ -69,18 +70,23 @@ export function NetworkPieces({ s, anchors, sel, on }: { s: Scenario; anchors: N
   const box = (x: number, y: number, w: number, h: number): Box => [x, y, w, h];
   return (
     <g data-testid="schematic-networks">
-      {n.loadSnubber && a.load && (
-        // narrow and without value text: the load supply sits to its right; the values are in its title and the panel
-        <Part id="loadSnubber" label={`Load snubber ${formatEng(n.loadSnubber.resistance, "Ω")} + ${formatEng(n.loadSnubber.capacitance, "F")}`}
-          box={box(a.load.x + 44, a.load.y1, 22, a.load.y2 - a.load.y1)} selected={sel} onSelect={on}>
-          <Wire d={[[a.load.x + 28, a.load.y1 + 4], [a.load.x + 54, a.load.y1 + 4], [a.load.x + 54, a.load.y1 + 8]]} />
-          <Wire d={[[a.load.x + 28, a.load.y2 - 4], [a.load.x + 54, a.load.y2 - 4], [a.load.x + 54, a.load.y2 - 8]]} />
-          <Wire d={[[a.load.x, a.load.y1 + 4], [a.load.x + 28, a.load.y1 + 4]]} />
-          <Wire d={[[a.load.x, a.load.y2 - 4], [a.load.x + 28, a.load.y2 - 4]]} />
-          <Resistor x1={a.load.x + 54} y1={a.load.y1 + 8} x2={a.load.x + 54} y2={(a.load.y1 + a.load.y2) / 2} />
-          <Capacitor x1={a.load.x + 54} y1={(a.load.y1 + a.load.y2) / 2} x2={a.load.x + 54} y2={a.load.y2 - 8} />
-        </Part>
-      )}
+      {n.loadSnubber && a.load && (() => {
+        // narrow and without value text (the values are in its title and the panel); on the side the layout keeps
+        // free of the load's label and the load supply; the clamp's wires (x ± 28) are joined, not crossed
+        const L = a.load;
+        const d = L.side === "left" ? -1 : 1;
+        const xs = L.x + 54 * d;
+        const x0 = L.side === "left" ? L.x : L.x + 28;
+        return (
+          <Part id="loadSnubber" label={`Load snubber ${formatEng(n.loadSnubber.resistance, "Ω")} + ${formatEng(n.loadSnubber.capacitance, "F")}`}
+            box={box(Math.min(xs, L.x + 44 * d) - (d < 0 ? 10 : 0), L.y1, 22, L.y2 - L.y1)} selected={sel} onSelect={on}>
+            <Wire d={[[L.x, L.y1 + 4], [x0, L.y1 + 4], [xs, L.y1 + 4], [xs, L.y1 + 8]]} />
+            <Wire d={[[L.x, L.y2 - 4], [x0, L.y2 - 4], [xs, L.y2 - 4], [xs, L.y2 - 8]]} />
+            <Resistor x1={xs} y1={L.y1 + 8} x2={xs} y2={(L.y1 + L.y2) / 2} />
+            <Capacitor x1={xs} y1={(L.y1 + L.y2) / 2} x2={xs} y2={L.y2 - 8} />
+          </Part>
+        );
+      })()}
       {n.passSnubber && a.pass && (() => {
         const d = Math.sign(a.pass.ey - a.pass.cy) || 1;
         const x = a.pass.cx + 44;
@@ -102,15 +108,20 @@ export function NetworkPieces({ s, anchors, sel, on }: { s: Scenario; anchors: N
           {small(a.pass.bx - 20, (a.pass.by + a.pass.ey) / 2 + 4, formatEng(n.baseEmitterResistor, "Ω"), "end")}
         </Part>
       )}
-      {n.feedbackCapacitor !== null && a.feedback && (
-        <Part id="feedbackCapacitor" label={`Feedback-resistor capacitor ${formatEng(n.feedbackCapacitor, "F")}`}
-          box={box(a.feedback.x1, a.feedback.y + 18, a.feedback.x2 - a.feedback.x1, 32)} selected={sel} onSelect={on}>
-          <Wire d={[[a.feedback.x1, a.feedback.y], [a.feedback.x1, a.feedback.y + 30], [(a.feedback.x1 + a.feedback.x2) / 2 - 10, a.feedback.y + 30]]} />
-          <Capacitor x1={(a.feedback.x1 + a.feedback.x2) / 2 - 10} y1={a.feedback.y + 30} x2={(a.feedback.x1 + a.feedback.x2) / 2 + 10} y2={a.feedback.y + 30} />
-          <Wire d={[[(a.feedback.x1 + a.feedback.x2) / 2 + 10, a.feedback.y + 30], [a.feedback.x2, a.feedback.y + 30], [a.feedback.x2, a.feedback.y]]} />
-          {small((a.feedback.x1 + a.feedback.x2) / 2, a.feedback.y + 46, formatEng(n.feedbackCapacitor, "F"), "middle")}
-        </Part>
-      )}
+      {n.feedbackCapacitor !== null && a.feedback && (() => {
+        const f = a.feedback;
+        const yc = f.above ? f.y - 30 : f.y + 30;
+        const mid = (f.x1 + f.x2) / 2;
+        return (
+          <Part id="feedbackCapacitor" label={`Feedback-resistor capacitor ${formatEng(n.feedbackCapacitor, "F")}`}
+            box={box(f.x1, f.above ? yc - 14 : f.y + 18, f.x2 - f.x1, 32)} selected={sel} onSelect={on}>
+            <Wire d={[[f.x1, f.y], [f.x1, yc], [mid - 10, yc]]} />
+            <Capacitor x1={mid - 10} y1={yc} x2={mid + 10} y2={yc} />
+            <Wire d={[[mid + 10, yc], [f.x2, yc], [f.x2, f.y]]} />
+            {small(mid, f.above ? yc - 14 : yc + 16, formatEng(n.feedbackCapacitor, "F"), "middle")}
+          </Part>
+        );
+      })()}
     </g>
   );
 }
