@@ -308,6 +308,9 @@ export function OpampPanel() {
       <ParamField partKey="opamp" spec={{ path: "opamp.Iout", label: "Output current limit (empty = none)", unit: "A", nullable: true }} />
       <ParamField partKey="opamp" spec={{ path: "opamp.vosMax", label: "Max offset voltage", unit: "V" }} />
       <ParamField partKey="opamp" spec={{ path: "opamp.ibMax", label: "Max bias current", unit: "A" }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.supplyMin", label: "Lowest supply (empty = not given)", unit: "V", nullable: true }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.supplyMax", label: "Highest supply (empty = not given)", unit: "V", nullable: true }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.swingCurrent", label: "Swing figures at (empty = not given)", unit: "A", nullable: true }} />
     </Section>
   );
 }
@@ -367,6 +370,7 @@ export function PassPanel() {
       <ParamField partKey="pass" spec={{ path: "pass.pMax", label: "Rated dissipation (25 °C case)", unit: "W" }} />
       <ParamField partKey="pass" spec={{ path: "pass.thetaJC", label: "θjc", unit: "°C/W" }} />
       <ParamField partKey="pass" spec={{ path: "pass.tjMax", label: "Max junction temperature", unit: "°C" }} />
+      <ParamField partKey="pass" spec={{ path: "pass.soaCornerVoltage", label: "SOA corner (empty = not given)", unit: "V", nullable: true }} />
     </Section>
   );
 }

@@ -223,7 +223,10 @@ export function soaCheck(c: CheckContext): CheckRow[] {
     const vMaxSeen = Math.max(pathSupply(s, L.kind === "cell" ? L.cellVoltageMax : 0), s.supplies.load) + Math.max(0, s.stimulus.kind === "supply-step" ? s.stimulus.supplyStep : 0)
       + clampVoltage(s, iFs);
     const tc = s.thermal.ambient + diss.power * (s.thermal.thetaSA === null ? s.pass.thetaJA - s.pass.thetaJC : s.thermal.thetaCS + s.thermal.thetaSA);
-    const pRated = s.pass.pMax * Math.max(0, (s.pass.tjMax - tc) / (s.pass.tjMax - 25));
+    // Above the SOA corner the second-breakdown line takes over: allowed power × Vcorner/V (I ∝ V⁻²).
+    const corner = s.pass.soaCornerVoltage;
+    const sbFactor = corner !== null && diss.vDrop > corner ? corner / diss.vDrop : 1;
+    const pRated = s.pass.pMax * Math.max(0, (s.pass.tjMax - tc) / (s.pass.tjMax - 25)) * sbFactor;
     const ratios = [iFs / s.pass.iMax, vMaxSeen / s.pass.vMax, diss.power / Math.max(pRated, 1e-12)];
     const worst = Math.max(...ratios);
     rows.push({
@@ -233,8 +236,8 @@ export function soaCheck(c: CheckContext): CheckRow[] {
       value: worst,
       limit: 1,
       unit: "",
-      formula: "max(I/Imax, V/Vmax, P/P(Tcase)) with P(Tcase) = Pmax·(Tj,max − Tcase)/(Tj,max − 25 °C)",
-      detail: `I/Imax = ${fmt(ratios[0])}, V/Vmax = ${fmt(ratios[1])} (load shorted or open: the full supply), P/P(Tc) = ${fmt(ratios[2])} at Tc = ${fmt(tc)} °C${L.kind === "coil" && L.clamp.kind !== "none" ? `; V includes the clamp's ${fmt(clampVoltage(s, iFs))} V at turn-off` : ""}. Second breakdown is not modelled; warn above 80 %.`,
+      formula: "max(I/Imax, V/Vmax, P/P(Tcase)) with P(Tcase) = Pmax·(Tj,max − Tcase)/(Tj,max − 25 °C), × Vcorner/V above the SOA corner",
+      detail: `I/Imax = ${fmt(ratios[0])}, V/Vmax = ${fmt(ratios[1])} (load shorted or open: the full supply), P/P(Tc) = ${fmt(ratios[2])} at Tc = ${fmt(tc)} °C${sbFactor < 1 ? ` and ${fmt(diss.vDrop)} V, beyond the ${fmt(corner!)} V SOA corner (× ${fmt(sbFactor)})` : ""}${L.kind === "coil" && L.clamp.kind !== "none" ? `; V includes the clamp's ${fmt(clampVoltage(s, iFs))} V at turn-off` : ""}. Second breakdown is not modelled; warn above 80 %.`,
     });
   }
 

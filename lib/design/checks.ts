@@ -12,6 +12,7 @@ import {
 } from "./check-rows";
 import { cautionsFor } from "./cautions";
 import { clampChecks, networkDissipationChecks } from "./network-checks";
+import { opampDatasheetChecks } from "./datasheet-checks";
 
 export * from "./check-formulas";
 
@@ -20,6 +21,7 @@ const CHECKS: readonly ((c: CheckContext) => CheckRow[])[] = [
   complianceCheck,
   driveChecks,
   commonModeCheck,
+  opampDatasheetChecks,
   thermalChecks,
   soaCheck,
   clampChecks,

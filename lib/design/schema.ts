@@ -91,6 +91,11 @@ export const opampSchema = z.object({
   cmLowFromVee: finite("Common-mode range, low end"),
   /** input common-mode range: highest input relative to the positive rail, V (positive = below the rail) */
   cmHighFromVcc: finite("Common-mode range, high end"),
+  /** datasheet supply range, total (V+ − V−), V (null = not given) */
+  supplyMin: optionalPositive("Lowest supply"),
+  supplyMax: optionalPositive("Highest supply"),
+  /** the output current the swing figures hold at, A (null = not given) */
+  swingCurrent: optionalPositive("Output current of the swing figures"),
 });
 export type OpampParams = z.infer<typeof opampSchema>;
 
@@ -130,6 +135,11 @@ export const passSchema = z.object({
   thetaJA: positive("θja"),
   /** maximum junction temperature, °C */
   tjMax: positive("Maximum junction temperature"),
+  /**
+   * SOA corner, V: above it the datasheet's second-breakdown line limits the power below the rated one (taken as
+   * P ∝ 1/V, i.e. I ∝ V⁻²); null = not given (the power line alone)
+   */
+  soaCornerVoltage: optionalPositive("SOA corner voltage"),
 });
 export type PassParams = z.infer<typeof passSchema>;
 
@@ -340,6 +350,9 @@ export const scenarioSchema = z.object({
   }
   if (s.template === "howland" && (s.networks.passSnubber || s.networks.baseEmitterResistor !== null || s.networks.feedbackCapacitor !== null)) {
     ctx.addIssue({ code: "custom", path: ["networks"], message: "The Howland pump has no pass device or feedback resistor: only the load snubber applies" });
+  }
+  if (s.opamp.supplyMin !== null && s.opamp.supplyMax !== null && s.opamp.supplyMin > s.opamp.supplyMax) {
+    ctx.addIssue({ code: "custom", path: ["opamp", "supplyMin"], message: "Lowest supply is above the highest" });
   }
   if (s.pass.betaMin > s.pass.betaF) {
     ctx.addIssue({ code: "custom", path: ["pass", "betaMin"], message: "Minimum beta is above the typical beta" });

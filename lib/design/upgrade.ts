@@ -30,7 +30,10 @@ function templateOf(json: Record<string, unknown>): TemplateId {
   return t as TemplateId;
 }
 
-/** Version 1 → 2: `load.clampDiode` becomes `load.clamp`; `networks` starts with every network off (filled later). */
+/**
+ * Version 1 → 2: `load.clampDiode` becomes `load.clamp`; `networks` starts with every network off (filled later); the
+ * op-amp's supply range and swing current and the pass device's SOA corner start unknown (null).
+ */
 function upgradeV1(json: Record<string, unknown>, template: TemplateId): Record<string, unknown> {
   const out: Record<string, unknown> = { ...json, schemaVersion: 2 };
   if (isObject(json.load)) {
@@ -41,6 +44,9 @@ function upgradeV1(json: Record<string, unknown>, template: TemplateId): Record<
     const zenerVoltage = defaultScenario(template).load.clamp.zenerVoltage;
     out.load = clampDiode === undefined ? rest : { ...rest, clamp: { kind: clampDiode ? "diode" : "none", zenerVoltage } };
   }
+  // Datasheet figures new in version 2: unknown for a version-1 part (never the template preset's figures).
+  if (isObject(json.opamp)) out.opamp = { supplyMin: null, supplyMax: null, swingCurrent: null, ...json.opamp };
+  if (isObject(json.pass)) out.pass = { soaCornerVoltage: null, ...json.pass };
   return out;
 }
 
