@@ -96,6 +96,17 @@ describe("scenario CLI", () => {
     expect(await main(["--scenario", file, "--study", "sweep"])).toBe(0);
     expect(JSON.parse(out).result.values).toHaveLength(3);
   });
+  it("compensate with tuneLoadSnubber: the load snubber it chose, and the capacitors it tried", async () => {
+    const file = join(dir, "comp.json");
+    const s = valveCoilDemo();
+    s.studies.compensate = { ...s.studies.compensate, series: "E6", targetPhaseMarginDeg: 50, maxOvershootPct: 20, tuneLoadSnubber: true };
+    writeFileSync(file, JSON.stringify(s));
+    expect(await main(["--scenario", file, "--study", "compensate"])).toBe(0);
+    const r = JSON.parse(out).result;
+    expect(r.loadSnubber.chosen.capacitance).toBeGreaterThan(0);
+    expect(r.loadSnubber.tried.length).toBeGreaterThan(1);
+    expect(r.message).toMatch(/Load snubber/);
+  }, 60_000);
   it("opens a version-1 scenario file (clampDiode) and upgrades it", async () => {
     const file = join(dir, "v1.json");
     const v1 = JSON.parse(JSON.stringify(valveCoilDemo()));
