@@ -17,7 +17,7 @@ export interface LayerRule {
 }
 
 /** Everything under lib/ that the server side may build on. */
-const SERVER_LIB = ["lib/auth", "lib/db", "lib/mail", "lib/library", "lib/scenarios", "lib/api"] as const;
+const SERVER_LIB = ["lib/auth", "lib/db", "lib/mail", "lib/library", "lib/scenarios", "lib/parts", "lib/api"] as const;
 const PURE_LIB = ["lib/units", "lib/sim", "lib/design", "lib/traces", "lib/shared", "lib/errors.ts"] as const;
 
 /** The table. Keep it and DEVELOPERS.md's "Layout" table in agreement. */
@@ -34,13 +34,14 @@ export const LAYERS: Readonly<Record<string, LayerRule>> = {
   "lib/mail": { values: [] },
   "lib/auth": { values: ["lib/db", "lib/db/knex.ts", "lib/mail", "lib/shared", "lib/errors.ts"] },
   "lib/scenarios": { values: ["lib/db", "lib/design", "lib/shared", "lib/errors.ts"] },
+  "lib/parts": { values: ["lib/db", "lib/design", "lib/shared", "lib/errors.ts"] },
   "lib/library": { values: ["lib/db", "lib/mail", "lib/design", "lib/traces", "lib/shared", "lib/errors.ts"] },
-  "lib/api": { values: ["lib/auth", "lib/db", "lib/library", "lib/scenarios", "lib/design", "lib/traces", "lib/shared", "lib/errors.ts"] },
+  "lib/api": { values: ["lib/auth", "lib/db", "lib/library", "lib/scenarios", "lib/parts", "lib/design", "lib/traces", "lib/shared", "lib/errors.ts"] },
   "lib/workbench": { values: ["lib/design", "lib/sim", "lib/units"], types: ["workers"] },
   workers: { values: ["lib/sim", "lib/design", "lib/units"] },
   components: {
     values: ["lib/units", "lib/design", "lib/traces", "lib/workbench", "lib/shared"],
-    types: ["lib/sim", "lib/db", "lib/auth", "lib/library", "lib/api", "workers"],
+    types: ["lib/sim", "lib/db", "lib/auth", "lib/library", "lib/parts", "lib/api", "workers"],
   },
   app: { values: [...PURE_LIB, ...SERVER_LIB, "lib/db/knex.ts", "lib/workbench", "components"] },
   "proxy.ts": { values: ["lib/db", "lib/db/knex.ts"] },

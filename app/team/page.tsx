@@ -18,6 +18,9 @@ const ACTION_WORDS: Record<string, string> = {
   "library.tolerances": "changed the bench-comparison tolerances",
   "member.remove": "removed a member",
   "member.role": "changed a member's role",
+  "part.create": "added a part",
+  "part.retire": "retired a part",
+  "part.version": "saved a new version of a part",
   "revision.save": "saved a revision",
   "scenario.create": "created a scenario",
   "scenario.delete": "deleted a scenario",
@@ -52,6 +55,7 @@ export default async function TeamPage() {
       <div className="flex flex-wrap items-center gap-4">
         <h1 className="mr-auto text-2xl font-semibold">{user.teamName}</h1>
         {isLead && devOutboxEnabled() && <Link href="/dev/outbox" className="text-sm text-signal underline">Development outbox</Link>}
+        <Link href="/team/parts" className="text-sm text-signal underline" data-testid="team-parts-link">Parts</Link>
         <Link href="/team/new" className="text-sm text-signal underline">Start another team</Link>
       </div>
       <p className="mt-1 text-sm text-ink-muted">You are a {user.role} here.</p>

@@ -4,6 +4,7 @@
  */
 import type { Scenario } from "@/lib/design/schema";
 import { TEMPLATES } from "@/lib/design/templates";
+import { clampText, networkParts } from "@/lib/design/networks";
 import { nearestE, type ESeriesName } from "@/lib/design/eseries";
 import { formatEng } from "@/lib/units/eng";
 import { formatQuantity } from "@/lib/units/quantity";
@@ -31,8 +32,19 @@ export function PartList({ scenario }: { scenario: Scenario }) {
       const off = Math.abs(near - value) / value;
       eText = off < 1e-6 ? `on ${series}` : `nearest ${series}: ${formatEng(near, p.unit)} (${((near / value - 1) * 100).toFixed(1)} %)`;
     }
-    return { key: p.key, label: p.label, value, unit: p.unit, tol, eText };
+    return { key: p.key as string, label: p.label, value, unit: p.unit, tol, eText };
   });
+  // the fitted networks, after the template's own parts (named as their netlist elements are)
+  for (const n of networkParts(scenario)) {
+    const tol = n.unit === "F" ? t.capacitor : t.resistor;
+    const series = seriesForTolerance(tol);
+    const near = nearestE(n.value, series);
+    const off = Math.abs(near - n.value) / n.value;
+    rows.push({
+      key: n.element, label: n.label, value: n.value, unit: n.unit, tol,
+      eText: off < 1e-6 ? `on ${series}` : `nearest ${series}: ${formatEng(near, n.unit)} (${((near / n.value - 1) * 100).toFixed(1)} %)`,
+    });
+  }
   return (
     <div className="space-y-3" data-testid="review-parts">
       <table className="w-full border-collapse text-sm">
@@ -58,7 +70,7 @@ export function PartList({ scenario }: { scenario: Scenario }) {
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="text-ink-muted">Op-amp</dt><dd>{scenario.opamp.preset} — GBW {formatEng(scenario.opamp.GBW, "Hz")}, Aol {formatEng(scenario.opamp.Aol, "")}, offset ≤ {formatEng(scenario.opamp.vosMax, "V")}</dd>
         <dt className="text-ink-muted">Pass device</dt><dd>{scenario.pass.preset} ({scenario.pass.kind}) — {formatEng(scenario.pass.vMax, "V")}, {formatEng(scenario.pass.iMax, "A")}, {formatEng(scenario.pass.pMax, "W")}</dd>
-        <dt className="text-ink-muted">Load</dt><dd>{scenario.load.kind}, {formatEng(scenario.load.resistance, "Ω")}{scenario.load.inductance > 0 ? `, ${formatEng(scenario.load.inductance, "H")}` : ""}{scenario.load.cable.length > 0 ? `, ${scenario.load.cable.length} m of cable` : ""}</dd>
+        <dt className="text-ink-muted">Load</dt><dd>{scenario.load.kind}, {formatEng(scenario.load.resistance, "Ω")}{scenario.load.inductance > 0 ? `, ${formatEng(scenario.load.inductance, "H")}` : ""}{scenario.load.cable.length > 0 ? `, ${scenario.load.cable.length} m of cable` : ""}{scenario.load.kind === "coil" ? `; clamp: ${clampText(scenario)}` : ""}</dd>
         <dt className="text-ink-muted">Supplies</dt><dd>load {formatEng(scenario.supplies.load, "V")}; op-amp {formatEng(scenario.supplies.opampPositive, "V")} / {formatEng(scenario.supplies.opampNegative, "V")}</dd>
         <dt className="text-ink-muted">Stimulus</dt><dd>{scenario.stimulus.kind}: {formatEng(scenario.stimulus.commandLow, "V")} → {formatEng(scenario.stimulus.commandHigh, "V")} at {formatEng(scenario.stimulus.stepTime, "s")} (full scale {formatEng(scenario.stimulus.commandFullScale, "V")})</dd>
       </dl>

@@ -4,9 +4,16 @@ import { SWEEPABLE_PARAMETERS } from "@/lib/design/parameters";
 import { TEMPLATES } from "@/lib/design/templates";
 
 /** A readable name for a scenario path ("parts.compCapacitor" → "Compensation capacitor"); the path stays as a tooltip. */
+const OTHER_NAMES: Record<string, string> = {
+  "load.clamp.kind": "Coil clamp",
+  "networks.loadSnubber": "Load snubber",
+  "networks.passSnubber": "Pass-device snubber",
+};
+
 function pathName(path: string): string {
   const p = SWEEPABLE_PARAMETERS.find((x) => x.path === path);
   if (p) return p.label;
+  if (OTHER_NAMES[path]) return OTHER_NAMES[path];
   const m = /^parts\.(\w+)$/.exec(path);
   if (m) {
     for (const t of TEMPLATES) {

@@ -18,11 +18,14 @@ export function unitFor(path: string): string {
   if (/resist/i.test(leaf) || /^divider/i.test(leaf) || /^howlandR\d/.test(leaf)) return "Ω";
   if (/capacit/i.test(leaf)) return "F";
   if (/inductance/i.test(leaf)) return "H";
+  if (/voltage$/i.test(leaf)) return "V";
   return "";
 }
 
 export function showValue(path: string, v: Scalar | undefined): string {
   if (v === undefined) return "—";
+  // a network that is off is stored as null
+  if (v === null) return "none";
   if (typeof v === "number") {
     const unit = unitFor(path);
     return unit ? formatEng(v, unit) : String(v);

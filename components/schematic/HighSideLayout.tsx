@@ -1,4 +1,5 @@
 import { formatEng } from "@/lib/units/eng";
+import { NetworkPieces } from "./networks";
 import { Part, Label, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
 import { Bjt, Cable, Capacitor, Dot, Ground, Mosfet, OpAmp, Resistor, VoltageSource, Wire } from "./symbols";
 
@@ -71,6 +72,7 @@ export function HighSideLayout({ s, sel, on, op }: LayoutProps) {
         <Label x={448} y={324}>{loadText(s)}</Label>
       </Part>
       <Ground x={410} y={356} />
+      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 410, y1: 280, y2: 356, side: "left" }, pass: { cx: 410, cy: 230, ex: 410, ey: 150, bx: 380, by: 190 }, feedback: { x1: 250, x2: 350, y: 110, above: true } }} />
       {V && (
         <g>
           <Tag x={154} y={164} v={V.ref} anchor="end" />

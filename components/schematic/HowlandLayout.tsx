@@ -1,4 +1,5 @@
 import { formatEng } from "@/lib/units/eng";
+import { NetworkPieces } from "./networks";
 import { Part, Label, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
 import { Cable, Capacitor, Dot, Ground, OpAmp, Resistor, VoltageSource, Wire } from "./symbols";
 
@@ -66,6 +67,7 @@ export function HowlandLayout({ s, sel, on, op }: LayoutProps) {
         <Label x={476} y={324}>{loadText(s)}</Label>
       </Part>
       <Ground x={450} y={356} />
+      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 450, y1: 280, y2: 356, side: "left" } }} />
       {V && (
         <g>
           <Tag x={166} y={204} v={V.p} />

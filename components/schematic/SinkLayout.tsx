@@ -1,4 +1,5 @@
 import { formatEng } from "@/lib/units/eng";
+import { NetworkPieces } from "./networks";
 import { Part, Label, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
 import { Bjt, Cable, Capacitor, Dot, Ground, Mosfet, OpAmp, Resistor, VoltageSource, Wire } from "./symbols";
 
@@ -98,6 +99,7 @@ export function SinkLayout({ s, sel, on, op }: LayoutProps) {
         <Label x={540} y={84}>{formatEng(s.supplies.load, "V")}</Label>
       </Part>
       <Ground x={520} y={110} />
+      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 410, y1: 40, y2: 120 }, pass: dar ? { cx: 410, cy: 190, ex: 410, ey: 310, bx: 340, by: 230 } : { cx: 410, cy: 190, ex: 410, ey: 270, bx: 380, by: 230 }, feedback: { x1: 240, x2: 340, y: 310 } }} />
       {V && (
         <g>
           <Tag x={160} y={204} v={V.ref ?? V.cmd} anchor="middle" />

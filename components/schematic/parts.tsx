@@ -5,6 +5,7 @@
 import type { KeyboardEvent, ReactNode } from "react";
 import { formatEng } from "@/lib/units/eng";
 import type { Scenario } from "@/lib/design/schema";
+import { ClampSymbol } from "./networks";
 import { Cell, Diode, INK, Inductor, Resistor, Wire } from "./symbols";
 
 /** What the overlay needs from an operating point: node voltages and element currents, SI. */
@@ -87,13 +88,7 @@ export function LoadSymbol({ s, x, y1, y2 }: { s: Scenario; x: number; y1: numbe
         <g>
           <Resistor x1={x} y1={y1} x2={x} y2={m} />
           <Inductor x={x} y1={m} y2={y2} />
-          {L.clampDiode && (
-            <g>
-              <Wire d={[[x, y1 + 4], [x + 28, y1 + 4]]} />
-              <Wire d={[[x, y2 - 4], [x + 28, y2 - 4]]} />
-              <Diode x={x + 28} y1={y2 - 4} y2={y1 + 4} />
-            </g>
-          )}
+          <ClampSymbol clamp={L.clamp} x={x} y1={y1} y2={y2} />
         </g>
       );
     case "led":

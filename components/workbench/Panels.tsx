@@ -1,17 +1,21 @@
 "use client";
 /**
- * The Circuit zone's forms: part values (from the template's part list), load and supply, stimulus, and the
+ * The Circuit zone's forms: part values (from the template's part list), the optional networks, load and supply
+ * (with the coil's clamp), stimulus, and the
  * op-amp and pass-device parameters with our generic presets. Every field edits the scenario through the store;
  * the scenario schema's own message names what is wrong with a value.
  */
 import { useState } from "react";
-import { scenarioSchema, LOAD_KINDS, STIMULUS_KINDS, type Scenario } from "@/lib/design/schema";
+import { scenarioSchema, CLAMP_KINDS, LOAD_KINDS, STIMULUS_KINDS, type Scenario } from "@/lib/design/schema";
+import { NETWORK_DEFAULTS, NETWORK_KEYS, networkApplies, networkLabel, type NetworkKey } from "@/lib/design/networks";
 import { templateInfo } from "@/lib/design/templates";
 import { OPAMP_PRESETS, PASS_PRESETS } from "@/lib/design/presets";
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/design/eseries";
 import { getPath, setPath } from "@/lib/workbench/paths";
 import { useWb, useWbStore } from "./context";
 import { ValueField } from "./ValueField";
+import { useTeamParts } from "./team-parts";
+import { applyPart } from "@/lib/design/part-records";
 
 /** The schema's message for `path` if the scenario with `value` there is invalid at that path. */
 function schemaReason(s: Scenario, path: string, value: unknown): string | null {
@@ -143,6 +147,62 @@ function Check({ id, label, path }: { id: string; label: string; path: string })
   );
 }
 
+const CLAMP_LABEL: Record<(typeof CLAMP_KINDS)[number], string> = { none: "None", diode: "Diode (slow decay)", "diode-zener": "Diode + Zener (fast decay)" };
+
+/** The coil's clamp: none, a freewheel diode, or a diode plus a Zener at a set voltage. */
+function ClampField() {
+  const store = useWbStore();
+  const clamp = useWb((s) => s.scenario.load.clamp.kind);
+  return (
+    <>
+      <Select
+        id="load-clamp" label="Clamp across the coil" value={clamp}
+        options={CLAMP_KINDS.map((k) => ({ value: k, label: CLAMP_LABEL[k] }))}
+        onChange={(v) => store.getState().edit((s) => setPath(s, "load.clamp.kind", v))}
+      />
+      {clamp === "diode-zener" && <ParamField partKey="load" spec={{ path: "load.clamp.zenerVoltage", label: "Zener voltage", unit: "V", min: 0 }} />}
+    </>
+  );
+}
+
+/**
+ * The optional networks, each off until switched on (at its starting values, NETWORK_DEFAULTS), then its values
+ * edited like any part. The Howland pump takes only the load snubber.
+ */
+export function NetworksPanel() {
+  const store = useWbStore();
+  const scenario = useWb((s) => s.scenario);
+  const toggle = (key: NetworkKey, on: boolean) =>
+    store.getState().edit((s) => setPath(s, `networks.${key}`, on ? structuredClone(NETWORK_DEFAULTS[key]) : null));
+  const keys = NETWORK_KEYS.filter((k) => networkApplies(scenario, k));
+  return (
+    <Section title="Networks" id="panel-networks" defaultOpen={false}>
+      <div data-testid="networks-panel">
+        {keys.map((key) => {
+          const on = scenario.networks[key] !== null;
+          const id = `network-${key}`;
+          return (
+            <div key={key}>
+              <label htmlFor={id} className="flex items-center gap-2 px-2 py-1 text-[13px]">
+                <input id={id} type="checkbox" checked={on} className="accent-signal" data-testid={id} onChange={(e) => toggle(key, e.target.checked)} />
+                {networkLabel(scenario, key)}
+              </label>
+              {on && (key === "loadSnubber" || key === "passSnubber") && (
+                <>
+                  <ParamField partKey={key} spec={{ path: `networks.${key}.resistance`, label: "Resistor", unit: "Ω", min: 0 }} />
+                  <ParamField partKey={key} spec={{ path: `networks.${key}.capacitance`, label: "Capacitor", unit: "F", min: 0 }} />
+                </>
+              )}
+              {on && key === "baseEmitterResistor" && <ParamField partKey={key} spec={{ path: "networks.baseEmitterResistor", label: "Resistor", unit: "Ω", min: 0 }} />}
+              {on && key === "feedbackCapacitor" && <ParamField partKey={key} spec={{ path: "networks.feedbackCapacitor", label: "Capacitor", unit: "F", min: 0 }} />}
+            </div>
+          );
+        })}
+      </div>
+    </Section>
+  );
+}
+
 const LOAD_LABEL: Record<(typeof LOAD_KINDS)[number], string> = { resistor: "Resistor", coil: "Coil (R + L)", led: "LED string", cell: "Cell or supply under test" };
 const STIM_LABEL: Record<(typeof STIMULUS_KINDS)[number], string> = {
   "command-step": "Command step", "command-ramp": "Command ramp", "load-step": "Load step", "supply-step": "Supply step", "power-up": "Power-up",
@@ -161,7 +221,7 @@ export function LoadSupplyPanel() {
       />
       <ParamField partKey="load" spec={{ path: "load.resistance", label: kind === "led" ? "Series resistance" : kind === "cell" ? "Internal resistance" : "Load resistance", unit: "Ω", min: 0 }} />
       {kind === "coil" && <ParamField partKey="load" spec={{ path: "load.inductance", label: "Coil inductance", unit: "H", min: 0 }} />}
-      {kind === "coil" && <Check id="load-clamp" label="Clamp diode across the coil" path="load.clampDiode" />}
+      {kind === "coil" && <ClampField />}
       {kind === "led" && <ParamField partKey="load" spec={{ path: "load.ledCount", label: "LEDs in the string", unit: "", integer: true, min: 1, max: 100 }} />}
       {kind === "led" && <Check id="load-laser" label="Laser emitter" path="load.laserEmitter" />}
       {kind === "cell" && <ParamField partKey="load" spec={{ path: "load.cellVoltage", label: "Cell voltage", unit: "V", min: 0 }} />}
@@ -209,18 +269,33 @@ export function StimulusPanel() {
   );
 }
 
+/** A team part's option value in the preset pickers ("team:<id>"), beside the built-in presets' names. */
+const TEAM = "team:";
+
 export function OpampPanel() {
   const store = useWbStore();
   const preset = useWb((s) => s.scenario.opamp.preset);
-  const known = OPAMP_PRESETS.some((p) => p.preset === preset);
+  const ref = useWb((s) => s.scenario.opamp.part);
+  const team = useTeamParts("opamp");
+  const known = ref ? team.some((p) => p.id === ref.id) : OPAMP_PRESETS.some((p) => p.preset === preset);
+  const value = ref ? `${TEAM}${ref.id}` : preset;
   return (
     <Section title="Op-amp" id="panel-opamp" defaultOpen={false}>
       <Select
-        id="opamp-preset" label="Op-amp preset" value={known ? preset : ""}
-        options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset }))]}
+        id="opamp-preset" label="Op-amp preset" value={known ? value : ""}
+        options={[
+          ...(known ? [] : [{ value: "", label: ref ? `${preset} (v${ref.version})` : "Custom" }]),
+          ...team.map((p) => ({ value: `${TEAM}${p.id}`, label: `Team: ${p.name} (v${p.version})` })),
+          ...OPAMP_PRESETS.map((p) => ({ value: p.preset, label: p.preset })),
+        ]}
         onChange={(v) => {
+          const t = team.find((x) => `${TEAM}${x.id}` === v);
+          if (t) {
+            store.getState().edit((s) => applyPart(s, { id: t.id, version: t.version, kind: t.kind, name: t.name, values: t.values }));
+            return;
+          }
           const p = OPAMP_PRESETS.find((x) => x.preset === v);
-          if (p) store.getState().edit((s) => ({ ...s, opamp: { ...p } }));
+          if (p) store.getState().edit((s) => ({ ...s, opamp: { ...p, part: null } }));
         }}
       />
       <ParamField partKey="opamp" spec={{ path: "opamp.GBW", label: "Gain–bandwidth", unit: "Hz" }} />
@@ -233,6 +308,9 @@ export function OpampPanel() {
       <ParamField partKey="opamp" spec={{ path: "opamp.Iout", label: "Output current limit (empty = none)", unit: "A", nullable: true }} />
       <ParamField partKey="opamp" spec={{ path: "opamp.vosMax", label: "Max offset voltage", unit: "V" }} />
       <ParamField partKey="opamp" spec={{ path: "opamp.ibMax", label: "Max bias current", unit: "A" }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.supplyMin", label: "Lowest supply (empty = not given)", unit: "V", nullable: true }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.supplyMax", label: "Highest supply (empty = not given)", unit: "V", nullable: true }} />
+      <ParamField partKey="opamp" spec={{ path: "opamp.swingCurrent", label: "Swing figures at (empty = not given)", unit: "A", nullable: true }} />
     </Section>
   );
 }
@@ -244,17 +322,29 @@ export function PassPanel() {
   const template = useWb((s) => s.scenario.template);
   const wanted = template === "sink-nmos" ? ["nmos"] : template === "source-highside" ? ["pnp", "pmos"] : template === "howland" ? [] : ["npn"];
   const presets = PASS_PRESETS.filter((p) => wanted.includes(p.kind));
-  const known = presets.some((p) => p.preset === preset);
+  const ref = useWb((s) => s.scenario.pass.part);
+  const team = useTeamParts("pass").filter((p) => wanted.includes(String(p.values.kind)));
+  const known = ref ? team.some((p) => p.id === ref.id) : presets.some((p) => p.preset === preset);
+  const value = ref ? `${TEAM}${ref.id}` : preset;
   if (template === "howland") return null;
   const bjt = kind === "npn" || kind === "pnp";
   return (
     <Section title="Pass device" id="panel-pass" defaultOpen={false}>
       <Select
-        id="pass-preset" label="Pass-device preset" value={known ? preset : ""}
-        options={[...(known ? [] : [{ value: "", label: "Custom" }]), ...presets.map((p) => ({ value: p.preset, label: p.preset }))]}
+        id="pass-preset" label="Pass-device preset" value={known ? value : ""}
+        options={[
+          ...(known ? [] : [{ value: "", label: ref ? `${preset} (v${ref.version})` : "Custom" }]),
+          ...team.map((p) => ({ value: `${TEAM}${p.id}`, label: `Team: ${p.name} (v${p.version})` })),
+          ...presets.map((p) => ({ value: p.preset, label: p.preset })),
+        ]}
         onChange={(v) => {
+          const t = team.find((x) => `${TEAM}${x.id}` === v);
+          if (t) {
+            store.getState().edit((s) => applyPart(s, { id: t.id, version: t.version, kind: t.kind, name: t.name, values: t.values }));
+            return;
+          }
           const p = PASS_PRESETS.find((x) => x.preset === v);
-          if (p) store.getState().edit((s) => ({ ...s, pass: { ...p } }));
+          if (p) store.getState().edit((s) => ({ ...s, pass: { ...p, part: null } }));
         }}
       />
       {bjt ? (
@@ -280,6 +370,7 @@ export function PassPanel() {
       <ParamField partKey="pass" spec={{ path: "pass.pMax", label: "Rated dissipation (25 °C case)", unit: "W" }} />
       <ParamField partKey="pass" spec={{ path: "pass.thetaJC", label: "Thermal resistance θjc", unit: "°C/W" }} />
       <ParamField partKey="pass" spec={{ path: "pass.tjMax", label: "Max junction temperature", unit: "°C" }} />
+      <ParamField partKey="pass" spec={{ path: "pass.soaCornerVoltage", label: "SOA corner (empty = not given)", unit: "V", nullable: true }} />
     </Section>
   );
 }

@@ -7,7 +7,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import { formatEng, parseEng } from "@/lib/units/eng";
-import { SWEEPABLE_PARAMETERS, mergeSpread, summarizeSpread, type MapMetric, type SpreadDraw } from "@/lib/design/studies";
+import { SWEEPABLE_PARAMETERS, mergeSpread, summarizeSpread, type MapMetric, type SnubberTuneResult, type SpreadDraw } from "@/lib/design/studies";
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/design/eseries";
 import { setPath, getPath } from "@/lib/workbench/paths";
 import { StudyRunner } from "@/lib/workbench/studies";
@@ -393,11 +393,48 @@ function SpreadTab({ runner }: { runner: StudyRunner | null }) {
   );
 }
 
+/** The load-snubber search: what it tried (one row per capacitor) and, when one meets the targets, its own Apply. */
+function SnubberResult({ result }: { result: SnubberTuneResult }) {
+  const store = useWbStore();
+  const [applied, setApplied] = useState(false);
+  useEffect(() => setApplied(false), [result]);
+  const c = result.chosen;
+  return (
+    <div className="mt-2 border-t border-hairline pt-2" data-testid="compensate-snubber">
+      <table className="num w-full text-[12px]">
+        <caption className="text-left text-[12px] font-semibold">Load snubbers tried (with the present compensation)</caption>
+        <thead><tr className="text-left text-ink-muted"><th>C</th><th>best R</th><th>margin</th><th>overshoot</th><th>meets</th></tr></thead>
+        <tbody>
+          {result.tried.map((t) => (
+            <tr key={t.capacitance}>
+              <td>{formatEng(t.capacitance, "F")}</td><td>{formatEng(t.resistance, "Ω")}</td>
+              <td>{Number.isFinite(t.minPhaseMarginDeg) ? `${t.minPhaseMarginDeg.toFixed(1)}°` : "—"}</td>
+              <td>{t.worstOvershootPct === null ? "—" : `${t.worstOvershootPct.toFixed(1)} %`}</td>
+              <td>{t.meets ? "yes" : "no"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {c && (
+        <button type="button" className={`${PRIMARY} mt-2`} data-testid="compensate-apply-snubber"
+          onClick={() => {
+            store.getState().edit((s) => ({ ...s, networks: { ...s.networks, loadSnubber: { resistance: c.resistance, capacitance: c.capacitance } } }));
+            setApplied(true);
+          }}>
+          Apply the load snubber {formatEng(c.resistance, "Ω")} + {formatEng(c.capacitance, "F")}
+        </button>
+      )}
+      {applied && <span className="ml-2 text-[12px] text-verdict-pass" role="status">Applied — undo with Ctrl+Z</span>}
+    </div>
+  );
+}
+
 function CompensateTab({ runner }: { runner: StudyRunner | null }) {
   const store = useWbStore();
   const state = useWb((s) => s.studies.compensate);
   const series = useWb((s) => s.scenario.studies.compensate.series);
   const tune = useWb((s) => s.scenario.studies.compensate.tuneBaseResistor);
+  const tuneSnubber = useWb((s) => s.scenario.studies.compensate.tuneLoadSnubber);
   const result = useMemo(() => {
     for (const c of state.chunks) if (c.result) return c.result;
     return null;
@@ -420,6 +457,11 @@ function CompensateTab({ runner }: { runner: StudyRunner | null }) {
           <input type="checkbox" className="accent-signal" checked={tune} onChange={(e) => store.getState().edit((s) => setPath(s, "studies.compensate.tuneBaseResistor", e.target.checked))} />
           Also tune the base/gate resistor
         </label>
+        <label className="flex items-center gap-2 px-2 text-[13px]">
+          <input type="checkbox" className="accent-signal" checked={tuneSnubber} data-testid="compensate-tune-snubber"
+            onChange={(e) => store.getState().edit((s) => setPath(s, "studies.compensate.tuneLoadSnubber", e.target.checked))} />
+          Also find a load snubber (the smallest capacitor that meets the targets)
+        </label>
         <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.compensate()} data-testid="compensate-run">Find compensation</button>
         <Progress kind="compensate" state={state} onCancel={() => runner?.cancel("compensate")} />
         <StaleNote kind="compensate" runner={runner} />
@@ -428,6 +470,7 @@ function CompensateTab({ runner }: { runner: StudyRunner | null }) {
         {result ? (
           <div className="rounded border border-hairline bg-white p-3 text-[13px]" data-testid="compensate-result">
             <p>{result.message}</p>
+            {result.loadSnubber && <SnubberResult result={result.loadSnubber} />}
             {result.chosen && (
               <>
                 <dl className="num mt-2 grid grid-cols-2 gap-x-4 gap-y-1 text-[12px]">

@@ -10,7 +10,7 @@ import { compileNetlistJson, idealTransconductance } from "@/lib/design/compile"
 import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
-import { LoadSupplyPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
+import { LoadSupplyPanel, NetworksPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
 import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
@@ -20,6 +20,8 @@ import { formatEng } from "@/lib/units/eng";
 import { downloadText } from "@/components/plots/ExportMenu";
 import { useEngine } from "./engine";
 import { StudiesDrawer } from "./StudiesDrawer";
+import { PartUpdateOffer, TeamPartsProvider } from "./team-parts";
+import type { PartOption } from "@/lib/db/parts";
 import { SaveControl, type SaveFn } from "./SaveControl";
 import { TOOL_BUTTON } from "@/components/shell/classes";
 import { alignCapture } from "@/lib/traces/compare";
@@ -41,12 +43,16 @@ export interface WorkbenchProps {
   fork?: Fork | null;
   /** Share links: shown for members who may share; `canPublish` for the owner or a lead (public links). */
   share?: { canPublish: boolean; publicUrl: string } | null;
+  /** The team's live parts (pickers and the "newer version" offer); none for a local draft. */
+  teamParts?: readonly PartOption[];
 }
 
 export function Workbench(props: WorkbenchProps) {
   return (
     <WorkbenchProvider scenario={props.scenario}>
-      <WorkbenchInner {...props} />
+      <TeamPartsProvider parts={props.teamParts ?? []}>
+        <WorkbenchInner {...props} />
+      </TeamPartsProvider>
     </WorkbenchProvider>
   );
 }
@@ -262,7 +268,9 @@ function CircuitZone() {
           }}
         />
       </div>
+      <PartUpdateOffer />
       <PartValues />
+      <NetworksPanel />
       <LoadSupplyPanel />
       <StimulusPanel />
       <OpampPanel />

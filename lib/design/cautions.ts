@@ -22,7 +22,7 @@ export function cautionsFor(c: CheckContext): Caution[] {
       text: `The circuit works at ${fmt(vHighest)} V, above the 60 V DC extra-low-voltage limit: touch protection, insulation and spacing rules apply. ${DEFERENCE}`,
     });
   }
-  if (L.kind === "coil" && L.inductance > 0 && !L.clampDiode) {
+  if (L.kind === "coil" && L.inductance > 0 && L.clamp.kind === "none") {
     cautions.push({
       id: "inductive",
       title: "Inductive load without a clamp",

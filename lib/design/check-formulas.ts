@@ -100,8 +100,17 @@ export function pathResistance(s: Scenario): number {
   return (s.template === "howland" ? 0 : s.parts.senseResistor) + cableResistance(s);
 }
 
-/** Control-terminal drive the pass device needs at current i: V(BE)/V(GS) plus the base-resistor drop, V. */
+/**
+ * Control-terminal drive the pass device needs at current i: V(BE)/V(GS), V, and the current through the base/gate
+ * resistor, A (base current, plus V(BE or GS)/R when a base–emitter or gate–source resistor is fitted).
+ */
 export function driveVoltage(s: Scenario, i: number): { vControl: number; iControl: number } {
+  const d = deviceDrive(s, i);
+  const rbe = s.template === "howland" ? null : s.networks.baseEmitterResistor;
+  return rbe === null ? d : { vControl: d.vControl, iControl: d.iControl + d.vControl / rbe };
+}
+
+function deviceDrive(s: Scenario, i: number): { vControl: number; iControl: number } {
   const vt = thermalVoltage(s.thermal.ambient);
   const p = s.pass;
   if (usesMos(s)) return { vControl: p.Vth + Math.sqrt(Math.max(i, 0) / p.K), iControl: 0 };

@@ -3,6 +3,7 @@
  * by runChecks) and returns its rows. runChecks (./checks.ts) calls them in the order of the table.
  */
 import { NAMES, cableResistance, idealTransconductance } from "./compile";
+import { clampVoltage } from "./networks";
 import type { Scenario } from "./schema";
 import {
   driveVoltage, effectiveBeta, fmt, fullScaleCurrent, junctionTemperature, ledDrop, pathResistance, pathSupply, usesBjt,
@@ -131,7 +132,9 @@ export function driveChecks(c: CheckContext): CheckRow[] {
       });
     }
     // Worst case: the smallest β of the production spread (Darlington: the product of both stages).
-    const iDrive = usesBjt(s) ? iFs / effectiveBeta(s) : iControl;
+    // A base–emitter resistor draws V(BE)/R on top of the base current (already in iControl).
+    const iBleed = s.networks.baseEmitterResistor !== null ? vControl / s.networks.baseEmitterResistor : 0;
+    const iDrive = usesBjt(s) ? iFs / effectiveBeta(s) + iBleed : iControl;
     if (s.opamp.Iout !== null) {
       rows.push({
         id: "drive-current",
@@ -141,7 +144,7 @@ export function driveChecks(c: CheckContext): CheckRow[] {
         limit: s.opamp.Iout,
         limitKind: "max",
         unit: "A",
-        formula: "Ib = I/βmin (gate: 0 at DC) ≤ Iout limit; warn above 70 %",
+        formula: "Ib = I/βmin + V(BE)/R(BE) (gate: V(GS)/R(GS) at DC) ≤ Iout limit; warn above 70 %",
         detail: usesBjt(s) ? `βmin = ${fmt(s.pass.betaMin)}; at the typical β ${fmt(s.pass.betaF)} it is ${fmt(iControl)} A` : "Gate current flows only while the gate charges.",
       });
     }
@@ -226,9 +229,14 @@ export function soaCheck(c: CheckContext): CheckRow[] {
   const { s, L, iFs, howland, diss } = c;
   const rows: CheckRow[] = [];
   if (!howland) {
-    const vMaxSeen = Math.max(pathSupply(s, L.kind === "cell" ? L.cellVoltageMax : 0), s.supplies.load) + Math.max(0, s.stimulus.kind === "supply-step" ? s.stimulus.supplyStep : 0);
+    // A clamped coil adds the clamp's voltage at turn-off (an unclamped one is a caution of its own).
+    const vMaxSeen = Math.max(pathSupply(s, L.kind === "cell" ? L.cellVoltageMax : 0), s.supplies.load) + Math.max(0, s.stimulus.kind === "supply-step" ? s.stimulus.supplyStep : 0)
+      + clampVoltage(s, iFs);
     const tc = s.thermal.ambient + diss.power * (s.thermal.thetaSA === null ? s.pass.thetaJA - s.pass.thetaJC : s.thermal.thetaCS + s.thermal.thetaSA);
-    const pRated = s.pass.pMax * Math.max(0, (s.pass.tjMax - tc) / (s.pass.tjMax - 25));
+    // Above the SOA corner the second-breakdown line takes over: allowed power × Vcorner/V (I ∝ V⁻²).
+    const corner = s.pass.soaCornerVoltage;
+    const sbFactor = corner !== null && diss.vDrop > corner ? corner / diss.vDrop : 1;
+    const pRated = s.pass.pMax * Math.max(0, (s.pass.tjMax - tc) / (s.pass.tjMax - 25)) * sbFactor;
     const ratios = [iFs / s.pass.iMax, vMaxSeen / s.pass.vMax, diss.power / Math.max(pRated, 1e-12)];
     const worst = Math.max(...ratios);
     rows.push({
@@ -239,8 +247,8 @@ export function soaCheck(c: CheckContext): CheckRow[] {
       limit: 1,
       limitKind: "max",
       unit: "",
-      formula: "max(I/Imax, V/Vmax, P/P(Tcase)) with P(Tcase) = Pmax·(Tj,max − Tcase)/(Tj,max − 25 °C)",
-      detail: `I/Imax = ${fmt(ratios[0])}, V/Vmax = ${fmt(ratios[1])} (load shorted or open: the full supply), P/P(Tc) = ${fmt(ratios[2])} at Tc = ${fmt(tc)} °C. Second breakdown is not modelled; warn above 80 %.`,
+      formula: "max(I/Imax, V/Vmax, P/P(Tcase)) with P(Tcase) = Pmax·(Tj,max − Tcase)/(Tj,max − 25 °C), × Vcorner/V above the SOA corner",
+      detail: `I/Imax = ${fmt(ratios[0])}, V/Vmax = ${fmt(ratios[1])} (load shorted or open: the full supply), P/P(Tc) = ${fmt(ratios[2])} at Tc = ${fmt(tc)} °C${sbFactor < 1 ? ` and ${fmt(diss.vDrop)} V, beyond the ${fmt(corner!)} V SOA corner (× ${fmt(sbFactor)})` : ""}${L.kind === "coil" && L.clamp.kind !== "none" ? `; V includes the clamp's ${fmt(clampVoltage(s, iFs))} V at turn-off` : ""}. Second breakdown is not modelled; warn above 80 %.`,
     });
   }
 

@@ -11,6 +11,8 @@ import {
   soaCheck, thermalChecks, type CheckContext,
 } from "./check-rows";
 import { cautionsFor } from "./cautions";
+import { clampChecks, networkDissipationChecks } from "./network-checks";
+import { opampDatasheetChecks } from "./datasheet-checks";
 
 export * from "./check-formulas";
 
@@ -19,9 +21,12 @@ const CHECKS: readonly ((c: CheckContext) => CheckRow[])[] = [
   complianceCheck,
   driveChecks,
   commonModeCheck,
+  opampDatasheetChecks,
   thermalChecks,
   soaCheck,
+  clampChecks,
   sensePowerCheck,
+  networkDissipationChecks,
   accuracyCheck,
   commandCurrentCheck,
   operatingPointChecks,

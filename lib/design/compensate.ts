@@ -1,10 +1,14 @@
-/** Compensate: the E-series compensation capacitor (and base/gate resistor) that meets the targets over the load range. */
+/**
+ * Compensate: the E-series compensation capacitor (and base/gate resistor) that meets the targets over the load range;
+ * when asked, also the load snubber (compensate-snubber.ts).
+ */
 import { isSimError } from "../sim";
 import { formatEng } from "../units/eng";
 import { eValuesBetween, nearestE, type ESeriesName } from "./eseries";
 import { withParameter } from "./parameters";
 import { runLoopGain, runStep } from "./run";
 import type { Scenario } from "./schema";
+import { compensateLoadSnubber, type SnubberTuneResult } from "./compensate-snubber";
 import { checkStop, clampRange, engineOptions, type IndexRange, type StudyOptions } from "./study-common";
 
 
@@ -13,6 +17,8 @@ export interface CompensateSettings {
   maxOvershootPct: number;
   series: ESeriesName;
   tuneBaseResistor: boolean;
+  /** also search the load snubber (compensate-snubber.ts), with the rest of the design as it is */
+  tuneLoadSnubber?: boolean;
 }
 
 export interface CompensateCandidate {
@@ -164,7 +170,16 @@ export interface CompensateResult {
   /** every candidate's phase margin, and the step metrics of those that were simulated */
   scanned: CompensateScanRow[];
   stepped: (CompensateCandidate & { worstOvershootPct: number; worstSettlingTime1pct: number })[];
+  /** the load-snubber search, when asked for (settings.tuneLoadSnubber) */
+  loadSnubber: SnubberTuneResult | null;
   message: string;
+}
+
+/** The load-snubber search when the settings ask for it, and the message with its sentence added. */
+function withSnubberSearch(s: Scenario, settings: CompensateSettings, opts: StudyOptions, message: string): { loadSnubber: SnubberTuneResult | null; message: string } {
+  if (!settings.tuneLoadSnubber) return { loadSnubber: null, message };
+  const loadSnubber = compensateLoadSnubber(s, settings, { ...opts, onProgress: undefined });
+  return { loadSnubber, message: `${message} ${loadSnubber.message}` };
 }
 
 /**
@@ -234,7 +249,7 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
     : passing.length === 0
       ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
       : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
-  return { chosen: best, scanned: rows, stepped, message };
+  return { chosen: best, scanned: rows, stepped, ...withSnubberSearch(s, settings, opts, message) };
 }
 
 /**
@@ -329,5 +344,5 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
     : !anyPm
       ? `No ${settings.series} value from 10 pF to 100 nF that was tried reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
       : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
-  return { chosen: best, scanned: rows, stepped: steppedRows, message };
+  return { chosen: best, scanned: rows, stepped: steppedRows, ...withSnubberSearch(s, settings, opts, message) };
 }

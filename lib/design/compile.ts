@@ -6,8 +6,21 @@
  * with the load whose current is positive in the regulated direction), the op-amp "amplifier" with its output at
  * node "oa", the pass device "pass" with its collector/drain at node "c", ground "gnd", and for loop gain the probe
  * pair "probe-series"/"probe-shunt" in the wire of the loop being broken (see CompileOptions.loop).
+ *
+ * Optional networks (scenario.networks, load.clamp), each only when fitted:
+ *  - load snubber: "load-snubber-r" from the load's terminal the current enters (sinks: the load supply "vs"; sources:
+ *    "lt") to node "lsn", "load-snubber-c" from "lsn" to the other terminal (across the load at the far end of the
+ *    cable, beside "load-c");
+ *  - pass snubber: "pass-snubber-r" from the collector/drain "c" to "psn", "pass-snubber-c" from "psn" to the
+ *    emitter/source "e" (Darlington: across the pair);
+ *  - "base-emitter-resistor" (MOSFET: "gate-source-resistor") from "b" to "e", after the drive resistor, so the
+ *    current loop's break between "oa" and the drive resistor stays where it is;
+ *  - "feedback-capacitor" from "e" to "inv" across the feedback resistor (the compensation capacitor is "oa"–"inv");
+ *  - coil clamp: "clamp" (freewheel diode, anode at the pass-device side of the coil) and for "diode-zener" also
+ *    "clamp-zener" in series (node "lz"), a diode with breakdown BV = zenerVoltage conducting in reverse.
  */
 import type { AnalysisJson, NetlistElementJson, NetlistJson, Wave } from "./netlist";
+import { CLAMP_DIODE, usesGateDrive } from "./networks";
 import type { Scenario } from "./schema";
 
 export type CompilePurpose = "op" | "step" | "loopgain-v" | "loopgain-i" | "closedloop" | "zout" | "dcsweep";
@@ -59,6 +72,21 @@ export const NAMES = {
   nodePass: "c",
   nodeCommand: "cmd",
 } as const;
+
+
+/** Networks around the pass device and the feedback resistor (sinks and the high-side source). */
+function passNetworks(b: Builder): void {
+  const n = b.s.networks;
+  if (n.passSnubber) {
+    res(b, "pass-snubber-r", NAMES.nodePass, "psn", n.passSnubber.resistance);
+    add(b, { kind: "capacitor", name: "pass-snubber-c", nodes: ["psn", "e"], value: n.passSnubber.capacitance });
+  }
+  if (n.baseEmitterResistor !== null) {
+    res(b, usesGateDrive(b.s) ? "gate-source-resistor" : "base-emitter-resistor", "b", "e", n.baseEmitterResistor);
+  }
+  if (n.feedbackCapacitor !== null) add(b, { kind: "capacitor", name: "feedback-capacitor", nodes: ["e", "inv"], value: n.feedbackCapacitor });
+}
+
 
 const AC_DEFAULT = { fStart: 10, fStop: 10e6, pointsPerDecade: 20 };
 
@@ -286,7 +314,11 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
       res(b, "load-r", hi, "lc", rLoad);
       if (L.inductance > 0) add(b, { kind: "inductor", name: "load-l", nodes: ["lc", lo], value: L.inductance });
       else res(b, "load-link", "lc", lo, 1e-6);
-      if (L.clampDiode) add(b, { kind: "diode", name: "clamp", nodes: [lo, hi], model: { Is: 1e-12, n: 1.5, Rs: 0.05 } });
+      if (L.clamp.kind === "diode") add(b, { kind: "diode", name: "clamp", nodes: [lo, hi], model: CLAMP_DIODE });
+      if (L.clamp.kind === "diode-zener") {
+        add(b, { kind: "diode", name: "clamp", nodes: [lo, "lz"], model: CLAMP_DIODE });
+        add(b, { kind: "diode", name: "clamp-zener", nodes: [hi, "lz"], model: { ...CLAMP_DIODE, BV: L.clamp.zenerVoltage } });
+      }
       break;
     case "led":
       // N identical diodes in series carry the same current, so V = N·n·Vt·ln(I/Is + 1): exactly one diode with
@@ -303,6 +335,11 @@ function loadPath(b: Builder, sink: boolean, farNode: string): void {
       break;
   }
   if (L.extraCapacitance > 0) add(b, { kind: "capacitor", name: "load-c", nodes: [hi, lo], value: L.extraCapacitance });
+  const snub = s.networks.loadSnubber;
+  if (snub) {
+    res(b, "load-snubber-r", hi, "lsn", snub.resistance);
+    add(b, { kind: "capacitor", name: "load-snubber-c", nodes: ["lsn", lo], value: snub.capacitance });
+  }
   if (s.stimulus.kind === "load-step") {
     const t0 = purpose === "step" ? s.stimulus.stepTime : Number.MAX_SAFE_INTEGER;
     res(b, "step-r", hi, "ls", s.load.stepResistance);
@@ -337,6 +374,7 @@ function buildSink(b: Builder): void {
   } else {
     add(b, { kind: "bjt", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "npn", model: bjtModel(s) });
   }
+  passNetworks(b);
   supplySource(b, NAMES.loadSupply, "vs", s.supplies.load, true);
   loadPath(b, true, "vs");
 }
@@ -361,6 +399,7 @@ function buildHighSide(b: Builder): void {
   } else {
     add(b, { kind: "bjt", name: NAMES.pass, nodes: [NAMES.nodePass, "b", "e"], polarity: "pnp", model: bjtModel(s) });
   }
+  passNetworks(b);
   loadPath(b, false, NAMES.ground);
 }
 

@@ -26,7 +26,30 @@ export function flatten(value: unknown, prefix = "", out: Map<string, Scalar> = 
 
 function rank(path: string): number {
   const head = path.split(".")[0];
-  return head === "parts" ? 0 : head === "load" || head === "supplies" ? 1 : 2;
+  return head === "parts" || head === "networks" ? 0 : head === "load" || head === "supplies" ? 1 : 2;
+}
+
+/**
+ * A network switched on or off is an object against null: rather than a removed "networks.loadSnubber" row beside
+ * added "networks.loadSnubber.resistance" rows, list each of its values, "none" (null) on the side it was off.
+ */
+function foldNullObjects(rows: DiffRow[]): DiffRow[] {
+  const nulls = new Map<string, DiffRow>();
+  for (const r of rows) if ((r.kind === "removed" && r.before === null) || (r.kind === "added" && r.after === null)) nulls.set(r.path, r);
+  if (nulls.size === 0) return rows;
+  const out: DiffRow[] = [];
+  const folded = new Set<string>();
+  for (const r of rows) {
+    const parent = r.path.slice(0, Math.max(0, r.path.lastIndexOf(".")));
+    const n = nulls.get(parent);
+    if (n && r.kind !== n.kind && r.kind !== "changed") {
+      folded.add(parent);
+      out.push(r.kind === "added" ? { ...r, before: null, kind: "added" } : { ...r, after: null, kind: "removed" });
+    } else {
+      out.push(r);
+    }
+  }
+  return out.filter((r) => !folded.has(r.path));
 }
 
 export function diffBodies(before: unknown, after: unknown): DiffRow[] {
@@ -38,5 +61,5 @@ export function diffBodies(before: unknown, after: unknown): DiffRow[] {
     else if (!Object.is(va, b.get(path))) rows.push({ path, before: va, after: b.get(path), kind: "changed" });
   }
   for (const [path, vb] of b) if (!a.has(path)) rows.push({ path, before: undefined, after: vb, kind: "added" });
-  return rows.sort((x, y) => rank(x.path) - rank(y.path) || x.path.localeCompare(y.path));
+  return foldNullObjects(rows).sort((x, y) => rank(x.path) - rank(y.path) || x.path.localeCompare(y.path));
 }

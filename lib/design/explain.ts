@@ -58,7 +58,7 @@ export function largeSignalLimits(s: Scenario, step: StepLike): string[] {
     const iHigh = idealTransconductance(s) * s.stimulus.commandHigh;
     const floor = iHigh * s.parts.senseResistor + s.pass.vSat;
     if (pLo <= floor) out.push(`the pass device ran out of headroom (its ${s.pass.kind === "nmos" ? "drain" : "collector"} fell to ${formatEng(pLo, "V")})`);
-    if (s.load.kind === "coil" && s.load.clampDiode && pHi > s.supplies.load + 0.3) out.push("the coil's clamp diode conducted");
+    if (s.load.kind === "coil" && s.load.clamp.kind !== "none" && pHi > s.supplies.load + 0.3) out.push("the coil's clamp diode conducted");
   }
   return out;
 }

@@ -1,4 +1,9 @@
-/** Parameters a study can vary, addressed by a path into the scenario, and the values of a sweep axis. */
+/**
+ * Parameters a study can vary, addressed by a path into the scenario, and the values of a sweep axis. A network's
+ * value ("networks.loadSnubber.resistance") may be varied while the network is off: the study fits it, starting from
+ * NETWORK_DEFAULTS for the values it does not vary.
+ */
+import { NETWORK_DEFAULTS } from "./networks";
 import type { Scenario, SweepAxis } from "./schema";
 
 export interface SweepableParameter {
@@ -28,12 +33,30 @@ export const SWEEPABLE_PARAMETERS: readonly SweepableParameter[] = [
   { path: "opamp.Rout", label: "Op-amp output resistance", unit: "Ω", from: 1, to: 500, scale: "log" },
   { path: "pass.betaF", label: "Pass-device beta", unit: "", from: 10, to: 500, scale: "log" },
   { path: "pass.Cjc0", label: "Pass-device Cjc0", unit: "F", from: 10e-12, to: 1e-9, scale: "log" },
+  { path: "networks.loadSnubber.resistance", label: "Load snubber resistor", unit: "Ω", from: 1, to: 1e3, scale: "log" },
+  { path: "networks.loadSnubber.capacitance", label: "Load snubber capacitor", unit: "F", from: 1e-9, to: 1e-6, scale: "log" },
+  { path: "networks.passSnubber.resistance", label: "Pass-device snubber resistor", unit: "Ω", from: 1, to: 1e3, scale: "log" },
+  { path: "networks.passSnubber.capacitance", label: "Pass-device snubber capacitor", unit: "F", from: 100e-12, to: 100e-9, scale: "log" },
+  { path: "networks.baseEmitterResistor", label: "Base–emitter (gate–source) resistor", unit: "Ω", from: 100, to: 100e3, scale: "log" },
+  { path: "networks.feedbackCapacitor", label: "Feedback-resistor capacitor", unit: "F", from: 10e-12, to: 10e-9, scale: "log" },
+  { path: "load.clamp.zenerVoltage", label: "Clamp Zener voltage", unit: "V", from: 5, to: 60, scale: "linear" },
   { path: "thermal.ambient", label: "Ambient temperature", unit: "°C", from: -20, to: 85, scale: "linear" },
 ];
 
-/** Read a numeric parameter by path ("parts.compCapacitor"). */
+/** The scenario with the network `path` names fitted (at its starting values) when it is off; else `s` itself. */
+function withNetworkFitted(s: Scenario, path: string): Scenario {
+  const [head, key] = path.split(".");
+  if (head !== "networks" || !(key in NETWORK_DEFAULTS)) return s;
+  const k = key as keyof typeof NETWORK_DEFAULTS;
+  if (s.networks[k] !== null) return s;
+  const copy = structuredClone(s);
+  (copy.networks as Record<string, unknown>)[k] = structuredClone(NETWORK_DEFAULTS[k]);
+  return copy;
+}
+
+/** Read a numeric parameter by path ("parts.compCapacitor"); a network that is off reads its starting value. */
 export function getParameter(s: Scenario, path: string): number {
-  let cur: unknown = s;
+  let cur: unknown = withNetworkFitted(s, path);
   for (const key of path.split(".")) {
     if (cur === null || typeof cur !== "object" || !(key in (cur as object))) throw new RangeError(`Unknown parameter "${path}"`);
     cur = (cur as Record<string, unknown>)[key];
@@ -46,7 +69,8 @@ export function getParameter(s: Scenario, path: string): number {
 export function withParameter(s: Scenario, path: string, value: number): Scenario {
   getParameter(s, path);
   if (!Number.isFinite(value)) throw new RangeError(`${path}: ${value} is not a finite number`);
-  const copy = structuredClone(s);
+  const fitted = withNetworkFitted(s, path);
+  const copy = fitted === s ? structuredClone(s) : fitted;
   const keys = path.split(".");
   let cur = copy as unknown as Record<string, unknown>;
   for (let i = 0; i < keys.length - 1; i++) cur = cur[keys[i]] as Record<string, unknown>;

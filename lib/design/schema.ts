@@ -6,7 +6,7 @@
 import { z } from "zod";
 
 /** Current schema version; bump it and add a step to `upgradeScenario` whenever the shape changes. */
-export const SCHEMA_VERSION = 1 as const;
+export const SCHEMA_VERSION = 2 as const;
 
 export const TEMPLATE_IDS = ["sink-npn", "sink-darlington", "sink-nmos", "source-highside", "howland"] as const;
 export type TemplateId = (typeof TEMPLATE_IDS)[number];
@@ -45,9 +45,22 @@ export const partsSchema = z.object({
 });
 export type Parts = z.infer<typeof partsSchema>;
 
+/**
+ * Which of the team's parts a scenario's op-amp or pass device came from: its id and version (null = a built-in
+ * preset or values typed in). The values themselves are stored beside it, so a revision reproduces whatever becomes
+ * of the part later.
+ */
+export const partRefSchema = z.object({
+  id: z.string().uuid("part.id must be a part's id"),
+  version: z.number().int("part.version must be a whole number").min(1, "part.version starts at 1"),
+});
+export type PartRef = z.infer<typeof partRefSchema>;
+
 /** Op-amp macro-model parameters (the engine's names) plus what the checks need. */
 export const opampSchema = z.object({
   preset: z.string().max(80),
+  /** the team's part these values came from (null = a built-in preset or typed in) */
+  part: partRefSchema.nullable().default(null),
   /** DC open-loop gain, V/V */
   Aol: positive("Open-loop gain"),
   /** gain–bandwidth product, Hz */
@@ -78,6 +91,11 @@ export const opampSchema = z.object({
   cmLowFromVee: finite("Common-mode range, low end"),
   /** input common-mode range: highest input relative to the positive rail, V (positive = below the rail) */
   cmHighFromVcc: finite("Common-mode range, high end"),
+  /** datasheet supply range, total (V+ − V−), V (null = not given) */
+  supplyMin: optionalPositive("Lowest supply"),
+  supplyMax: optionalPositive("Highest supply"),
+  /** the output current the swing figures hold at, A (null = not given) */
+  swingCurrent: optionalPositive("Output current of the swing figures"),
 });
 export type OpampParams = z.infer<typeof opampSchema>;
 
@@ -86,6 +104,8 @@ export const PASS_KINDS = ["npn", "pnp", "nmos", "pmos"] as const;
 /** Pass-device parameters: BJT (Ebers–Moll) and MOSFET (square law) fields plus ratings for the checks. */
 export const passSchema = z.object({
   preset: z.string().max(80),
+  /** the team's part these values came from (null = a built-in preset or typed in) */
+  part: partRefSchema.nullable().default(null),
   kind: z.enum(PASS_KINDS, { error: "Pass device kind must be npn, pnp, nmos or pmos" }),
   Is: positive("Saturation current Is"),
   betaF: positive("Forward beta"),
@@ -115,6 +135,11 @@ export const passSchema = z.object({
   thetaJA: positive("θja"),
   /** maximum junction temperature, °C */
   tjMax: positive("Maximum junction temperature"),
+  /**
+   * SOA corner, V: above it the datasheet's second-breakdown line limits the power below the rated one (taken as
+   * P ∝ 1/V, i.e. I ∝ V⁻²); null = not given (the power line alone)
+   */
+  soaCornerVoltage: optionalPositive("SOA corner voltage"),
 });
 export type PassParams = z.infer<typeof passSchema>;
 
@@ -133,6 +158,15 @@ export const cableSchema = z.object({
   sections: z.number().int("Cable sections must be a whole number").min(1, "At least one cable section").max(10, "At most 10 cable sections"),
 });
 
+export const CLAMP_KINDS = ["none", "diode", "diode-zener"] as const;
+
+export const clampSchema = z.object({
+  kind: z.enum(CLAMP_KINDS, { error: "Clamp must be none, diode or diode-zener" }),
+  /** the Zener's breakdown voltage, V (used by "diode-zener") */
+  zenerVoltage: positive("Zener voltage"),
+});
+export type ClampParams = z.infer<typeof clampSchema>;
+
 export const loadSchema = z.object({
   kind: z.enum(LOAD_KINDS, { error: "Load kind must be resistor, coil, led or cell" }),
   /** load resistance (resistor, coil winding, LED-string series resistor, cell internal resistance), Ω */
@@ -142,8 +176,8 @@ export const loadSchema = z.object({
   resistanceMax: nonNegative("Maximum load resistance"),
   /** coil inductance, H */
   inductance: nonNegative("Coil inductance"),
-  /** clamp (freewheel) diode across the coil */
-  clampDiode: z.boolean(),
+  /** clamp across the coil: none, a freewheel diode (slow decay), or a diode plus a Zener (fast decay at a set voltage) */
+  clamp: clampSchema,
   /** LEDs in the string */
   ledCount: z.number().int("LED count must be a whole number").min(1, "At least one LED").max(100, "At most 100 LEDs"),
   /** one LED: saturation current, A, and emission coefficient */
@@ -164,6 +198,28 @@ export const loadSchema = z.object({
   stepResistance: positive("Load-step resistor"),
 });
 export type LoadParams = z.infer<typeof loadSchema>;
+
+/** A series R–C snubber. */
+export const snubberSchema = z.object({
+  /** Ω */
+  resistance: positive("Snubber resistance"),
+  /** F */
+  capacitance: positive("Snubber capacitance"),
+});
+export type Snubber = z.infer<typeof snubberSchema>;
+
+/** Optional networks the engineer adds to a template's circuit; null = not fitted (the default). */
+export const networksSchema = z.object({
+  /** series R–C across the load's terminals at the far end of the cable */
+  loadSnubber: snubberSchema.nullable(),
+  /** series R–C across the pass device's collector–emitter (drain–source) */
+  passSnubber: snubberSchema.nullable(),
+  /** resistor from the pass device's base to emitter (gate to source), Ω */
+  baseEmitterResistor: optionalPositive("Base–emitter resistor"),
+  /** capacitor across the feedback resistor (sense node to inverting input), F */
+  feedbackCapacitor: optionalPositive("Feedback-resistor capacitor"),
+});
+export type Networks = z.infer<typeof networksSchema>;
 
 export const suppliesSchema = z.object({
   /** load supply, V (for a cell under test, a supply in series with the cell; usually 0) */
@@ -256,6 +312,8 @@ export const studiesSchema = z.object({
     maxOvershootPct: z.number().min(0).max(100),
     series: z.enum(["E6", "E12", "E24", "E48", "E96", "E192"]),
     tuneBaseResistor: z.boolean(),
+    /** also search the load snubber (E-series R–C across the load), the cheapest set that meets the targets */
+    tuneLoadSnubber: z.boolean(),
   }),
 });
 
@@ -266,6 +324,7 @@ export const scenarioSchema = z.object({
   opamp: opampSchema,
   pass: passSchema,
   load: loadSchema,
+  networks: networksSchema,
   supplies: suppliesSchema,
   stimulus: stimulusSchema,
   thermal: thermalSchema,
@@ -288,6 +347,12 @@ export const scenarioSchema = z.object({
   }
   if (s.stimulus.stepTime >= s.stimulus.stopTime) {
     ctx.addIssue({ code: "custom", path: ["stimulus", "stepTime"], message: "The step must happen before the stop time" });
+  }
+  if (s.template === "howland" && (s.networks.passSnubber || s.networks.baseEmitterResistor !== null || s.networks.feedbackCapacitor !== null)) {
+    ctx.addIssue({ code: "custom", path: ["networks"], message: "The Howland pump has no pass device or feedback resistor: only the load snubber applies" });
+  }
+  if (s.opamp.supplyMin !== null && s.opamp.supplyMax !== null && s.opamp.supplyMin > s.opamp.supplyMax) {
+    ctx.addIssue({ code: "custom", path: ["opamp", "supplyMin"], message: "Lowest supply is above the highest" });
   }
   if (s.pass.betaMin > s.pass.betaF) {
     ctx.addIssue({ code: "custom", path: ["pass", "betaMin"], message: "Minimum beta is above the typical beta" });

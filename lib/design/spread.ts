@@ -10,6 +10,9 @@ export interface SpreadDraw {
   dividerTop: number; dividerBottom: number; feedbackResistor: number; senseResistor: number; compCapacitor: number;
   howlandR1: number; howlandR2: number; howlandR3: number; howlandR4: number;
   vos: number; ib: number; betaF: number;
+  /** the networks' parts (drawn every run, applied when the network is fitted; after the rest, so earlier draws keep their values) */
+  loadSnubberR: number; loadSnubberC: number; passSnubberR: number; passSnubberC: number;
+  baseEmitterResistor: number; feedbackCapacitor: number;
 }
 
 /** The scenario of run `index`: parts within tolerance, offset within ±Vos,max, bias in [0, Ib,max], β in [βmin, βF]. */
@@ -30,6 +33,12 @@ export function spreadScenario(s: Scenario, seed: number, index: number): { scen
     vos: deviation(rng, 1, d) * s.opamp.vosMax,
     ib: rng() * s.opamp.ibMax,
     betaF: s.pass.betaMin + rng() * Math.max(0, s.pass.betaF - s.pass.betaMin),
+    loadSnubberR: deviation(rng, t.resistor, d),
+    loadSnubberC: deviation(rng, t.capacitor, d),
+    passSnubberR: deviation(rng, t.resistor, d),
+    passSnubberC: deviation(rng, t.capacitor, d),
+    baseEmitterResistor: deviation(rng, t.resistor, d),
+    feedbackCapacitor: deviation(rng, t.capacitor, d),
   };
   const c = structuredClone(s);
   const p = c.parts;
@@ -45,6 +54,17 @@ export function spreadScenario(s: Scenario, seed: number, index: number): { scen
   c.opamp.Vos = draw.vos;
   c.opamp.Ib = draw.ib;
   c.pass.betaF = draw.betaF;
+  const n = c.networks;
+  if (n.loadSnubber) {
+    n.loadSnubber.resistance *= 1 + draw.loadSnubberR;
+    n.loadSnubber.capacitance *= 1 + draw.loadSnubberC;
+  }
+  if (n.passSnubber) {
+    n.passSnubber.resistance *= 1 + draw.passSnubberR;
+    n.passSnubber.capacitance *= 1 + draw.passSnubberC;
+  }
+  if (n.baseEmitterResistor !== null) n.baseEmitterResistor *= 1 + draw.baseEmitterResistor;
+  if (n.feedbackCapacitor !== null) n.feedbackCapacitor *= 1 + draw.feedbackCapacitor;
   return { scenario: c, draw };
 }
 

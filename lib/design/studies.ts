@@ -15,6 +15,7 @@ export type { SweepableParameter } from "./parameters";
 export type { StudyOptions, IndexRange } from "./study-common";
 export * from "./spread";
 export * from "./compensate";
+export * from "./compensate-snubber";
 
 export interface SweepPoint {
   index: number;

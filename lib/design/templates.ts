@@ -121,7 +121,7 @@ function referenceSink(): Scenario {
       resistanceMin: 20,
       resistanceMax: 26,
       inductance: 5e-3,
-      clampDiode: true,
+      clamp: { kind: "diode", zenerVoltage: 24 },
       ledCount: 1,
       ledIs: 5e-20,
       ledN: 2.5,
@@ -134,6 +134,7 @@ function referenceSink(): Scenario {
       cable: { length: 2, rPerM: 0.0175, lPerM: 0.5e-6, cPerM: 100e-12, sections: 2 },
       stepResistance: 24,
     },
+    networks: { loadSnubber: null, passSnubber: null, baseEmitterResistor: null, feedbackCapacitor: null },
     supplies: { load: 30, opampPositive: 15, opampNegative: 0 },
     stimulus: {
       kind: "command-step",
@@ -166,7 +167,7 @@ function referenceSink(): Scenario {
         metric: "overshootPct",
       },
       spread: { runs: 200, seed: 1, },
-      compensate: { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false },
+      compensate: { targetPhaseMarginDeg: 60, maxOvershootPct: 5, series: "E12", tuneBaseResistor: false, tuneLoadSnubber: false },
     },
   };
 }
@@ -191,7 +192,7 @@ export function defaultScenario(templateId: TemplateId): Scenario {
       s.pass = passPreset("Medium power PNP 60 V");
       s.opamp = opampPreset("Precision 3 MHz rail-to-rail");
       s.supplies = { load: 24, opampPositive: 24, opampNegative: 0 };
-      s.load = { ...s.load, kind: "resistor", resistance: 10, resistanceMin: 5, resistanceMax: 10, inductance: 0, clampDiode: false };
+      s.load = { ...s.load, kind: "resistor", resistance: 10, resistanceMin: 5, resistanceMax: 10, inductance: 0, clamp: { kind: "none", zenerVoltage: 24 } };
       // k = 1k/(49.9k + 1k); 5 V → 98 mV across 0.2 Ω → 0.49 A.
       s.parts.dividerTop = 49.9e3;
       s.parts.dividerBottom = 1e3;
@@ -211,7 +212,7 @@ export function defaultScenario(templateId: TemplateId): Scenario {
         resistanceMin: 0,
         resistanceMax: 500,
         inductance: 0,
-        clampDiode: false,
+        clamp: { kind: "none", zenerVoltage: 24 },
         cable: { ...s.load.cable, length: 0 },
         stepResistance: 100,
       };

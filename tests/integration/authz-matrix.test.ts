@@ -28,6 +28,10 @@ import * as scenarioTraces from "@/app/api/scenarios/[id]/traces/route";
 import * as traceRoute from "@/app/api/traces/[id]/route";
 import * as library from "@/app/api/library/route";
 import * as libraryEntry from "@/app/api/library/[id]/route";
+import * as partsRoute from "@/app/api/parts/route";
+import * as partRoute from "@/app/api/parts/[id]/route";
+import { createPart } from "@/lib/parts/workflow";
+import { opampPreset } from "@/lib/design/presets";
 import { saveScenarioRevision, forkScenario, setScenarioDeleted, commentOnScenario } from "@/app/scenarios/[id]/actions";
 import { startFromEntryAction, setTolerancesAction } from "@/app/library/actions";
 import { changeEntryStatus, submitForValidation } from "@/lib/library/workflow";
@@ -50,6 +54,15 @@ afterAll(closeDb);
 /** A fresh scenario owned by the designer, for the cases that change or delete one. */
 async function freshScenario(): Promise<string> {
   return (await createScenario(f.designer, { title: "Matrix target", template: "sink-npn" })).id;
+}
+
+/** A team op-amp of our own (values of the built-in general preset), made by the designer. */
+function opampPartInput(name: string) {
+  const { preset: _p, part: _r, ...values } = opampPreset("General 1 MHz single-supply");
+  return { kind: "opamp" as const, name, values };
+}
+async function freshPart(): Promise<string> {
+  return (await createPart(f.designer, opampPartInput(`Matrix amp ${Date.now()} ${Math.random()}`))).id;
 }
 
 async function newMember(): Promise<string> {
@@ -164,6 +177,41 @@ const cases: Case[] = [
     call: async (a) => {
       const { invitation } = await createInvitation(f.lead, `gone.${Date.now()}@fixture.test`, "viewer");
       return invitations.DELETE(await request("DELETE", `/api/team/invitations?id=${invitation.id}`, a), ctx({}));
+    },
+  },
+  // The team's parts: every member reads; designers and leads create, version and retire; another team's part is 404.
+  {
+    name: "GET /api/parts",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 200 },
+    call: async (a) => partsRoute.GET(await request("GET", "/api/parts?kind=opamp", a), ctx({})),
+  },
+  {
+    name: "POST /api/parts",
+    expect: { anonymous: 401, viewer: 403, designer: 201, lead: 201, outsider: 201 },
+    call: async (a) => partsRoute.POST(await request("POST", "/api/parts", a, opampPartInput(`Matrix new ${Date.now()} ${Math.random()}`)), ctx({})),
+  },
+  {
+    name: "GET /api/parts/[id]",
+    expect: { anonymous: 401, viewer: 200, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await freshPart();
+      return partRoute.GET(await request("GET", `/api/parts/${id}`, a), ctx({ id }));
+    },
+  },
+  {
+    name: "PATCH /api/parts/[id] (new version)",
+    expect: { anonymous: 401, viewer: 403, designer: 200, lead: 200, outsider: 404 },
+    call: async (a) => {
+      const id = await freshPart();
+      return partRoute.PATCH(await request("PATCH", `/api/parts/${id}`, a, { values: { ...opampPartInput("x").values, GBW: 2e6 }, note: "faster" }), ctx({ id }));
+    },
+  },
+  {
+    name: "DELETE /api/parts/[id] (retire)",
+    expect: { anonymous: 401, viewer: 403, designer: 204, lead: 204, outsider: 404 },
+    call: async (a) => {
+      const id = await freshPart();
+      return partRoute.DELETE(await request("DELETE", `/api/parts/${id}`, a), ctx({ id }));
     },
   },
 ];

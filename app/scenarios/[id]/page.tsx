@@ -3,6 +3,7 @@ import { getScenarioWithRevision } from "@/lib/db/scenarios";
 import { currentUser, requirePageUser, roleAtLeast } from "@/lib/auth/current";
 import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { publicBaseUrl } from "@/lib/shared/tokens";
+import { livePartOptions } from "@/lib/db/parts";
 import { Workbench } from "@/components/workbench/Workbench";
 import { forkScenario, saveScenarioRevision } from "./actions";
 
@@ -41,6 +42,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
       save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
       fork={roleAtLeast(user.role, "designer") ? forkScenario : null}
       share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id, publicUrl: publicBaseUrl() } : null}
+      teamParts={await livePartOptions(user)}
     />
   );
 }

@@ -115,7 +115,7 @@ describe("checks table", () => {
   it("cautions: above 60 V, coil without clamp, laser, lithium cell, bare package — each deferring to local codes", () => {
     const s = defaultScenario("sink-npn");
     s.supplies.load = 72;
-    s.load.clampDiode = false;
+    s.load.clamp = { kind: "none", zenerVoltage: 24 };
     s.load.laserEmitter = true;
     s.thermal.thetaSA = 20;
     const ids = runChecks(s).cautions.map((c) => c.id);

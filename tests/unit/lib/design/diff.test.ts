@@ -25,6 +25,21 @@ describe("scenario body diff", () => {
     ]);
   });
 
+  it("a network switched on lists its values against none (not a removed null beside added values)", () => {
+    const a = { networks: { loadSnubber: null, feedbackCapacitor: null }, load: { clamp: { kind: "diode", zenerVoltage: 24 } } };
+    const b = { networks: { loadSnubber: { resistance: 47, capacitance: 1e-6 }, feedbackCapacitor: null }, load: { clamp: { kind: "diode-zener", zenerVoltage: 24 } } };
+    expect(diffBodies(a, b)).toEqual([
+      { path: "networks.loadSnubber.capacitance", before: null, after: 1e-6, kind: "added" },
+      { path: "networks.loadSnubber.resistance", before: null, after: 47, kind: "added" },
+      { path: "load.clamp.kind", before: "diode", after: "diode-zener", kind: "changed" },
+    ]);
+    expect(diffBodies(b, a)).toEqual([
+      { path: "networks.loadSnubber.capacitance", before: 1e-6, after: null, kind: "removed" },
+      { path: "networks.loadSnubber.resistance", before: 47, after: null, kind: "removed" },
+      { path: "load.clamp.kind", before: "diode-zener", after: "diode", kind: "changed" },
+    ]);
+  });
+
   it("finds nothing between equal bodies", () => {
     const s = { parts: { a: 1 }, x: [1, 2] };
     expect(diffBodies(s, structuredClone(s))).toEqual([]);
