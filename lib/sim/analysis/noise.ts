@@ -3,7 +3,7 @@
  * solution z of Aᵀ·z = e gives the transfer from every right-hand-side position at once (x_out = zᵀ·b), so one
  * factorisation and one transposed solve per frequency give every noise source's contribution — the cost of an AC
  * run, not of one AC run per source (Rohrer, Nagel, Meyer & Weber, "Computationally efficient electronic-circuit
- * noise calculations", IEEE JSSC SC-6(4), 1971; Vlach & Singhal 1994, ch. on noise; docs/references.md §11).
+ * noise calculations", IEEE JSSC SC-6(4), 1971; Vlach & Singhal 1994, ch. on noise; docs/references.md §8).
  *
  * Sources come from the elements (Element.noise): uncorrelated current sources with one-sided densities
  * white·(1 + corner/f). The output density is √(Σ |H_i|²·S_i); each element's contribution is the root of the sum
