@@ -78,6 +78,12 @@ export const opampSchema = z.object({
   cmLowFromVee: finite("Common-mode range, low end"),
   /** input common-mode range: highest input relative to the positive rail, V (positive = below the rail) */
   cmHighFromVcc: finite("Common-mode range, high end"),
+  /** noise (optional; lib/design/noise.ts fills the generic values): white input voltage noise, V/√Hz, and its 1/f corner, Hz */
+  noiseVoltage: nonNegative("Voltage noise").optional(),
+  noiseVoltageCorner: nonNegative("Voltage-noise corner").optional(),
+  /** white input current noise at each input, A/√Hz, and its 1/f corner, Hz */
+  noiseCurrent: nonNegative("Current noise").optional(),
+  noiseCurrentCorner: nonNegative("Current-noise corner").optional(),
 });
 export type OpampParams = z.infer<typeof opampSchema>;
 
@@ -226,6 +232,8 @@ export const tolerancesSchema = z.object({
   accuracyTarget: positive("Accuracy target").max(1, "Accuracy target above 100 %"),
   /** Monte Carlo distribution: uniform within ± tolerance, or normal with the tolerance at 3σ */
   distribution: z.enum(["uniform", "normal"], { error: "Distribution must be uniform or normal" }),
+  /** load-current noise the design must stay under, A RMS over the noise band (studies.noise); absent = no target */
+  noiseTarget: positive("Noise target").optional(),
 });
 export type Tolerances = z.infer<typeof tolerancesSchema>;
 
@@ -257,6 +265,12 @@ export const studiesSchema = z.object({
     series: z.enum(["E6", "E12", "E24", "E48", "E96", "E192"]),
     tuneBaseResistor: z.boolean(),
   }),
+  /** the Noise study (optional; defaults in lib/design/noise.ts): lowest frequency and the integration band, Hz */
+  noise: z.object({
+    fMin: positive("Lowest noise frequency").optional(),
+    bandLow: positive("Noise band start").optional(),
+    bandHigh: positive("Noise band end").optional(),
+  }).optional(),
 });
 
 export const scenarioSchema = z.object({
