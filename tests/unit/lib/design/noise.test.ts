@@ -5,6 +5,7 @@ import { compileNetlist } from "@/lib/design/run";
 import { NAMES } from "@/lib/design/compile";
 import { bandPower, noiseCheck, noiseSettings, runNoiseStudy, type NoiseStudyResult } from "@/lib/design/noise";
 import type { Scenario } from "@/lib/design/schema";
+import { compensate, sweep1d } from "@/lib/design/studies";
 
 /**
  * The Noise study (lib/design/noise.ts). The sense resistor's thermal noise (Johnson 1928 / Nyquist 1928,
@@ -77,11 +78,26 @@ describe("Noise study on a sink (valve-coil demo, sink-npn)", () => {
     expect(noiseCheck(runNoiseStudy(withTarget))?.limit).toBe(1e-3);
   });
 
-  it("a larger sense resistor lowers the load-current noise (the op-amp's en divided by Rs dominates here)", () => {
+  it("a larger sense resistor with the divider scaled to keep the current lowers the load-current noise", () => {
     const s = valveCoilDemo();
     const a = runNoiseStudy(s).rms;
     const b = runNoiseStudy({ ...s, parts: { ...s.parts, senseResistor: 2 * s.parts.senseResistor, dividerBottom: 2 * s.parts.dividerBottom } }).rms;
     expect(b).toBeLessThan(a);
+  });
+
+  it("Sweep's noise column follows the sense resistor; Compensate treats a noise target as a constraint", () => {
+    const s = valveCoilDemo();
+    // each point's column is the Noise study's figure for the scenario with that value (invariant of the sweep)
+    const sw = sweep1d(s, { path: "parts.senseResistor", from: s.parts.senseResistor, to: 2 * s.parts.senseResistor, points: 2, scale: "linear", values: [] });
+    expect(sw.noiseRms[0]).toBe(runNoiseStudy(s).rms);
+    expect(sw.noiseRms[1]).toBe(runNoiseStudy({ ...s, parts: { ...s.parts, senseResistor: 2 * s.parts.senseResistor } }).rms);
+    expect(sw.noiseRms[1]).not.toBe(sw.noiseRms[0]);
+    const free = compensate(s, s.studies.compensate);
+    expect(free.chosen).not.toBeNull();
+    // a target no design can meet (1 pA RMS over 0.1 Hz–100 kHz): nothing is picked, and the message says why
+    const strict = compensate({ ...s, tolerances: { ...s.tolerances, noiseTarget: 1e-12 } }, s.studies.compensate);
+    expect(strict.chosen).toBeNull();
+    expect(strict.message).toMatch(/noise target/);
   });
 
   it("invalid bands name the field", () => {
