@@ -5,7 +5,7 @@ import { compileNetlist } from "@/lib/design/run";
 import { NAMES } from "@/lib/design/compile";
 import { bandPower, noiseCheck, noiseSettings, runNoiseStudy, type NoiseStudyResult } from "@/lib/design/noise";
 import type { Scenario } from "@/lib/design/schema";
-import { compensate, sweep1d } from "@/lib/design/studies";
+import { compensate, mergeSpread, spread, sweep1d } from "@/lib/design/studies";
 
 /**
  * The Noise study (lib/design/noise.ts). The sense resistor's thermal noise (Johnson 1928 / Nyquist 1928,
@@ -98,6 +98,18 @@ describe("Noise study on a sink (valve-coil demo, sink-npn)", () => {
     const strict = compensate({ ...s, tolerances: { ...s.tolerances, noiseTarget: 1e-12 } }, s.studies.compensate);
     expect(strict.chosen).toBeNull();
     expect(strict.message).toMatch(/noise target/);
+  });
+
+  it("Spread fills a noise column per run when a noise target is set (and only then); chunks merge", () => {
+    const s = valveCoilDemo();
+    expect(spread(s, { runs: 2, seed: 7 }).noiseRms).toBeUndefined();
+    const t: Scenario = { ...s, tolerances: { ...s.tolerances, noiseTarget: 1e-3 } };
+    const a = spread(t, { runs: 3, seed: 7 }, {}, { start: 0, end: 2 });
+    const b = spread(t, { runs: 3, seed: 7 }, {}, { start: 2, end: 3 });
+    const m = mergeSpread([a, b]);
+    expect(Array.from(m.noiseRms!).every((x) => x > 0)).toBe(true);
+    // runs draw different parts, so their noise differs
+    expect(new Set(Array.from(m.noiseRms!)).size).toBe(3);
   });
 
   it("invalid bands name the field", () => {
