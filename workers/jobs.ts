@@ -4,9 +4,23 @@
  */
 import { upgradeScenario } from "@/lib/design/upgrade";
 import type { LoopGainResult, LoopResult } from "@/lib/design/run";
-import { POLICIES, runScenario } from "@/lib/design/scenario-run";
+import { POLICIES, reviewPolicy, runScenario } from "@/lib/design/scenario-run";
+import type { NoiseStudyResult } from "@/lib/design/noise";
 import { toReviewSimulation, type ReviewSimulation } from "@/lib/design/review";
-import type { BodeView, LiveResult, LoopFigures, LoopView, StepView } from "./results";
+import type { BodeView, LiveResult, LoopFigures, LoopView, NoiseView, StepView } from "./results";
+
+/** How many contributors the Noise plot draws beside the total. */
+export const NOISE_TOP_CONTRIBUTORS = 4;
+
+/** The Noise study as the plot wants it: the total and the top contributors' densities, the band and its figure. */
+export function noiseView(r: NoiseStudyResult): NoiseView {
+  const top = r.ranked.slice(0, NOISE_TOP_CONTRIBUTORS);
+  return {
+    freq: r.freq, density: r.density, rms: r.rms, band: r.band, target: r.target,
+    ranked: r.ranked,
+    top: top.map((c) => ({ element: c.element, share: c.share, density: r.contributions[c.element]! })),
+  };
+}
 
 /** Wall-clock budget of each analysis in a live run, ms: a run never hangs the workbench. */
 export const LIVE_BUDGET_MS = 10_000;
@@ -51,6 +65,7 @@ export function liveRest(json: unknown, budgetMs = LIVE_BUDGET_MS, shouldStop?: 
     loop: loopView(r.loop!),
     closed: r.closed,
     zout: r.zout ? { freq: r.zout.freq, magDb: toDb(r.zout.magOhm), phaseDeg: r.zout.phaseDeg } : null,
+    noise: r.noise ? noiseView(r.noise) : null,
     op: r.op,
     checks: r.checks,
     cautions: r.cautions,
@@ -69,7 +84,7 @@ export function liveRun(json: unknown, budgetMs = LIVE_BUDGET_MS): LiveResult {
 /** What the review, the bench comparison and the library evidence show (review policy). */
 export function reviewRun(json: unknown, budgetMs = LIVE_BUDGET_MS): ReviewSimulation {
   const s = upgradeScenario(json);
-  return toReviewSimulation(s, runScenario(s, { ...POLICIES.review, budgetMs }));
+  return toReviewSimulation(s, runScenario(s, { ...reviewPolicy(s), budgetMs }));
 }
 
 /** Every distinct ArrayBuffer under `value` (typed arrays in objects and arrays), for comlink's transfer list. */

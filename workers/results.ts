@@ -49,6 +49,22 @@ export interface LoopView extends BodeView, LoopFigures {
   local: (BodeView & LoopFigures) | null;
 }
 
+/** The Noise study for the plot (lib/design/noise.ts): load-current noise density, A/√Hz, and its band's RMS. */
+export interface NoiseView {
+  freq: Float64Array;
+  /** total load-current noise density, A/√Hz */
+  density: Float64Array;
+  /** RMS over the band, A */
+  rms: number;
+  band: { low: number; high: number };
+  /** the scenario's target, A RMS (null = none) */
+  target: number | null;
+  /** every contributor by its share of the band's noise power, largest first */
+  ranked: { element: string; rms: number; share: number }[];
+  /** the top contributors' densities, A/√Hz */
+  top: { element: string; share: number; density: Float64Array }[];
+}
+
 export interface OperatingPointResult {
   nodes: Record<string, number>;
   currents: Record<string, number>;
@@ -62,6 +78,8 @@ export interface LiveResult {
   closed: (BodeView & { bandwidthHz: number | null; peakingDb: number; peakingHz: number | null }) | null;
   /** output impedance seen by the load, magnitude in dBΩ */
   zout: BodeView | null;
+  /** load-current noise (null when the noise run failed: see failures) */
+  noise: NoiseView | null;
   op: OperatingPointResult | null;
   checks: CheckRow[];
   cautions: Caution[];

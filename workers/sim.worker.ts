@@ -45,7 +45,7 @@ const api = {
   spread(scenario: Scenario, settings: { runs: number; seed: number }, start: number, end: number) {
     const r = spread(upgradeScenario(scenario), settings, { timeBudgetMs: STUDY_RUN_BUDGET_MS }, { start, end });
     // The summary is recomputed on the page from all chunks together.
-    return moved({ seed: r.seed, runs: r.runs, errorPctFs: r.errorPctFs, phaseMarginDeg: r.phaseMarginDeg, failures: r.failures });
+    return moved({ seed: r.seed, runs: r.runs, errorPctFs: r.errorPctFs, phaseMarginDeg: r.phaseMarginDeg, noiseRms: r.noiseRms, failures: r.failures });
   },
   /** Phase-margin scan of compensation candidates [start, end). */
   compensateScan(scenario: Scenario, settings: CompensateSettings, start: number, end: number) {

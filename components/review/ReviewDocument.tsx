@@ -148,6 +148,18 @@ export function ReviewDocument(p: ReviewProps) {
         ) : <p className="text-sm text-ink-muted">{sim.status === "running" ? "Computing…" : sim.status === "done" ? `Not available: ${sim.sim.loopError}` : "Not available."}</p>}
       </Section>
 
+      {sim.status === "done" && sim.sim.noise && (
+        <Section id="noise" title="Noise">
+          <p className="num text-sm" data-testid="review-noise-figure">
+            Load-current noise {formatEng(sim.sim.noise.band.low, "Hz")}–{formatEng(sim.sim.noise.band.high, "Hz")}: {formatEng(sim.sim.noise.rms, "A")} rms
+            {" "}(target {formatEng(sim.sim.noise.target, "A")}: {sim.sim.noise.rms > sim.sim.noise.target ? "fail" : sim.sim.noise.rms > 0.8 * sim.sim.noise.target ? "warn" : "pass"})
+          </p>
+          <p className="text-sm" data-testid="review-noise-contributors">
+            Largest contributors: {sim.sim.noise.top.map((c) => `${c.element} ${(c.share * 100).toFixed(0)} % (${formatEng(c.rms, "A")} rms)`).join(" · ")}
+          </p>
+        </Section>
+      )}
+
       <Section id="bench" title="Bench comparison">
         {entry && entry.evidence.comparisons.length > 0 && (
           <div className="mb-4 space-y-3">

@@ -190,23 +190,25 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
     if (chunks.length === 0) return null;
     const first = chunks[0]!;
     const n = first.values.length;
-    const pm = new Float64Array(n).fill(NaN), os = new Float64Array(n).fill(NaN), ts = new Float64Array(n).fill(NaN);
+    const pm = new Float64Array(n).fill(NaN), os = new Float64Array(n).fill(NaN), ts = new Float64Array(n).fill(NaN), nz = new Float64Array(n).fill(NaN);
     for (const c of chunks) {
       for (let i = 0; i < n; i++) {
         if (!Number.isNaN(c.phaseMarginDeg[i]!)) pm[i] = c.phaseMarginDeg[i]!;
         if (!Number.isNaN(c.overshootPct[i]!)) os[i] = c.overshootPct[i]!;
         if (!Number.isNaN(c.settlingTime1pct[i]!)) ts[i] = c.settlingTime1pct[i]!;
+        if (c.noiseRms && !Number.isNaN(c.noiseRms[i]!)) nz[i] = c.noiseRms[i]!;
       }
     }
     const points = chunks.flatMap((c) => c.points).sort((a, b) => a.index - b.index);
     const failures = chunks.flatMap((c) => c.failures);
-    return { path: first.path, values: first.values, pm, os, ts, points, failures, n };
+    return { path: first.path, values: first.values, pm, os, ts, nz, points, failures, n };
   }, [state.chunks]);
   const colour = (i: number) => OKABE_ITO[i % OKABE_ITO.length]!;
   const stepOverlays = useMemo<Overlay[]>(() => merged?.points.filter((p) => p.step).map((p) => ({ x: p.step!.time, y: p.step!.iLoad, stroke: colour(p.index), scale: "y", width: 1.5 })) ?? [], [merged]);
   const bodeOverlays = useMemo<Overlay[]>(() => merged?.points.filter((p) => p.loop).map((p) => ({ x: p.loop!.freq, y: p.loop!.magDb, stroke: colour(p.index), scale: "y", width: 1.5 })) ?? [], [merged]);
   const metricOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.pm, stroke: OKABE_ITO[0], scale: "y", width: 2 }] : [], [merged]);
   const osOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.os, stroke: OKABE_ITO[1], scale: "y", width: 2 }] : [], [merged]);
+  const noiseOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.nz, stroke: OKABE_ITO[2], scale: "y", width: 2 }] : [], [merged]);
   const xLog = (merged?.values[0] ?? 0) > 0;
   return (
     <div className="grid gap-3 lg:grid-cols-[320px_minmax(0,1fr)]">
@@ -237,6 +239,7 @@ function SweepTab({ runner }: { runner: StudyRunner | null }) {
               <OverlayChart title="Loop gain magnitude" overlays={bodeOverlays} xLog xUnit="Hz" yUnit="dB" scale="y" testId="sweep-bode" />
               <OverlayChart title={`Current-loop phase margin against ${info.label.toLowerCase()}`} overlays={metricOverlays} xLog={xLog} xUnit={info.unit} yUnit="°" scale="y" testId="sweep-pm" />
               <OverlayChart title={`Overshoot against ${info.label.toLowerCase()}`} overlays={osOverlays} xLog={xLog} xUnit={info.unit} yUnit="%" scale="y" testId="sweep-os" />
+              <OverlayChart title={`Load-current noise (RMS over the band) against ${info.label.toLowerCase()}`} overlays={noiseOverlays} xLog={xLog} xUnit={info.unit} yUnit="A" scale="y" testId="sweep-noise" />
             </div>
           </>
         ) : (
@@ -251,6 +254,7 @@ const METRICS: { id: MapMetric; label: string; unit: string }[] = [
   { id: "overshootPct", label: "Overshoot", unit: "%" },
   { id: "phaseMarginDeg", label: "Phase margin (current loop)", unit: "°" },
   { id: "settlingTime1pct", label: "Settling time (±1 %)", unit: "s" },
+  { id: "noiseRms", label: "Load-current noise (RMS over the noise band)", unit: "A" },
 ];
 
 function MapTab({ runner }: { runner: StudyRunner | null }) {

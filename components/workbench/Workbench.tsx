@@ -14,6 +14,7 @@ import { LoadSupplyPanel, NetworksPanel, OpampPanel, PartValues, PassPanel, Stim
 import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
+import { NoisePlot } from "@/components/plots/NoisePlot";
 import type { Marker } from "@/components/plots/UPlotChart";
 import type { LiveResult } from "@/lib/workbench/types";
 import { formatEng } from "@/lib/units/eng";
@@ -193,7 +194,7 @@ function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
   const current = useWb((s) => s.run.current);
   const previous = useWb((s) => s.run.previous);
   const scenario = useWb((s) => s.scenario);
-  const [tab, setTab] = useState<"closed" | "zout">("closed");
+  const [tab, setTab] = useState<"closed" | "zout" | "noise">("closed");
   const transconductance = useMemo(() => {
     try {
       const g = idealTransconductance(scenario);
@@ -221,7 +222,7 @@ function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
         second={current?.loop?.local !== undefined && current?.loop?.local !== null ? { label: "local op-amp loop", bode: current.loop.local } : null} />
       <div>
         <div role="tablist" aria-label="More responses" className="flex gap-1">
-          {([["closed", "Closed loop"], ["zout", "Output impedance"]] as const).map(([k, label]) => (
+          {([["closed", "Closed loop"], ["zout", "Output impedance"], ["noise", "Noise"]] as const).map(([k, label]) => (
             <button
               key={k}
               role="tab"
@@ -239,8 +240,10 @@ function ResponseZone({ scenarioId }: { scenarioId: string | null }) {
           {tab === "closed" ? (
             <BodePlot id="closed" title="Closed loop" bode={current?.closed ?? null} ghost={previous?.closed ?? null} magUnit="dB(A/V)" height={130}
               extraMarkers={closedMarkers(current?.closed ?? null)} />
-          ) : (
+          ) : tab === "zout" ? (
             <BodePlot id="zout" title="Output impedance" bode={current?.zout ?? null} ghost={previous?.zout ?? null} magUnit="dBΩ" height={130} />
+          ) : (
+            <NoisePlot noise={current?.noise ?? null} ghost={previous?.noise ?? null} height={130} />
           )}
         </div>
       </div>

@@ -1,5 +1,5 @@
 /**
- * `npm run --silent sim -- --scenario FILE.json --study op|loopgain|step|checks|closedloop|zout|dc|sweep|map|spread|compensate`
+ * `npm run --silent sim -- --scenario FILE.json --study op|loopgain|step|checks|closedloop|zout|dc|noise|sweep|map|spread|compensate`
  * runs a scenario study and prints its result as JSON on stdout (Float64Arrays as plain arrays).
  *
  * Exit codes: 0 done; 2 bad arguments or an invalid scenario (the message names the field); 3 the engine could not
@@ -13,8 +13,9 @@ import { runClosedLoop, runDcTransfer, runLoopGain, runOperatingPoint, runOutput
 import { ScenarioError } from "./schema";
 import { compensate, map2d, spread, sweep1d, worstCaseCorners } from "./studies";
 import { upgradeScenario } from "./upgrade";
+import { noiseCheck, runNoiseStudy } from "./noise";
 
-export const STUDIES = ["op", "loopgain", "step", "checks", "closedloop", "zout", "dc", "sweep", "map", "spread", "compensate"] as const;
+export const STUDIES = ["op", "loopgain", "step", "checks", "closedloop", "zout", "dc", "noise", "sweep", "map", "spread", "compensate"] as const;
 
 const USAGE = `usage: npm run --silent sim -- --scenario FILE.json --study ${STUDIES.join("|")} [--budget-ms N] [--runs N] [--seed N] [--pretty]`;
 
@@ -91,6 +92,11 @@ export async function main(argv: string[]): Promise<number> {
       case "closedloop": result = runClosedLoop(s, options); break;
       case "zout": result = runOutputImpedance(s, options); break;
       case "dc": result = runDcTransfer(s, options); break;
+      case "noise": {
+        const noise = runNoiseStudy(s, options);
+        result = { ...noise, check: noiseCheck(noise) };
+        break;
+      }
       case "sweep": result = sweep1d(s, s.studies.sweep, { shouldStop, timeBudgetMs: budget }); break;
       case "map": result = map2d(s, s.studies.map, { shouldStop, timeBudgetMs: budget }); break;
       case "spread": {

@@ -7,6 +7,7 @@ import { formatEng } from "../units/eng";
 import { eValuesBetween, nearestE, type ESeriesName } from "./eseries";
 import { withParameter } from "./parameters";
 import { runLoopGain, runStep } from "./run";
+import { runNoiseStudy } from "./noise";
 import type { Scenario } from "./schema";
 import { compensateLoadSnubber, type SnubberTuneResult } from "./compensate-snubber";
 import { checkStop, clampRange, engineOptions, type IndexRange, type StudyOptions } from "./study-common";
@@ -188,6 +189,21 @@ function withSnubberSearch(s: Scenario, settings: CompensateSettings, opts: Stud
  * that list finds the smallest value whose worst-corner overshoot meets the limit; it and the next `extra` values
  * above it are compared and the fastest worst-case settling wins. Each step run covers every load corner.
  */
+/**
+ * With a noise target (tolerances.noiseTarget) the load-current noise of a candidate, at the nominal load, must stay
+ * under it: a constraint on the pick. Without a target the noise is ignored (true).
+ */
+function quietEnough(s: Scenario, cand: CompensateCandidate, opts: StudyOptions): boolean {
+  const target = s.tolerances.noiseTarget;
+  if (target === undefined) return true;
+  try {
+    return runNoiseStudy(applyCandidate(s, cand), engineOptions(opts)).rms <= target;
+  } catch (e) {
+    if (!isSimError(e) || e.code === "cancelled") throw e;
+    return false;
+  }
+}
+
 export function compensatePick(s: Scenario, settings: CompensateSettings, rows: CompensateScanRow[], opts: StudyOptions = {}, extra = 2): CompensateResult {
   const corners = loadCorners(s);
   const passing = rows
@@ -219,6 +235,8 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
     const m = measure(k);
     return m !== null && m.os <= settings.maxOvershootPct;
   };
+  let tooNoisy = false;
+  const quiet = (k: number): boolean => quietEnough(s, passing[k], opts);
   let best: CompensateResult["chosen"] = null;
   if (passing.length > 0) {
     const hi = probeAndBisect(passing.length, meets);
@@ -227,6 +245,7 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
         const m = measure(k);
         if (!m || m.os > settings.maxOvershootPct) continue;
         if (!best || m.ts < best.worstSettlingTime1pct) {
+          if (!quiet(k)) { tooNoisy = true; continue; }
           const cand = passing[k];
           best = {
             compCapacitor: cand.compCapacitor,
@@ -248,7 +267,9 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
     ? describe(best, settings, rows.length)
     : passing.length === 0
       ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
-      : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+      : tooNoisy
+        ? `Values that reach ${settings.targetPhaseMarginDeg}° without overshooting more than ${settings.maxOvershootPct} % exceed the noise target.`
+        : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
   return { chosen: best, scanned: rows, stepped, ...withSnubberSearch(s, settings, opts, message) };
 }
 
@@ -305,6 +326,7 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
     return m !== null && m.os <= settings.maxOvershootPct;
   };
   let best: CompensateResult["chosen"] = null;
+  let noisy = false;
   // One search per base/gate resistor (candidates come grouped by resistor, ascending in capacitance).
   const groups = new Map<number, number[]>();
   cands.forEach((c, k) => groups.set(c.baseResistor, [...(groups.get(c.baseResistor) ?? []), k]));
@@ -317,6 +339,7 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
       if (!meets(k)) continue;
       const m = step(k)!;
       if (!best || m.ts < best.worstSettlingTime1pct) {
+        if (!quietEnough(s, cands[k], opts)) { noisy = true; continue; }
         const row = pmRow(k);
         best = {
           compCapacitor: row.compCapacitor,
@@ -343,6 +366,8 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
     ? describe(best, settings, rows.length)
     : !anyPm
       ? `No ${settings.series} value from 10 pF to 100 nF that was tried reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
-      : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+      : noisy
+        ? `Values that reach ${settings.targetPhaseMarginDeg}° without overshooting more than ${settings.maxOvershootPct} % exceed the noise target.`
+        : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
   return { chosen: best, scanned: rows, stepped: steppedRows, ...withSnubberSearch(s, settings, opts, message) };
 }

@@ -1,6 +1,7 @@
 /**
  * Generic op-amp and pass-device presets with names of our own. The figures are typical of their class, chosen by
- * us for design exploration; they describe no particular product.
+ * us for design exploration; they describe no particular product. Noise: white input voltage and current noise
+ * densities (V/√Hz, A/√Hz) and their 1/f corners (Hz), also typical of each class and our own.
  */
 import type { OpampParams, PassParams } from "./schema";
 
@@ -16,6 +17,7 @@ export const OPAMP_PRESETS: readonly OpampPreset[] = [
     swingHigh: 1.2, swingLow: 0.05, Iout: 0.025,
     vosMax: 3e-3, ibMax: 100e-9, vosDrift: 7e-6, cmLowFromVee: -0.3, cmHighFromVcc: 1.5,
     supplyMin: 3, supplyMax: 32, swingCurrent: 0.01,
+    noiseVoltage: 35e-9, noiseVoltageCorner: 200, noiseCurrent: 0.4e-12, noiseCurrentCorner: 300,
   },
   {
     preset: "Precision 3 MHz rail-to-rail",
@@ -23,6 +25,7 @@ export const OPAMP_PRESETS: readonly OpampPreset[] = [
     swingHigh: 0.05, swingLow: 0.05, Iout: 0.04,
     vosMax: 50e-6, ibMax: 1e-9, vosDrift: 0.5e-6, cmLowFromVee: -0.1, cmHighFromVcc: -0.1,
     supplyMin: 2.7, supplyMax: 36, swingCurrent: 0.01,
+    noiseVoltage: 9e-9, noiseVoltageCorner: 10, noiseCurrent: 0.2e-12, noiseCurrentCorner: 50,
   },
   {
     preset: "Fast 10 MHz dual-supply",
@@ -30,6 +33,7 @@ export const OPAMP_PRESETS: readonly OpampPreset[] = [
     swingHigh: 1.5, swingLow: 1.5, Iout: 0.03,
     vosMax: 1e-3, ibMax: 200e-9, vosDrift: 5e-6, cmLowFromVee: 2, cmHighFromVcc: 2,
     supplyMin: 10, supplyMax: 36, swingCurrent: 0.01,
+    noiseVoltage: 7e-9, noiseVoltageCorner: 1e3, noiseCurrent: 1.5e-12, noiseCurrentCorner: 2e3,
   },
 ];
 

@@ -9,6 +9,7 @@ import type { StepMetrics } from "./metrics";
 import type { LoopGainResult, SmallSignalStep } from "./run";
 import type { ScenarioRun } from "./scenario-run";
 import type { Scenario } from "./schema";
+import type { NoiseContributor } from "./noise";
 
 export interface SimulatedStep {
   /** s */
@@ -38,6 +39,8 @@ export interface ReviewSimulation {
   checks: CheckRow[];
   cautions: Caution[];
   budget: AccuracyBudget;
+  /** when the scenario sets a noise target: the load-current noise over the band and the top contributors */
+  noise: { rms: number; target: number; band: { low: number; high: number }; top: NoiseContributor[] } | null;
 }
 
 /** Shape a review-policy run (operating point and step required, so both are there). */
@@ -55,5 +58,8 @@ export function toReviewSimulation(s: Scenario, run: ScenarioRun): ReviewSimulat
     checks: run.checks,
     cautions: run.cautions,
     budget: run.budget,
+    noise: run.noise && run.noise.target !== null
+      ? { rms: run.noise.rms, target: run.noise.target, band: run.noise.band, top: run.noise.ranked.slice(0, 3) }
+      : null,
   };
 }

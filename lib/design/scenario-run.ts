@@ -11,8 +11,9 @@ import {
   type StepResult,
 } from "./run";
 import type { Scenario } from "./schema";
+import { noiseCheck, runNoiseStudy, type NoiseStudyResult } from "./noise";
 
-export type AnalysisName = "operatingPoint" | "step" | "loopGain" | "closedLoop" | "outputImpedance";
+export type AnalysisName = "operatingPoint" | "step" | "loopGain" | "closedLoop" | "outputImpedance" | "noise";
 
 /** Names the pages show in messages. */
 export const ANALYSIS_LABELS: Record<AnalysisName, string> = {
@@ -21,6 +22,7 @@ export const ANALYSIS_LABELS: Record<AnalysisName, string> = {
   loopGain: "Loop gain",
   closedLoop: "Closed loop",
   outputImpedance: "Output impedance",
+  noise: "Noise",
 };
 
 export interface RunPolicy {
@@ -42,6 +44,8 @@ export interface ScenarioRun {
   loop: LoopGainResult | null;
   closed: ReturnType<typeof runClosedLoop> | null;
   zout: ReturnType<typeof runOutputImpedance> | null;
+  /** the Noise study (load-current noise over the scenario's band), when asked for */
+  noise: NoiseStudyResult | null;
   checks: CheckRow[];
   cautions: Caution[];
   budget: AccuracyBudget | null;
@@ -66,7 +70,7 @@ function isCancel(e: unknown): boolean {
 
 export function runScenario(s: Scenario, policy: RunPolicy): ScenarioRun {
   const options: SimOptions = { timeBudgetMs: policy.budgetMs, shouldStop: policy.shouldStop };
-  const out: ScenarioRun = { op: null, step: null, loop: null, closed: null, zout: null, checks: [], cautions: [], budget: null, failures: [] };
+  const out: ScenarioRun = { op: null, step: null, loop: null, closed: null, zout: null, noise: null, checks: [], cautions: [], budget: null, failures: [] };
   for (const a of policy.analyses) {
     try {
       switch (a) {
@@ -79,6 +83,7 @@ export function runScenario(s: Scenario, policy: RunPolicy): ScenarioRun {
         case "loopGain": out.loop = runLoopGain(s, options); break;
         case "closedLoop": out.closed = runClosedLoop(s, options); break;
         case "outputImpedance": out.zout = runOutputImpedance(s, options); break;
+        case "noise": out.noise = runNoiseStudy(s, options); break;
       }
     } catch (e) {
       if (isCancel(e)) throw e;
@@ -89,6 +94,8 @@ export function runScenario(s: Scenario, policy: RunPolicy): ScenarioRun {
   if (policy.checks) {
     const r = runChecks(s, out.op ?? undefined);
     out.checks = r.checks;
+    const nc = out.noise ? noiseCheck(out.noise) : null;
+    if (nc) out.checks.push(nc);
     out.cautions = r.cautions;
     out.budget = r.budget;
   }
@@ -100,7 +107,13 @@ export const POLICIES = {
   /** the workbench's step half: the step must run */
   workbenchStep: { analyses: ["step"], required: ["step"], checks: false },
   /** the workbench's other half: the loop gain must run; the rest may fail alone */
-  workbenchRest: { analyses: ["loopGain", "operatingPoint", "closedLoop", "outputImpedance"], required: ["loopGain"], checks: true },
+  workbenchRest: { analyses: ["loopGain", "operatingPoint", "closedLoop", "outputImpedance", "noise"], required: ["loopGain"], checks: true },
   /** review, bench comparison and library evidence: the operating point and the step must run; the loop gain may fail */
   review: { analyses: ["operatingPoint", "step", "loopGain"], required: ["operatingPoint", "step"], checks: true },
 } as const satisfies Record<string, Omit<RunPolicy, "budgetMs" | "shouldStop">>;
+
+/** The review policy, with the Noise study added when the scenario sets a noise target (it may fail alone). */
+export function reviewPolicy(s: Scenario): Omit<RunPolicy, "budgetMs" | "shouldStop"> {
+  const p = POLICIES.review;
+  return s.tolerances.noiseTarget === undefined ? p : { ...p, analyses: [...p.analyses, "noise"] };
+}

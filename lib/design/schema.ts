@@ -96,6 +96,12 @@ export const opampSchema = z.object({
   supplyMax: optionalPositive("Highest supply"),
   /** the output current the swing figures hold at, A (null = not given) */
   swingCurrent: optionalPositive("Output current of the swing figures"),
+  /** noise (optional; lib/design/noise.ts fills the generic values): white input voltage noise, V/√Hz, and its 1/f corner, Hz */
+  noiseVoltage: nonNegative("Voltage noise").optional(),
+  noiseVoltageCorner: nonNegative("Voltage-noise corner").optional(),
+  /** white input current noise at each input, A/√Hz, and its 1/f corner, Hz */
+  noiseCurrent: nonNegative("Current noise").optional(),
+  noiseCurrentCorner: nonNegative("Current-noise corner").optional(),
 });
 export type OpampParams = z.infer<typeof opampSchema>;
 
@@ -282,6 +288,8 @@ export const tolerancesSchema = z.object({
   accuracyTarget: positive("Accuracy target").max(1, "Accuracy target above 100 %"),
   /** Monte Carlo distribution: uniform within ± tolerance, or normal with the tolerance at 3σ */
   distribution: z.enum(["uniform", "normal"], { error: "Distribution must be uniform or normal" }),
+  /** load-current noise the design must stay under, A RMS over the noise band (studies.noise); absent = no target */
+  noiseTarget: positive("Noise target").optional(),
 });
 export type Tolerances = z.infer<typeof tolerancesSchema>;
 
@@ -301,7 +309,7 @@ export const studiesSchema = z.object({
   map: z.object({
     x: axisSchema,
     y: axisSchema,
-    metric: z.enum(["phaseMarginDeg", "overshootPct", "settlingTime1pct"]),
+    metric: z.enum(["phaseMarginDeg", "overshootPct", "settlingTime1pct", "noiseRms"]),
   }),
   spread: z.object({
     runs: z.number().int().min(1, "At least one run").max(100000, "At most 100 000 runs"),
@@ -315,6 +323,12 @@ export const studiesSchema = z.object({
     /** also search the load snubber (E-series R–C across the load), the cheapest set that meets the targets */
     tuneLoadSnubber: z.boolean(),
   }),
+  /** the Noise study (optional; defaults in lib/design/noise.ts): lowest frequency and the integration band, Hz */
+  noise: z.object({
+    fMin: positive("Lowest noise frequency").optional(),
+    bandLow: positive("Noise band start").optional(),
+    bandHigh: positive("Noise band end").optional(),
+  }).optional(),
 });
 
 export const scenarioSchema = z.object({

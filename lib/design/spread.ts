@@ -1,6 +1,7 @@
 /** Spread: Monte Carlo over the part tolerances, and the worst-case corners. */
 import { fullScaleCurrent } from "./checks";
 import { runOperatingPoint, runOperatingPointAndLoopGain } from "./run";
+import { runNoiseStudy } from "./noise";
 import type { Scenario } from "./schema";
 import { deviation, histogram, rngForRun, summarize, type Summary } from "./stats";
 import { checkStop, clampRange, engineOptions, failure, nanArray, type IndexRange, type StudyOptions } from "./study-common";
@@ -74,6 +75,8 @@ export interface SpreadResult {
   /** per run (NaN outside the chunk or on failure): load-current error against the nominal ideal, % of full scale */
   errorPctFs: Float64Array;
   phaseMarginDeg: Float64Array;
+  /** per run, when the scenario sets a noise target: load-current noise over the noise band, A RMS (the Noise study) */
+  noiseRms?: Float64Array;
   failures: { index: number; message: string }[];
 }
 
@@ -84,6 +87,8 @@ export function spread(s: Scenario, settings: { runs: number; seed: number }, op
   const n = settings.runs;
   const r = clampRange(range, n);
   const out: SpreadResult = { seed: settings.seed, runs: n, errorPctFs: nanArray(n), phaseMarginDeg: nanArray(n), failures: [] };
+  const withNoise = s.tolerances.noiseTarget !== undefined;
+  if (withNoise) out.noiseRms = nanArray(n);
   const nominalIdeal = fullScaleCurrent(s) * (s.stimulus.commandHigh / s.stimulus.commandFullScale);
   const fs = fullScaleCurrent(s);
   for (let i = r.start; i < r.end; i++) {
@@ -94,6 +99,7 @@ export function spread(s: Scenario, settings: { runs: number; seed: number }, op
       const { summary, loop } = runOperatingPointAndLoopGain(scenario, engineOptions(opts), { pointsPerDecade: 10 });
       out.errorPctFs[i] = ((Math.abs(summary.iLoad) - Math.abs(nominalIdeal)) / fs) * 100;
       out.phaseMarginDeg[i] = loop.phaseMarginDeg ?? NaN;
+      if (out.noiseRms) out.noiseRms[i] = runNoiseStudy(scenario, engineOptions(opts)).rms;
     } catch (e) {
       failure(e, i, out.failures);
     }
@@ -168,6 +174,7 @@ export function mergeSpread(parts: SpreadResult[]): SpreadResult {
     for (let i = 0; i < n; i++) {
       if (!Number.isNaN(p.errorPctFs[i])) out.errorPctFs[i] = p.errorPctFs[i];
       if (!Number.isNaN(p.phaseMarginDeg[i])) out.phaseMarginDeg[i] = p.phaseMarginDeg[i];
+      if (p.noiseRms && !Number.isNaN(p.noiseRms[i])) (out.noiseRms ??= nanArray(n))[i] = p.noiseRms[i];
     }
     out.failures.push(...p.failures);
   }
@@ -186,6 +193,8 @@ export function summarizeSpread(s: Scenario, r: SpreadResult) {
     phaseMarginDeg: summarize(r.phaseMarginDeg),
     errorHistogram: histogram(r.errorPctFs, 30),
     pmHistogram: histogram(r.phaseMarginDeg, 30),
+    /** load-current noise over the band, A RMS (null without a noise target) */
+    noiseRms: r.noiseRms ? summarize(r.noiseRms) : null,
     worstError: we >= 0 ? { index: we, errorPctFs: r.errorPctFs[we], draw: spreadScenario(s, r.seed, we).draw } : null,
     worstPhaseMargin: wp >= 0 ? { index: wp, phaseMarginDeg: r.phaseMarginDeg[wp], draw: spreadScenario(s, r.seed, wp).draw } : null,
   };

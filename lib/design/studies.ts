@@ -7,6 +7,7 @@
  */
 import { withParameter, axisValues } from "./parameters";
 import { runLoopGain, runStep } from "./run";
+import { runNoiseStudy } from "./noise";
 import type { Scenario, SweepAxis } from "./schema";
 import { checkStop, clampRange, engineOptions, failure, nanArray, type IndexRange, type StudyOptions } from "./study-common";
 
@@ -35,6 +36,8 @@ export interface SweepResult {
   settlingTime1pct: Float64Array;
   riseTime: Float64Array;
   finalCurrent: Float64Array;
+  /** load-current noise over the scenario's noise band, A RMS (the Noise study) */
+  noiseRms: Float64Array;
   points: SweepPoint[];
   failures: { index: number; message: string }[];
 }
@@ -50,7 +53,7 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
     path: axis.path,
     values: Float64Array.from(values),
     phaseMarginDeg: nanArray(n), gainMarginDb: nanArray(n), crossoverHz: nanArray(n), overshootPct: nanArray(n),
-    settlingTime1pct: nanArray(n), riseTime: nanArray(n), finalCurrent: nanArray(n),
+    settlingTime1pct: nanArray(n), riseTime: nanArray(n), finalCurrent: nanArray(n), noiseRms: nanArray(n),
     points: [],
     failures: [],
   };
@@ -77,13 +80,18 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
     } catch (e) {
       failure(e, i, out.failures);
     }
+    try {
+      out.noiseRms[i] = runNoiseStudy(v, engineOptions(opts)).rms;
+    } catch (e) {
+      failure(e, i, out.failures);
+    }
     out.points.push(point);
     opts.onProgress?.(i - r.start + 1, r.end - r.start);
   }
   return out;
 }
 
-export type MapMetric = "phaseMarginDeg" | "overshootPct" | "settlingTime1pct";
+export type MapMetric = "phaseMarginDeg" | "overshootPct" | "settlingTime1pct" | "noiseRms";
 
 export interface MapResult {
   xPath: string;
@@ -96,8 +104,10 @@ export interface MapResult {
   failures: { index: number; message: string }[];
 }
 
-/** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step). */
+/** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step;
+ *  the load-current noise over the scenario's band from the Noise study). */
 export function evaluateMetric(s: Scenario, metric: MapMetric, opts: StudyOptions = {}): number {
+  if (metric === "noiseRms") return runNoiseStudy(s, engineOptions(opts)).rms;
   // 10 points per decade locate the crossover well enough for a map (the margin is interpolated).
   if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts), { pointsPerDecade: 10 }, false).phaseMarginDeg ?? NaN;
   const m = runStep(s, engineOptions(opts)).metrics;

@@ -12,6 +12,20 @@ import { StaticLU } from "./sparse";
 import { checkpoint } from "./checkpoint";
 import { SimError } from "./errors";
 
+/** Boltzmann constant, J/K (exact in the 2019 SI). */
+export const BOLTZMANN = 1.380649e-23;
+/** Elementary charge, C (exact in the 2019 SI). */
+export const ELEMENTARY_CHARGE = 1.602176634e-19;
+
+/**
+ * Where the noise analysis collects an element's noise sources (analysis/noise.ts). Each source is a current
+ * gain·n(t) entering unknown `into` and leaving unknown `from` (either may be c.n, ground), where n has the one-sided
+ * power spectral density white·(1 + corner/f) (units²/Hz; corner 0 = white). Sources are uncorrelated.
+ */
+export interface NoiseSink {
+  add(into: number, from: number, gain: number, white: number, corner: number): void;
+}
+
 export const MODE_DC = 0;
 export const MODE_TRAN = 1;
 
@@ -68,6 +82,12 @@ export abstract class Element {
   loadCap(_c: Circuit, _cap: Float64Array): void {}
   /** Cache small-signal values at the operating point in c.x before an AC sweep (used by acCurrent). */
   acPrepare(_c: Circuit): void {}
+  /** true: the element adds no noise sources (netlist field `noiseless`) */
+  noiseless = false;
+  /** Report the element's noise sources at the operating point (called after acPrepare; see NoiseSink). */
+  noise(_c: Circuit, _sink: NoiseSink): void {}
+  /** Index of the element's branch-current unknown (voltage sources, inductors), or -1. */
+  branchIndex(): number { return -1; }
   /** Add this element's AC excitation to the right-hand side. */
   loadAc(_c: Circuit, _br: Float64Array, _bi: Float64Array): void {}
   /** Element current at c.x (positive from nodes[0] through the element to nodes[1]). */
@@ -122,6 +142,8 @@ export class Circuit {
   readonly tol: SimTolerances;
   /** thermal voltage kT/q, V */
   readonly vt: number;
+  /** kT at the netlist's temperature, J */
+  readonly kT: number;
 
   mode = MODE_DC;
   time = 0;
@@ -181,7 +203,8 @@ export class Circuit {
     this.elements = elements;
     this.tol = tol;
     // 2019 SI exact constants: k = 1.380649e-23 J/K, q = 1.602176634e-19 C.
-    this.vt = (1.380649e-23 * (tempC + 273.15)) / 1.602176634e-19;
+    this.kT = BOLTZMANN * (tempC + 273.15);
+    this.vt = this.kT / ELEMENTARY_CHARGE;
     for (const el of elements) el.bind(this);
     this.lu = new StaticLU(this.n, this.stride, this.structure);
     this.lu.poll = () => checkpoint(this);

@@ -13,6 +13,8 @@ export const node = z.string().min(1, { error: "node names must be non-empty str
 export const two = z.tuple([node, node]);
 /** three terminals */
 export const three = z.tuple([node, node, node]);
+/** true: the element's noise sources are left out of a noise analysis (default false) */
+export const noiseless = z.boolean({ error: "must be true or false" }).default(false);
 /** a grading coefficient of a junction */
 export const grading = () => finite().min(0).max(0.95);
 

@@ -1,5 +1,5 @@
 /**
- * Quell's circuit engine: modified nodal analysis with operating point, DC sweep, AC and transient analyses;
+ * Quell's circuit engine: modified nodal analysis with operating point, DC sweep, AC, noise and transient analyses;
  * diode, Ebers–Moll BJT, square-law MOSFET and macro op-amp models. Pure TypeScript (runs in a Web Worker or Node).
  *
  *   const result = simulate(netlist, { timeBudgetMs: 5000, shouldStop, onProgress });
@@ -13,7 +13,7 @@
  * circuit.ts (unknowns, stamp positions, integration state) · compile.ts (netlist → circuit) · elements/ (stamps and
  * device models) · lu.ts (dense LU with partial pivoting, the benchmark's comparison; production code does not import
  * it) · sparse.ts (LU with a reused order and fill pattern, the hot path) · checkpoint.ts (budget and cancellation) ·
- * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts) · waves.ts · results.ts · cli.ts (Node only).
+ * analysis/ (newton.ts DC solve and continuation, dc.ts, ac.ts, tran.ts, noise.ts) · waves.ts · results.ts · cli.ts (Node only).
  */
 import { analysisSchema, type Analysis, type Netlist, type ParsedNetlist } from "./schema";
 import { parseNetlist } from "./netlist";
@@ -22,6 +22,7 @@ import type { Circuit } from "./circuit";
 import { runDcSweep, runOp } from "./analysis/dc";
 import { runAc, runAcMulti, type AcExcitation } from "./analysis/ac";
 import { runTran } from "./analysis/tran";
+import { runNoise } from "./analysis/noise";
 import { runLinearStep, type LinearStepResult } from "./analysis/linstep";
 import { SimError } from "./errors";
 import { rulesOf } from "./registry";
@@ -32,7 +33,9 @@ export type { Netlist, ParsedNetlist, NetlistElement, ParsedElement, Analysis, P
 export { parseNetlist, isGround } from "./netlist";
 export { SimError, isSimError, type SimErrorCode } from "./errors";
 export { resultToJSON } from "./results";
-export type { SimResult, OpResult, DcSweepResult, AcResult, TranResult, ComplexColumn, DeviceInfo } from "./results";
+export type { SimResult, OpResult, DcSweepResult, AcResult, TranResult, NoiseResult, ComplexColumn, DeviceInfo } from "./results";
+export type { NoiseOutput, NoiseSpec } from "./analysis/noise";
+export { integratePower } from "./analysis/noise";
 export type { AcExcitation } from "./analysis/ac";
 export type { LinearStepResult } from "./analysis/linstep";
 import type { AcResult, OpResult } from "./results";
@@ -89,6 +92,7 @@ function execute(c: Circuit, netlist: ParsedNetlist, analysis: ParsedNetlist["an
     case "dcsweep": return runDcSweep(c, analysis.source, analysis.from, analysis.to, analysis.points, options.onProgress);
     case "ac": return runAc(c, analysis.fStart, analysis.fStop, analysis.pointsPerDecade, options.onProgress);
     case "tran": return runTran(c, analysis, options.onProgress);
+    case "noise": return runNoise(c, analysis, options.onProgress);
   }
 }
 

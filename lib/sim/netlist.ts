@@ -91,7 +91,7 @@ function checkTopology(n: ParsedNetlist): void {
       throw new SimError("invalid", `Invalid netlist: field "analysis.source" names "${a.source}", which is not a vsource or isource in the netlist`);
     }
   }
-  if (a.kind === "ac" && a.fStop < a.fStart) {
+  if ((a.kind === "ac" || a.kind === "noise") && a.fStop < a.fStart) {
     throw new SimError("invalid", `Invalid netlist: field "analysis.fStop" (${a.fStop}) must be ≥ analysis.fStart (${a.fStart})`);
   }
   // Voltage-source / inductor loops (Kirchhoff's voltage law would over-determine the loop).

@@ -35,7 +35,24 @@ export interface TranResult {
   currents: Record<string, Float64Array>;
   stats: { accepted: number; rejected: number; newtonIterations: number };
 }
-export type SimResult = OpResult | DcSweepResult | AcResult | TranResult;
+export interface NoiseResult {
+  kind: "noise";
+  /** "V" for a node output (densities in V/√Hz), "A" for a vsource current (A/√Hz) */
+  outputUnit: "V" | "A";
+  /** Hz, log-spaced */
+  freq: Float64Array;
+  /** output noise density, V/√Hz or A/√Hz */
+  outputDensity: Float64Array;
+  /** output density divided by |transfer from the named input|, in the input's unit per √Hz; null without an input */
+  inputReferredDensity: Float64Array | null;
+  /** element name → its share of the output density (root of the sum of its sources' densities²), per frequency */
+  contributions: Record<string, Float64Array>;
+  /** element name → its RMS contribution over the band (the squares add up to integrated.rms²) */
+  contributionRms: Record<string, number>;
+  /** output RMS noise over [fStart, fStop] (the analysis' first and last frequency) */
+  integrated: { rms: number; fStart: number; fStop: number };
+}
+export type SimResult = OpResult | DcSweepResult | AcResult | TranResult | NoiseResult;
 
 const arr = (a: Float64Array) => Array.from(a);
 const cols = (r: Record<string, Float64Array>) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k, arr(v)]));
@@ -49,5 +66,10 @@ export function resultToJSON(r: SimResult): unknown {
     case "dcsweep": return { kind: r.kind, sweep: arr(r.sweep), nodes: cols(r.nodes), currents: cols(r.currents) };
     case "ac": return { kind: r.kind, freq: arr(r.freq), nodes: ccols(r.nodes), currents: ccols(r.currents) };
     case "tran": return { kind: r.kind, time: arr(r.time), nodes: cols(r.nodes), currents: cols(r.currents), stats: r.stats };
+    case "noise": return {
+      kind: r.kind, outputUnit: r.outputUnit, freq: arr(r.freq), outputDensity: arr(r.outputDensity),
+      inputReferredDensity: r.inputReferredDensity === null ? null : arr(r.inputReferredDensity),
+      contributions: cols(r.contributions), contributionRms: r.contributionRms, integrated: r.integrated,
+    };
   }
 }

@@ -20,6 +20,18 @@ export const analysisSchema = z.discriminatedUnion("kind", [
     pointsPerDecade: z.number().int({ error: "must be an integer" }).min(1, { error: "must be ≥ 1" }).max(10_000).default(20),
   }),
   z.object({
+    kind: z.literal("noise"),
+    /** where the noise is measured: a node's voltage (against ground, or `reference`), or a vsource's current */
+    output: z.union([
+      z.strictObject({ node: name, reference: name.optional() }),
+      z.strictObject({ current: name }),
+    ], { error: 'must be {"node": …} , {"node": …, "reference": …} or {"current": "<vsource>"}' }),
+    /** a vsource or isource the output noise is also referred to */
+    input: name.optional(),
+    fStart: positive(), fStop: positive(),
+    pointsPerDecade: z.number().int({ error: "must be an integer" }).min(1, { error: "must be ≥ 1" }).max(10_000).default(20),
+  }),
+  z.object({
     kind: z.literal("tran"), tStop: positive(),
     /** s: output resolution; when given (and maxStep is not), also the largest step. Default: none (tStop/50 bounds
      *  the step, and the first steps start from tStop/1000) */

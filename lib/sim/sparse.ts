@@ -278,4 +278,46 @@ export class StaticLU {
       xi[k] = (si * dr - sr * di) / den;
     }
   }
+
+  /**
+   * Transposed solve after factorComplex(): x receives the solution of Aᵀ·x = b (the plain transpose, not the
+   * conjugate), on the same factors. With P·A = L·U (P the row order), Aᵀ = Uᵀ·Lᵀ·P: forward substitution with Uᵀ,
+   * back substitution with Lᵀ (unit diagonal), then the row order undone. The adjoint of a network function
+   * (Director & Rohrer 1969; Vlach & Singhal 1994, ch. on sensitivity and noise): one solve gives the transfer from
+   * every right-hand-side position to one output. b is not modified.
+   */
+  solveComplexTransposed(re: Float64Array, im: Float64Array, br: Float64Array, bi: Float64Array, xr: Float64Array, xi: Float64Array): void {
+    const { n, base, rowOf, lStart, lRows, uStart, uCols } = this;
+    const y = this.y, yi = this.yi;
+    for (let k = 0; k < n; k++) { y[k] = br[k]; yi[k] = bi[k]; }
+    // Uᵀ·w = b: column k of Uᵀ is row k of U; w overwrites y
+    for (let k = 0; k < n; k++) {
+      const bk = base[k];
+      const dr = re[bk + k], di = im[bk + k];
+      const den = dr * dr + di * di;
+      const sr = y[k], si = yi[k];
+      const wr = (sr * dr + si * di) / den, wi = (si * dr - sr * di) / den;
+      y[k] = wr; yi[k] = wi;
+      if (wr === 0 && wi === 0) continue;
+      for (let q = uStart[k], qe = uStart[k + 1]; q < qe; q++) {
+        const j = uCols[q];
+        const ur = re[bk + j], ui = im[bk + j];
+        y[j] -= ur * wr - ui * wi;
+        yi[j] -= ur * wi + ui * wr;
+      }
+    }
+    // Lᵀ·v = w: row k of Lᵀ is column k of L (rows lRows of the pivot order); v overwrites y
+    for (let k = n - 1; k >= 0; k--) {
+      let sr = y[k], si = yi[k];
+      for (let p = lStart[k], pe = lStart[k + 1]; p < pe; p++) {
+        const i = lRows[p];
+        const pos = base[i] + k;
+        const lr = re[pos], li = im[pos];
+        sr -= lr * y[i] - li * yi[i];
+        si -= lr * yi[i] + li * y[i];
+      }
+      y[k] = sr; yi[k] = si;
+    }
+    for (let k = 0; k < n; k++) { xr[rowOf[k]] = y[k]; xi[rowOf[k]] = yi[k]; }
+  }
 }

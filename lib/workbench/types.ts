@@ -7,7 +7,7 @@ import type { LiveResult } from "@/workers/results";
 import type { CompensateResult, CompensateScanRow, MapResult, SpreadResult, SweepResult } from "@/lib/design/studies";
 import type { WorkbenchState, WorkbenchStore } from "./store";
 
-export type { BodeView, LiveResult, LoopFigures, LoopView, OperatingPointResult, SmallSignalStepView, StepView } from "@/workers/results";
+export type { BodeView, LiveResult, LoopFigures, LoopView, NoiseView, OperatingPointResult, SmallSignalStepView, StepView } from "@/workers/results";
 
 /** One chunk of a study, as the worker streams it back: the design layer's chunk results as they are. */
 export type SweepChunk = SweepResult;

@@ -1,6 +1,6 @@
 /**
  * Engine benchmark (`npm run bench -- engine`): the reference sink of our own (tests/unit/lib/sim/fixtures/sink.ts).
- * Cases: op, ac (10 Hz–10 MHz, 50 points/decade), tran (2 ms; command step at 0.2 ms, load step at 1 ms) and lu
+ * Cases: op, ac (10 Hz–10 MHz, 50 points/decade), noise (the load current's noise over the same 301 points), tran (2 ms; command step at 0.2 ms, load step at 1 ms) and lu
  * (one bare LU factor + solve of the same matrix). The tran line carries iteration_vs_lu (time per Newton iteration ÷
  * the bare LU) and heap growth over a long run of Newton iterations. One JSON line per case; ≥ 10 runs after warm-up;
  * cpu_ms is the process CPU time per run (mean over the timed runs).
@@ -80,6 +80,21 @@ export async function run(): Promise<void> {
 
   const acT = time(() => simulate(referenceSink(acA)), RUNS);
   console.log(JSON.stringify({ case: "ac", median_ms: r3(median(acT)), min_ms: r3(Math.min(...acT)), cpu_ms: r3(lastCpuMs), runs: RUNS, points: 301, target_ms: 5, load_avg: load() }));
+
+  // noise: the load current's noise (the load supply's current) referred to the command, 301 points as the ac case;
+  // the op-amp carries noise figures of our own so that every kind of source takes part
+  const noiseA: Analysis = { kind: "noise", output: { current: "load-supply" }, input: "command", fStart: 10, fStop: 1e7, pointsPerDecade: 50 };
+  const noisy = (): Netlist => {
+    const n = referenceSink(noiseA);
+    for (const e of n.elements) if (e.kind === "opamp") e.model = { ...e.model, noiseVoltage: 20e-9, noiseVoltageCorner: 100, noiseCurrent: 0.5e-12, noiseCurrentCorner: 200 };
+    return n;
+  };
+  let noisePoints = 0, noiseSources = 0;
+  const nzT = time(() => {
+    const r = simulate(noisy());
+    if (r.kind === "noise") { noisePoints = r.freq.length; noiseSources = Object.keys(r.contributions).length; }
+  }, RUNS);
+  console.log(JSON.stringify({ case: "noise", median_ms: r3(median(nzT)), min_ms: r3(Math.min(...nzT)), cpu_ms: r3(lastCpuMs), runs: RUNS, points: noisePoints, contributing_elements: noiseSources, target_ms: 10, load_avg: load() }));
 
   let stats = { accepted: 0, rejected: 0, newtonIterations: 0 };
   const trT = time(() => {

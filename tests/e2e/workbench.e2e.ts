@@ -147,6 +147,26 @@ describe("workbench", () => {
     await expect.poll(() => field.inputValue()).toBe(before);
   });
 
+  it("the Noise tab shows the band's integrated load-current noise, and it moves when the sense resistor changes", async () => {
+    await page.getByTestId("tab-noise").click();
+    const figure = page.getByTestId("noise-integrated");
+    await figure.waitFor({ timeout: 30_000 });
+    const before = await figure.textContent();
+    expect(before).toMatch(/A rms$/);
+    expect(Number(await figure.getAttribute("data-value"))).toBeGreaterThan(0);
+    expect(await page.getByTestId("noise-contributors").locator("li").count()).toBeGreaterThan(1);
+    const field = page.locator("#field-parts-senseResistor");
+    const old = await field.inputValue();
+    await field.fill(old === "2" ? "3" : "2");
+    await field.press("Enter");
+    await expect.poll(async () => figure.textContent(), { timeout: 30_000 }).not.toBe(before);
+    // back to the demo's value, so the tests after this one see the demo's circuit
+    await field.fill(old);
+    await field.press("Enter");
+    await expect.poll(async () => figure.textContent(), { timeout: 30_000 }).toBe(before);
+    await page.getByTestId("tab-closed").click();
+  });
+
   it("runs a 1D sweep and draws one curve per value", async () => {
     await page.getByTestId("studies-toggle").click();
     await page.getByTestId("studies-tab-sweep").click();

@@ -6,10 +6,10 @@
  * Charges: depletion Cj0/(1−V/Vj)^m linearised past Fc·Vj, diffusion τF·IF and τR·IR (Cdiff = τ·g), §1.4.
  * Optional series rb, rc, re through internal nodes; gmin across each junction; junction limiting (§1.5).
  */
-import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
+import { Builder, Circuit, ELEMENTARY_CHARGE, Element, type DeviceInfo, MODE_TRAN, type NoiseSink, stampG } from "../circuit";
 import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
 import { z } from "zod";
-import { grading, name, nonNegative, positive, three } from "../fields";
+import { grading, name, noiseless, nonNegative, positive, three } from "../fields";
 import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
@@ -219,6 +219,22 @@ export class Bjt extends Element {
     this.charges(c, q4); // also evaluates the small-signal conductances at the OP
     this.acGm = this.gmBE; this.acGc = this.gcBC; this.acCbc = q4[3];
   }
+  /**
+   * Shot noise 2q·|IC| from collector to emitter and 2q·|IB| from base to emitter of the intrinsic transistor
+   * (Schottky 1918; the hybrid-π noise model of Gray, Hurst, Lewis & Meyer, ch. 11), thermal noise of rb, rc, re.
+   */
+  override noise(c: Circuit, sink: NoiseSink): void {
+    const vbe = this.p * (c.x[this.bi] - c.x[this.ei]);
+    const vbc = this.p * (c.x[this.bi] - c.x[this.ci]);
+    this.evaluate(vbe, vbc, c.vt, 0);
+    const q2 = 2 * ELEMENTARY_CHARGE;
+    sink.add(this.ci, this.ei, 1, q2 * Math.abs(this.IC), 0);
+    sink.add(this.bi, this.ei, 1, q2 * Math.abs(this.IB), 0);
+    const m = this.model, kT4 = 4 * c.kT;
+    if (m.rb > 0) sink.add(this.b, this.bi, 1, kT4 / m.rb, 0);
+    if (m.rc > 0) sink.add(this.c, this.ci, 1, kT4 / m.rc, 0);
+    if (m.re > 0) sink.add(this.e, this.ei, 1, kT4 / m.re, 0);
+  }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
     const vbeR = xr[this.bi] - xr[this.ei], vbeI = xi[this.bi] - xi[this.ei];
     const vbcR = xr[this.bi] - xr[this.ci], vbcI = xi[this.bi] - xi[this.ci];
@@ -242,7 +258,7 @@ export class Bjt extends Element {
 }
 
 export const bjtKind = defineKind("bjt", z.object({
-  kind: z.literal("bjt"), name, nodes: three,
+  kind: z.literal("bjt"), name, nodes: three, noiseless,
   polarity: z.enum(["npn", "pnp"]).default("npn"),
   model: z.strictObject({
     Is: positive().default(1e-14), betaF: positive().default(100), betaR: positive().default(1),

@@ -2,10 +2,10 @@
  * Junction diode: Shockley equation I = Is·(e^{V/(n·Vt)} − 1) (W. Shockley, Bell Syst. Tech. J. 28, 1949), optional
  * reverse breakdown at BV (exponential knee), depletion + diffusion (tau·I) charge, series Rs, gmin across the junction.
  */
-import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
+import { Builder, Circuit, ELEMENTARY_CHARGE, Element, type DeviceInfo, MODE_TRAN, type NoiseSink, stampG } from "../circuit";
 import { criticalVoltage, depletion, expLim, expLimSlope, junctionCeiling, pnjlim } from "./junction";
 import { z } from "zod";
-import { grading, name, nonNegative, positive, two } from "../fields";
+import { grading, name, noiseless, nonNegative, positive, two } from "../fields";
 import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
@@ -120,6 +120,13 @@ export class Diode extends Element {
     depletion(vd, this.model.Cj0, this.model.Vj, this.model.m, scratch);
     this.acC = scratch[1] + (this.model.tau * this.model.Is * expLimSlope(vd / this.nvt)) / this.nvt;
   }
+  /** shot noise 2q·|I| across the junction (Schottky 1918; gmin's current left out), thermal noise 4kT/Rs */
+  override noise(c: Circuit, sink: NoiseSink): void {
+    const vd = c.x[this.ai] - c.x[this.k];
+    const i = this.iv(vd, 0);
+    sink.add(this.ai, this.k, 1, 2 * ELEMENTARY_CHARGE * Math.abs(i), 0);
+    if (this.model.Rs > 0) sink.add(this.a, this.ai, 1, (4 * c.kT) / this.model.Rs, 0);
+  }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
     const g = this.acG, C = this.acC;
     const vr = xr[this.ai] - xr[this.k];
@@ -135,7 +142,7 @@ export class Diode extends Element {
 }
 
 export const diodeKind = defineKind("diode", z.object({
-  kind: z.literal("diode"), name, nodes: two,
+  kind: z.literal("diode"), name, nodes: two, noiseless,
   model: z.strictObject({
     Is: positive().default(1e-14), n: positive().default(1), Rs: nonNegative().default(0),
     Cj0: nonNegative().default(0), Vj: positive().default(0.7), m: grading().default(0.5),

@@ -1,6 +1,6 @@
 /** Netlist schemas and topology rules of the linear kinds (kind.ts), beside their elements in linear.ts. */
 import { z } from "zod";
-import { finite, name, nonNegative, positive, two, waveSchema, type Wave } from "../fields";
+import { finite, name, noiseless, nonNegative, positive, two, waveSchema, type Wave } from "../fields";
 import { defineKind } from "../kind";
 import { Capacitor, Inductor, ISource, Resistor, Switch, Vccs, Vcvs, VSource } from "./linear";
 
@@ -14,7 +14,7 @@ function checkWave(wave: Wave | null): string | null {
   return null;
 }
 
-export const resistorKind = defineKind("resistor", z.object({ kind: z.literal("resistor"), name, nodes: two, value: positive() }), {
+export const resistorKind = defineKind("resistor", z.object({ kind: z.literal("resistor"), name, nodes: two, value: positive(), noiseless }), {
   create: (e) => new Resistor(e.name, e.nodes, e.value),
   dcPaths: (e) => [[e.nodes[0], e.nodes[1]]],
 });

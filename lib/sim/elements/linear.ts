@@ -2,7 +2,7 @@
  * Linear elements: R, C, L, independent sources, controlled sources, the timed switch.
  * Stamps: REFERENCES §2.1 (Ho et al. 1975; Vlach & Singhal 1994). Companion models: REFERENCES §2.2.
  */
-import { Builder, Circuit, Element, MODE_TRAN, stampG } from "../circuit";
+import { Builder, Circuit, Element, MODE_TRAN, type NoiseSink, stampG } from "../circuit";
 import type { Wave } from "../fields";
 import { isGround } from "../ground";
 import { waveBreakpoints, waveMaxStep, waveValue } from "../waves";
@@ -42,6 +42,8 @@ export class Resistor extends TwoTerminal {
   load(): void {}
   override loadStatic(m: Float64Array): void { stampG(m, this.paa, this.pab, this.pba, this.pbb, this.g); }
   override current(c: Circuit): number { return this.v(c) * this.g; }
+  /** thermal noise current 4kT/R, A²/Hz (Johnson 1928, Nyquist 1928) */
+  override noise(c: Circuit, sink: NoiseSink): void { sink.add(this.a, this.b, 1, 4 * c.kT * this.g, 0); }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
     out[0] = (xr[this.a] - xr[this.b]) * this.g;
     out[1] = (xi[this.a] - xi[this.b]) * this.g;
@@ -100,6 +102,7 @@ abstract class BranchElement extends TwoTerminal {
     m[this.pak] += 1; m[this.pbk] -= 1; m[this.pka] += 1; m[this.pkb] -= 1;
   }
   override current(c: Circuit): number { return c.x[this.k]; }
+  override branchIndex(): number { return this.k; }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
     out[0] = xr[this.k]; out[1] = xi[this.k];
   }

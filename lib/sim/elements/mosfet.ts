@@ -4,9 +4,9 @@
  *   triode:                      ID = K·(2(VGS−Vth)·VDS − VDS²)·(1+λ·VDS)
  * Symmetric (drain and source swap when VDS < 0), N and P channel, fixed Cgs and Cgd, gmin from drain to source.
  */
-import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, stampG } from "../circuit";
+import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, type NoiseSink, stampG } from "../circuit";
 import { z } from "zod";
-import { finite, name, nonNegative, positive, three } from "../fields";
+import { finite, name, noiseless, nonNegative, positive, three } from "../fields";
 import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
 
@@ -158,6 +158,12 @@ export class Mosfet extends Element {
     const p = this.p;
     this.evaluate(p * (c.x[this.g] - c.x[this.s]), p * (c.x[this.d] - c.x[this.s]));
   }
+  /** channel thermal noise 8kT·gm/3 from drain to source (long-channel saturation value; van der Ziel 1962) */
+  override noise(c: Circuit, sink: NoiseSink): void {
+    const p = this.p;
+    this.evaluate(p * (c.x[this.g] - c.x[this.s]), p * (c.x[this.d] - c.x[this.s]));
+    sink.add(this.d, this.s, 1, (8 * c.kT * Math.abs(this.Gg)) / 3, 0);
+  }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, w: number, out: Float64Array): void {
     const vgsR = xr[this.g] - xr[this.s], vgsI = xi[this.g] - xi[this.s];
     const vdsR = xr[this.d] - xr[this.s], vdsI = xi[this.d] - xi[this.s];
@@ -178,7 +184,7 @@ export class Mosfet extends Element {
 }
 
 export const mosfetKind = defineKind("mosfet", z.object({
-  kind: z.literal("mosfet"), name, nodes: three,
+  kind: z.literal("mosfet"), name, nodes: three, noiseless,
   polarity: z.enum(["n", "p"]).default("n"),
   model: z.strictObject({
     Vth: finite().default(2), K: positive().default(1), lambda: nonNegative().default(0),

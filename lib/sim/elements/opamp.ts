@@ -8,11 +8,15 @@
  *   Output: ideal follower (Rout = 0, no current limit) or Norton iout = Ilim·tanh(u/(Rout·Ilim)), u = v(x|y) − v(out).
  *   The output current is drawn from the vcc pin when sourcing and from the vee pin when sinking (smooth split).
  *   Bias current Ib flows into each input.
+ *   Noise (noise analysis only): an input voltage noise en in series with vd (white density noiseVoltage, V/√Hz, with
+ *   a 1/f corner noiseVoltageCorner: en²(f) = noiseVoltage²·(1 + corner/f)) and an uncorrelated current noise in from
+ *   each input to ground (noiseCurrent, A/√Hz, corner noiseCurrentCorner) — the usual op-amp noise model (Franco,
+ *   "Design with Operational Amplifiers", noise chapter).
  * With Rout = 0, fp2 = null and no limits this is exactly Aol/(1 + s/ωp) with infinite input impedance.
  */
-import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN } from "../circuit";
+import { Builder, Circuit, Element, type DeviceInfo, MODE_TRAN, type NoiseSink } from "../circuit";
 import { z } from "zod";
-import { finite, name, node, nonNegative, positive } from "../fields";
+import { finite, name, node, noiseless, nonNegative, positive } from "../fields";
 import { GROUND } from "../ground";
 import { defineKind } from "../kind";
 import { nodeOf } from "./linear";
@@ -20,6 +24,7 @@ import { nodeOf } from "./linear";
 export interface OpampModel {
   Aol: number; GBW: number; fp2: number | null; Rout: number; slewRate: number | null; Vos: number; Ib: number;
   swingHigh: number | null; swingLow: number | null; Iout: number | null;
+  noiseVoltage: number; noiseVoltageCorner: number; noiseCurrent: number; noiseCurrentCorner: number;
 }
 
 /** clamp conductance (S) and knee width (V) of the swing limits */
@@ -240,6 +245,16 @@ export class Opamp extends Element {
   override acPrepare(c: Circuit): void {
     if (!this.ideal) this.acG = this.ioutSlope(c.x[this.src] - c.x[this.out]);
   }
+  /** en enters as the drive's slope × en into node x (the drive is d·vd, vd = v(inp) − v(inn) + Vos + en); in at each input */
+  override noise(c: Circuit, sink: NoiseSink): void {
+    const m = this.model;
+    if (m.noiseVoltage > 0) sink.add(this.nx, c.n, this.dG, m.noiseVoltage * m.noiseVoltage, m.noiseVoltageCorner);
+    if (m.noiseCurrent > 0) {
+      const s = m.noiseCurrent * m.noiseCurrent;
+      sink.add(this.inp, c.n, 1, s, m.noiseCurrentCorner);
+      sink.add(this.inn, c.n, 1, s, m.noiseCurrentCorner);
+    }
+  }
   override acCurrent(_c: Circuit, xr: Float64Array, xi: Float64Array, _w: number, out: Float64Array): void {
     if (this.ideal) { out[0] = -xr[this.k]; out[1] = -xi[this.k]; return; }
     const g = this.acG;
@@ -262,12 +277,20 @@ export class Opamp extends Element {
 }
 
 export const opampKind = defineKind("opamp", z.object({
-  kind: z.literal("opamp"), name, nodes: z.tuple([node, node, node, node, node]),
+  kind: z.literal("opamp"), name, nodes: z.tuple([node, node, node, node, node]), noiseless,
   model: z.strictObject({
     Aol: positive().default(1e5), GBW: positive().default(1e6), fp2: positive().nullable().default(null),
     Rout: nonNegative().default(0), slewRate: positive().nullable().default(null), Vos: finite().default(0),
     Ib: finite().default(0), swingHigh: finite().nullable().default(null), swingLow: finite().nullable().default(null),
     Iout: positive().nullable().default(null),
+    /** V/√Hz: white input voltage noise density (0 = none) */
+    noiseVoltage: nonNegative().default(0),
+    /** Hz: 1/f corner of the input voltage noise (0 = white) */
+    noiseVoltageCorner: nonNegative().default(0),
+    /** A/√Hz: white input current noise density at each input (0 = none) */
+    noiseCurrent: nonNegative().default(0),
+    /** Hz: 1/f corner of the input current noise (0 = white) */
+    noiseCurrentCorner: nonNegative().default(0),
   }).prefault({}),
 }), {
   create: (e) => new Opamp(e.name, e.nodes, e.model),

@@ -118,6 +118,21 @@ describe("scenario CLI", () => {
     expect(await main(["--scenario", file, "--study", "checks"])).toBe(0);
     expect(JSON.parse(out).result.cautions.map((c: { id: string }) => c.id)).toContain("inductive");
   });
+  it("noise: the density, the band's RMS, the ranked contributors and the check against a target; exit 2 naming a bad band", async () => {
+    const file = join(dir, "n.json");
+    const s = valveCoilDemo();
+    writeFileSync(file, JSON.stringify({ ...s, tolerances: { ...s.tolerances, noiseTarget: 1e-3 }, studies: { ...s.studies, noise: { bandLow: 10, bandHigh: 1e4 } } }));
+    expect(await main(["--scenario", file, "--study", "noise"])).toBe(0);
+    const r = JSON.parse(out).result;
+    expect(r.freq.length).toBe(r.density.length);
+    expect(r.band).toEqual({ low: 10, high: 1e4 });
+    expect(r.ranked[0].share).toBeGreaterThanOrEqual(r.ranked[1].share);
+    expect(r.check.id).toBe("noise");
+    expect(r.check.limit).toBe(1e-3);
+    writeFileSync(file, JSON.stringify({ ...s, studies: { ...s.studies, noise: { bandLow: 10, bandHigh: 1 } } }));
+    expect(await main(["--scenario", file, "--study", "noise"])).toBe(2);
+    expect(err).toContain("studies.noise.bandHigh");
+  });
   it("refuses an unknown study and a missing file", async () => {
     expect(await main(["--scenario", "x.json", "--study", "nope"])).toBe(2);
     expect(await main(["--scenario", join(dir, "missing.json"), "--study", "op"])).toBe(2);

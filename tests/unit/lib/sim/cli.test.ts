@@ -61,6 +61,19 @@ describe("headless CLI (lib/sim/cli.ts)", () => {
     expect(err).toContain('field "value"');
     expect(out).toBe("");
   });
+  it("noise: exit 0 with plain arrays (the divider's tap: √(4kT·750 Ω) = 3.52e-9 V/√Hz at 27 °C, Johnson–Nyquist, docs/references.md §8.1); exit 2 naming the field of an invalid spec", async () => {
+    const spec = { kind: "noise", output: { node: "mid" }, input: "V1", fStart: 10, fStop: 1e3, pointsPerDecade: 1 };
+    expect(await main([file("n.json", divider), "--analysis", JSON.stringify(spec)])).toBe(0);
+    const r = JSON.parse(out);
+    expect(r.freq).toEqual([10, 100, 1000]);
+    // in nV/√Hz, to 1e-6 nV
+    expect(r.outputDensity[0] * 1e9).toBeCloseTo(Math.sqrt(4 * 1.380649e-23 * 300.15 * 750) * 1e9, 6);
+    expect(Object.keys(r.contributions).sort()).toEqual(["R1", "R2"]);
+    out = "";
+    expect(await main([file("n.json", divider), "--analysis", JSON.stringify({ ...spec, output: { current: "R1" } })])).toBe(2);
+    expect(err).toContain('field "output.current"');
+    expect(out).toBe("");
+  });
   it("exit 2 for a file that is not JSON", async () => {
     expect(await main([file("x.json", "{ not json")])).toBe(2);
     expect(err).toContain("not JSON");
