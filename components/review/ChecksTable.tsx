@@ -6,6 +6,7 @@ import { VerdictBadge } from "@/components/traces/VerdictBadge";
 export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions: Caution[] }) {
   return (
     <div className="space-y-3" data-testid="review-checks">
+      <div className="overflow-x-auto">
       <table className="w-full border-collapse text-sm">
         <thead>
           <tr className="border-b border-hairline text-left text-xs text-ink-muted">
@@ -23,11 +24,12 @@ export function ChecksTable({ checks, cautions }: { checks: CheckRow[]; cautions
               <td className="py-1 pr-2"><VerdictBadge verdict={c.verdict} /></td>
               <td className="num whitespace-nowrap py-1 pr-2 text-right">{c.valueKind === "margin" ? "margin " : ""}{formatQuantity(c.value, c.unit)}</td>
               <td className="num whitespace-nowrap py-1 pr-2 text-right">{c.limitKind === "min" ? "needs ≥ " : c.limitKind === "max" ? "needs ≤ " : ""}{formatQuantity(c.limit, c.unit)}</td>
-              <td className="num py-1 text-xs">{c.formula}</td>
+              <td className="num py-1 text-xs [overflow-wrap:anywhere]">{c.formula}</td>
             </tr>
           ))}
         </tbody>
       </table>
+      </div>
       <div data-testid="review-cautions">
         <h3 className="text-sm font-semibold">Cautions</h3>
         {cautions.length === 0 ? (
