@@ -79,7 +79,10 @@ describe("workbench", () => {
     // it: the headline cards after each edit, and the Loop gain plot naming both loops.
     const field = page.locator("#field-parts-compCapacitor");
     const readings: { pm: number; os: number }[] = [];
+    // a run still in flight from an earlier edit must land before a reading is taken
+    const settled = () => expect.poll(() => text("run-status"), { timeout: 30_000 }).not.toContain("simulating");
     const setAndRead = async (value: string) => {
+      await settled();
       const pm0 = await text("metric-phase-margin-value");
       await field.fill(value);
       await field.press("Enter");
@@ -88,6 +91,7 @@ describe("workbench", () => {
         pm0,
         { timeout: 30_000 },
       );
+      await settled();
       // both halves of the run arrive together; the overshoot card carries the small-signal figure beside it
       await page.getByTestId("metric-overshoot").filter({ hasText: "small-signal" }).waitFor({ timeout: 30_000 });
       return { pm: Number.parseFloat(await text("metric-phase-margin-value")), os: Number.parseFloat(await text("metric-overshoot-value")) };
