@@ -87,6 +87,29 @@ export function linearise(c: Circuit, skipOp = false): { g: Float64Array; cap: F
   return { g, cap };
 }
 
+/**
+ * Factor G + jωC at frequency `f` (Hz) into `re`/`im` with the LU's stored order, re-analysing the order when it no
+ * longer holds; only the structural non-zeros and fill-in take part. Throws SimError "singular" naming the unknown.
+ */
+export function factorAt(
+  c: Circuit, lu: StaticLU, g: Float64Array, cap: Float64Array, re: Float64Array, im: Float64Array, f: number,
+): void {
+  const w = 2 * Math.PI * f;
+  if (lu.analysed) {
+    const P = lu.positions;
+    for (let q = 0; q < P.length; q++) { const p = P[q]; re[p] = g[p]; im[p] = w * cap[p]; }
+  }
+  let r = lu.analysed ? lu.factorComplex(re, im) : LU_REORDER;
+  if (r === LU_REORDER) {
+    re.set(g);
+    for (let i = 0; i < g.length; i++) im[i] = w * cap[i];
+    const bad = lu.analyse(re, im);
+    if (bad >= 0) throw new SimError("singular", `Singular AC matrix at ${c.unknownNames[bad]} at ${f.toPrecision(4)} Hz`);
+    r = lu.factorComplex(re, im);
+    if (r !== -1) throw new SimError("singular", `Singular AC matrix at ${f.toPrecision(4)} Hz`);
+  }
+}
+
 function acCore(
   c: Circuit, fStart: number, fStop: number, perDecade: number, m: number, apply: (j: number) => void,
   onProgress: ((f: number) => void) | undefined, skipOp: boolean,
@@ -126,20 +149,7 @@ function acCore(
     // every 8th frequency (a small circuit's frequency costs a few µs; a large one's factorisation polls on its own)
     if ((k & 7) === 0) checkpoint(c);
     const w = 2 * Math.PI * freq[k];
-    if (lu.analysed) {
-      // only the structural non-zeros and fill-in take part in the factorisation
-      const P = lu.positions;
-      for (let q = 0; q < P.length; q++) { const p = P[q]; re[p] = g[p]; im[p] = w * cap[p]; }
-    }
-    let r = lu.analysed ? lu.factorComplex(re, im) : LU_REORDER;
-    if (r === LU_REORDER) {
-      re.set(g);
-      for (let i = 0; i < size; i++) im[i] = w * cap[i];
-      const bad = lu.analyse(re, im);
-      if (bad >= 0) throw new SimError("singular", `Singular AC matrix at ${c.unknownNames[bad]} at ${freq[k].toPrecision(4)} Hz`);
-      r = lu.factorComplex(re, im);
-      if (r !== -1) throw new SimError("singular", `Singular AC matrix at ${freq[k].toPrecision(4)} Hz`);
-    }
+    factorAt(c, lu, g, cap, re, im, freq[k]);
     for (let j = 0; j < m; j++) {
       if (m > 1) apply(j); // a current source's AC current is its excitation
       lu.solveComplex(re, im, exRe[j], exIm[j], xr, xi);

@@ -12,11 +12,11 @@
  */
 import { type Circuit, type NoiseSink } from "../circuit";
 import { SimError } from "../errors";
-import { LU_REORDER, StaticLU } from "../sparse";
+import { StaticLU } from "../sparse";
 import type { NoiseResult } from "../results";
 import { checkpoint } from "../checkpoint";
 import { isGround } from "../ground";
-import { linearise, logFrequencies } from "./ac";
+import { factorAt, linearise, logFrequencies } from "./ac";
 
 /** What the noise is measured at: a node's voltage (against ground or a reference node), or a vsource's current. */
 export type NoiseOutput = { node: string; reference?: string } | { current: string };
@@ -142,20 +142,7 @@ export function runNoise(c: Circuit, spec: NoiseSpec, onProgress?: (f: number) =
   for (let k = 0; k < count; k++) {
     if ((k & 7) === 0) checkpoint(c);
     const f = freq[k];
-    const w = 2 * Math.PI * f;
-    if (lu.analysed) {
-      const P = lu.positions;
-      for (let q = 0; q < P.length; q++) { const p = P[q]; re[p] = g[p]; im[p] = w * cap[p]; }
-    }
-    let r = lu.analysed ? lu.factorComplex(re, im) : LU_REORDER;
-    if (r === LU_REORDER) {
-      re.set(g);
-      for (let i = 0; i < size; i++) im[i] = w * cap[i];
-      const bad = lu.analyse(re, im);
-      if (bad >= 0) throw new SimError("singular", `Singular AC matrix at ${c.unknownNames[bad]} at ${f.toPrecision(4)} Hz`);
-      r = lu.factorComplex(re, im);
-      if (r !== -1) throw new SimError("singular", `Singular AC matrix at ${f.toPrecision(4)} Hz`);
-    }
+    factorAt(c, lu, g, cap, re, im, f);
     lu.solveComplexTransposed(re, im, er, ei, zr, zi);
     zr[n] = 0; zi[n] = 0;
     for (let j = 0; j < nOwn; j++) perOwner[j] = 0;
