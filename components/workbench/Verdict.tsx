@@ -90,6 +90,14 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
       verdict: acc?.verdict ?? null,
       hint: acc ? `worst case; limit ${acc.limit.toFixed(2)} %` : "DC accuracy budget",
     },
+    ...(r?.noise && r.noise.target !== null
+      ? [{
+        id: "noise", label: "Load-current noise",
+        value: formatEng(r.noise.rms, "A"),
+        verdict: row("noise")?.verdict ?? null,
+        hint: `RMS ${formatEng(r.noise.band.low, "Hz")}–${formatEng(r.noise.band.high, "Hz")}; target ${formatEng(r.noise.target, "A")}`,
+      }]
+      : []),
     {
       // Templates without a pass device (the Howland pump) report the op-amp's junction temperature here instead.
       id: "dissipation", label: diss?.unit === "°C" ? "Hottest junction" : "Worst dissipation",

@@ -11,6 +11,7 @@ import { TEMPLATES } from "@/lib/design/templates";
 import { safeFileName } from "@/lib/workbench/csv";
 import { WorkbenchProvider, useWb, useWbStore } from "./context";
 import { LoadSupplyPanel, NetworksPanel, OpampPanel, PartValues, PassPanel, StimulusPanel } from "./Panels";
+import { NoisePanel } from "./NoisePanel";
 import { CautionsList, ChecksTable, HeadlineFigures, VerdictNote } from "./Verdict";
 import { Schematic } from "@/components/schematic/Schematic";
 import { BodePlot, StepPlot } from "@/components/plots/ResponsePlots";
@@ -278,6 +279,7 @@ function CircuitZone() {
       <StimulusPanel />
       <OpampPanel />
       <PassPanel />
+      <NoisePanel />
     </div>
   );
 }

@@ -9,6 +9,7 @@
  * 0.5 pA/√Hz with a 200 Hz corner, band 0.1 Hz–100 kHz. The analysis runs to 10 × the op-amp's gain–bandwidth (the
  * current loop cannot cross over above the op-amp's GBW), or past the band's top when that is higher.
  */
+import { formatEng } from "../units/eng";
 import { integratePower, simulate, type NoiseResult, type SimOptions } from "../sim";
 import { NAMES } from "./compile";
 import { compileNetlist } from "./run";
@@ -141,14 +142,8 @@ function reduce(s: Scenario, r: NoiseResult, set: NoiseSettings): NoiseStudyResu
   };
 }
 
-const fmtA = (a: number) => {
-  const abs = Math.abs(a);
-  if (abs >= 1e-3) return `${(a * 1e3).toPrecision(3)} mA`;
-  if (abs >= 1e-6) return `${(a * 1e6).toPrecision(3)} µA`;
-  if (abs >= 1e-9) return `${(a * 1e9).toPrecision(3)} nA`;
-  return `${(a * 1e12).toPrecision(3)} pA`;
-};
-const fmtHz = (f: number) => (f >= 1e6 ? `${f / 1e6} MHz` : f >= 1e3 ? `${f / 1e3} kHz` : `${f} Hz`);
+const fmtA = (a: number) => formatEng(a, "A");
+const fmtHz = (f: number) => formatEng(f, "Hz");
 
 /** The noise check (pass under 80 % of the target, warn up to it, fail above); null when the scenario sets no target. */
 export function noiseCheck(r: NoiseStudyResult): CheckRow | null {

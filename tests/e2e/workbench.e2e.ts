@@ -167,6 +167,27 @@ describe("workbench", () => {
     await page.getByTestId("tab-closed").click();
   });
 
+  it("a noise target set in the Noise panel adds a headline card judged against it; clearing it removes the card", async () => {
+    await page.locator("#panel-noise summary").click();
+    const target = page.locator("#field-noise-target");
+    expect(await page.getByTestId("metric-noise").count()).toBe(0); // no target: no card
+    await target.fill("1m");
+    await target.press("Enter");
+    await page.getByTestId("metric-noise").waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId("metric-noise").textContent()).toContain("target 1.00 mA");
+    // the card's figure is the Noise tab's integrated figure (one run, one number)
+    await page.getByTestId("tab-noise").click();
+    const rms = Number(await page.getByTestId("noise-integrated").getAttribute("data-value"));
+    expect(rms).toBeGreaterThan(0);
+    expect(rms).toBeLessThan(1e-3); // the demo's noise is microamperes: the 1 mA target passes
+    expect(await page.getByTestId("metric-noise").textContent()).toMatch(/pass/i);
+    await page.getByTestId("tab-closed").click();
+    await target.fill("");
+    await target.press("Enter");
+    await expect.poll(() => page.getByTestId("metric-noise").count(), { timeout: 30_000 }).toBe(0);
+    await page.locator("#panel-noise summary").click();
+  });
+
   it("runs a 1D sweep and draws one curve per value", async () => {
     await page.getByTestId("studies-toggle").click();
     await page.getByTestId("studies-tab-sweep").click();
