@@ -47,7 +47,7 @@ export {
 } from "./verdicts";
 export { explainFigures, largeSignalLimits } from "./explain";
 export {
-  SWEEPABLE_PARAMETERS, getParameter, withParameter, axisValues, sweep1d, map2d, evaluateMetric, spread, spreadScenario, mergeSpread,
+  SWEEPABLE_PARAMETERS, getParameter, withParameter, axisValues, sweep1d, map2d, evaluateMetric, spread, spreadScenario, mergeSpread, mergeSweep, mergeMap,
   summarizeSpread, worstCaseCorners, compensate, compensateScan, compensatePick, compensateCandidates, loadCorners,
 } from "./studies";
 export type {

@@ -91,6 +91,32 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
   return out;
 }
 
+/**
+ * One sweep from its chunks (each computed over an index range by a worker): every metric column takes each chunk's
+ * computed entries, the points are in index order, the failures gathered. Equals the sweep run whole.
+ */
+export function mergeSweep(chunks: readonly SweepResult[]): SweepResult {
+  if (chunks.length === 0) throw new RangeError("mergeSweep needs at least one chunk");
+  const first = chunks[0];
+  const n = first.values.length;
+  const columns = ["phaseMarginDeg", "gainMarginDb", "crossoverHz", "overshootPct", "settlingTime1pct", "riseTime", "finalCurrent", "noiseRms"] as const;
+  const out: SweepResult = {
+    ...first,
+    points: chunks.flatMap((c) => c.points).sort((a, b) => a.index - b.index),
+    failures: chunks.flatMap((c) => c.failures),
+  };
+  for (const key of columns) {
+    const col = nanArray(n);
+    for (const c of chunks) {
+      const src = c[key];
+      if (!src) continue;
+      for (let i = 0; i < n; i++) if (!Number.isNaN(src[i])) col[i] = src[i];
+    }
+    out[key] = col;
+  }
+  return out;
+}
+
 export type MapMetric = "phaseMarginDeg" | "overshootPct" | "settlingTime1pct" | "noiseRms";
 
 export interface MapResult {
@@ -102,6 +128,19 @@ export interface MapResult {
   /** row-major: values[iy·nx + ix]; NaN where not computed or failed */
   values: Float64Array;
   failures: { index: number; message: string }[];
+}
+
+/** One map from its chunks: each cell from the chunk that computed it; `failed` holds the cells that failed. */
+export function mergeMap(chunks: readonly MapResult[]): MapResult & { failed: Set<number> } {
+  if (chunks.length === 0) throw new RangeError("mergeMap needs at least one chunk");
+  const first = chunks[0];
+  const values = nanArray(first.values.length);
+  const failed = new Set<number>();
+  for (const c of chunks) {
+    for (let i = 0; i < values.length; i++) if (!Number.isNaN(c.values[i])) values[i] = c.values[i];
+    for (const x of c.failures) failed.add(x.index);
+  }
+  return { ...first, values, failures: chunks.flatMap((c) => c.failures), failed };
 }
 
 /** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { isSimError } from "@/lib/sim";
 import {
-  SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, compensatePick, compensateScan, worstCaseCorners, defaultScenario, getParameter, map2d, mergeSpread, nearestE, spread, sweep1d,
+  SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, compensatePick, compensateScan, worstCaseCorners, defaultScenario, getParameter, map2d, mergeMap, mergeSpread, mergeSweep, nearestE, spread, sweep1d,
   withParameter,
 } from "@/lib/design";
 
@@ -38,6 +38,12 @@ describe("studies on the reference sink", () => {
     const tail = sweep1d(s, axis, {}, { start: 2, end: 3 });
     expect(Number.isNaN(tail.phaseMarginDeg[0])).toBe(true);
     expect(tail.phaseMarginDeg[2]).toBe(whole.phaseMarginDeg[2]);
+    // the chunks a worker pool computes, merged, are the whole sweep (same engine runs, so equal to the bit)
+    const merged = mergeSweep([tail, sweep1d(s, axis, {}, { start: 0, end: 2 })]);
+    for (const key of ["phaseMarginDeg", "overshootPct", "settlingTime1pct", "riseTime", "finalCurrent"] as const) {
+      expect(Array.from(merged[key])).toEqual(Array.from(whole[key]));
+    }
+    expect(merged.points.map((p) => p.index)).toEqual([0, 1, 2]);
     // A larger compensation capacitor slows the loop: the 10 nF step settles later than the 1 nF one's rise.
     expect(whole.riseTime[2]).toBeGreaterThan(whole.riseTime[0]);
   });
@@ -56,6 +62,11 @@ describe("studies on the reference sink", () => {
     expect(m.values.length).toBe(4);
     for (const v of m.values) expect(v).toBeGreaterThan(0);
     expect(last).toBe(4);
+    // two chunks merged give the whole grid
+    const settings = { x: { path: "parts.compCapacitor", from: 1e-9, to: 4.7e-9, points: 2, scale: "log" as const, values: [] }, y: { path: "load.cable.length", from: 1, to: 10, points: 2, scale: "log" as const, values: [] }, metric: "phaseMarginDeg" as const };
+    const merged = mergeMap([map2d(s, settings, {}, { start: 3, end: 4 }), map2d(s, settings, {}, { start: 0, end: 3 })]);
+    expect(Array.from(merged.values)).toEqual(Array.from(m.values));
+    expect(merged.failed.size).toBe(0);
   });
 
   it("cancellation stops a study with SimError 'cancelled'", () => {
