@@ -68,6 +68,28 @@ function settleTime(t: ArrayLike<number>, y: ArrayLike<number>, from: number, fi
 }
 
 /**
+ * The frame a step is measured in: the first sample at or after the step (i0), the value before it (or `initial`),
+ * and the final value (or `final`; by default the mean of the record's last 2 % after the step).
+ */
+function stepFrame(
+  who: string, t: ArrayLike<number>, y: ArrayLike<number>, tStep: number, opts: { initial?: number; final?: number },
+): { n: number; i0: number; initial: number; final: number } {
+  const n = t.length;
+  if (n < 3 || y.length !== n) throw new RangeError(`${who} needs matching time and value arrays of 3 or more samples`);
+  let i0 = 0;
+  while (i0 < n - 1 && t[i0] < tStep) i0++;
+  const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
+  let final = opts.final ?? NaN;
+  if (!Number.isFinite(final)) {
+    const tTail = t[n - 1] - 0.02 * (t[n - 1] - tStep);
+    let sum = 0, cnt = 0;
+    for (let i = n - 1; i >= 0 && t[i] >= tTail; i--) { sum += y[i]; cnt++; }
+    final = cnt ? sum / cnt : y[n - 1];
+  }
+  return { n, i0, initial, final };
+}
+
+/**
  * Step metrics of `y(t)` for a step at `tStep`. `initial` defaults to the value at the step; `target` (the ideal
  * final value) gives the steady-state error.
  */
@@ -82,19 +104,7 @@ export function stepMetrics(
   } = {},
 ): StepMetrics {
   if (opts.disturbance) return disturbanceMetrics(t, y, tStep, opts);
-  const n = t.length;
-  if (n < 3 || y.length !== n) throw new RangeError("stepMetrics needs matching time and value arrays of 3 or more samples");
-  let i0 = 0;
-  while (i0 < n - 1 && t[i0] < tStep) i0++;
-  const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
-  let final = opts.final ?? NaN;
-  if (!Number.isFinite(final)) {
-    const tEnd = t[n - 1];
-    const tTail = tEnd - 0.02 * (tEnd - tStep);
-    let sum = 0, cnt = 0;
-    for (let i = n - 1; i >= 0 && t[i] >= tTail; i--) { sum += y[i]; cnt++; }
-    final = cnt ? sum / cnt : y[n - 1];
-  }
+  const { n, i0, initial, final } = stepFrame("stepMetrics", t, y, tStep, opts);
   const step = final - initial;
   const rising = step >= 0;
   const steadyStateError = opts.target !== undefined && opts.target !== 0 ? (final - opts.target) / opts.target : null;
@@ -158,18 +168,7 @@ export function disturbanceMetrics(
   tStep: number,
   opts: { initial?: number; final?: number; target?: number; settleBand?: number } = {},
 ): StepMetrics {
-  const n = t.length;
-  if (n < 3 || y.length !== n) throw new RangeError("disturbanceMetrics needs matching time and value arrays of 3 or more samples");
-  let i0 = 0;
-  while (i0 < n - 1 && t[i0] < tStep) i0++;
-  const initial = opts.initial ?? y[Math.max(0, i0 - 1)];
-  let final = opts.final ?? NaN;
-  if (!Number.isFinite(final)) {
-    const tTail = t[n - 1] - 0.02 * (t[n - 1] - tStep);
-    let sum = 0, cnt = 0;
-    for (let i = n - 1; i >= 0 && t[i] >= tTail; i--) { sum += y[i]; cnt++; }
-    final = cnt ? sum / cnt : y[n - 1];
-  }
+  const { n, i0, initial, final } = stepFrame("disturbanceMetrics", t, y, tStep, opts);
   const scale = Math.abs(final) > 0 ? Math.abs(final) : Math.max(Math.abs(initial), 1e-30);
   let ip = i0;
   for (let i = i0; i < n; i++) if (Math.abs(y[i] - final) > Math.abs(y[ip] - final)) ip = i;
