@@ -3,6 +3,7 @@
  * never reshaped on the main thread), the design layer's metric and check types unchanged. Declared beside the
  * worker that produces them; the workbench re-exports them (lib/workbench/types.ts).
  */
+import type { OperatingPointData } from "@/lib/design/op-words";
 import type { Caution, CheckRow } from "@/lib/design/checks";
 import type { StepMetrics } from "@/lib/design/metrics";
 
@@ -65,11 +66,8 @@ export interface NoiseView {
   top: { element: string; share: number; density: Float64Array }[];
 }
 
-export interface OperatingPointResult {
-  nodes: Record<string, number>;
-  currents: Record<string, number>;
-  devices: Record<string, object>;
-}
+/** The operating point as the design layer reads it (lib/design/op-words.ts). */
+export type OperatingPointResult = OperatingPointData;
 
 export interface LiveResult {
   step: StepView | null;

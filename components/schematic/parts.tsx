@@ -2,18 +2,15 @@
  * The pieces every schematic layout is drawn with: a selectable part, value labels, operating-point tags and the
  * load symbol of the scenario's load kind.
  */
+import type { OperatingPointData } from "@/lib/design/op-words";
 import type { KeyboardEvent, ReactNode } from "react";
 import { formatEng } from "@/lib/units/eng";
 import type { Scenario } from "@/lib/design/schema";
 import { ClampSymbol } from "./networks";
 import { Cell, Diode, INK, Inductor, Resistor, Wire } from "./symbols";
 
-/** What the overlay needs from an operating point: node voltages and element currents, SI. */
-export interface OperatingPointView {
-  nodes: Record<string, number>;
-  currents: Record<string, number>;
-  devices?: Record<string, object>;
-}
+/** What the overlay needs from an operating point: node voltages and element currents, SI (devices optional). */
+export type OperatingPointView = Omit<OperatingPointData, "devices"> & Partial<Pick<OperatingPointData, "devices">>;
 
 /** What each layout draws from: the scenario, the selected part, the select callback and the operating point. */
 export interface LayoutProps {

@@ -2,6 +2,7 @@
  * What the design checks are made of: the row and caution types, and the hand formulas the checks and cautions
  * share (full-scale current, drive, path supply, dissipation, junction temperature, accuracy budget).
  */
+import type { OperatingPointData } from "./op-words";
 import { cableResistance, dividerRatio, idealTransconductance, thermalVoltage } from "./compile";
 import type { Scenario } from "./schema";
 
@@ -42,11 +43,7 @@ export interface AccuracyBudget {
 }
 
 /** What the checks read from an operating point (the engine's OpResult satisfies it). */
-export interface OpLike {
-  nodes: Record<string, number>;
-  currents: Record<string, number>;
-  devices: Record<string, object>;
-}
+export type OpLike = OperatingPointData;
 
 /** The sentence every caution ends with. */
 export const DEFERENCE = "This is a reminder, not an approval: follow your local codes and licensed practice.";

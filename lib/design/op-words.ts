@@ -2,7 +2,18 @@
  * Words for what an operating point holds, keyed by the names our netlists use (NAMES in compile.ts), so components
  * never need to know a netlist's element names.
  */
+import type { DeviceInfo } from "../sim";
 import { NAMES } from "./compile";
+
+/**
+ * An operating point as every layer reads it — the checks, the schematic overlay, the review's table, the worker's
+ * result: node voltages and element currents (SI) and each device's figures (the engine's OpResult fits).
+ */
+export interface OperatingPointData {
+  nodes: Record<string, number>;
+  currents: Record<string, number>;
+  devices: Record<string, DeviceInfo>;
+}
 
 /** What each netlist node is, in words (node names from lib/design/compile.ts); unknown nodes are left blank. */
 export const NODE_WORDS: Readonly<Record<string, string>> = {
@@ -46,7 +57,7 @@ export interface OpHighlights {
   opampLimiting: boolean;
 }
 
-export function opHighlights(op: { currents: Record<string, number>; devices?: Record<string, object> }): OpHighlights {
+export function opHighlights(op: Pick<OperatingPointData, "currents"> & Partial<Pick<OperatingPointData, "devices">>): OpHighlights {
   const drive = op.currents[NAMES.driveResistor];
   let passPower: number | null = null;
   for (const name of [NAMES.pass, NAMES.driver]) {
