@@ -38,7 +38,7 @@ export interface ReviewProps {
 
 function Section({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
-    <section className="review-section rounded border border-hairline bg-white p-4" data-testid={`review-${id}`} aria-labelledby={`h-${id}`}>
+    <section className="review-section relative min-w-0 overflow-x-auto rounded border border-hairline bg-white p-4" data-testid={`review-${id}`} aria-labelledby={`h-${id}`}>
       <h2 id={`h-${id}`} className="mb-3 text-lg font-semibold">{title}</h2>
       {children}
     </section>
