@@ -49,6 +49,13 @@ export const PASS_PRESETS: readonly PassPreset[] = [
     vMax: 60, iMax: 4, pMax: 40, vSat: 0.5, thetaJC: 3.1, thetaJA: 62, tjMax: 150, soaCornerVoltage: 30,
   },
   {
+    // Heat-sinkable low-saturation class with a high current gain at amperes: what a 5 % NPN sink needs.
+    preset: "High-gain power NPN 60 V", kind: "npn",
+    Is: 1e-12, betaF: 250, betaR: 4, VA: 100, Cje0: 300e-12, Cjc0: 50e-12, tauF: 1.5e-9, betaMin: 100,
+    ...BJT_UNUSED,
+    vMax: 60, iMax: 3, pMax: 25, vSat: 0.3, thetaJC: 5, thetaJA: 62, tjMax: 150, soaCornerVoltage: 30,
+  },
+  {
     preset: "Small-signal NPN 40 V", kind: "npn",
     Is: 1e-14, betaF: 200, betaR: 4, VA: 100, Cje0: 25e-12, Cjc0: 8e-12, tauF: 0.4e-9, betaMin: 100,
     ...BJT_UNUSED,
@@ -59,6 +66,12 @@ export const PASS_PRESETS: readonly PassPreset[] = [
     Is: 2e-12, betaF: 60, betaR: 2, VA: 80, Cje0: 700e-12, Cjc0: 200e-12, tauF: 50e-9, betaMin: 30,
     ...BJT_UNUSED,
     vMax: 60, iMax: 4, pMax: 40, vSat: 0.5, thetaJC: 3.1, thetaJA: 62, tjMax: 150, soaCornerVoltage: 30,
+  },
+  {
+    preset: "High-gain power PNP 60 V", kind: "pnp",
+    Is: 1e-12, betaF: 250, betaR: 4, VA: 100, Cje0: 350e-12, Cjc0: 70e-12, tauF: 2e-9, betaMin: 100,
+    ...BJT_UNUSED,
+    vMax: 60, iMax: 3, pMax: 25, vSat: 0.3, thetaJC: 5, thetaJA: 62, tjMax: 150, soaCornerVoltage: 30,
   },
   {
     preset: "Logic-level N-MOSFET 60 V", kind: "nmos",

@@ -106,7 +106,7 @@ describe("checks table", () => {
   });
   it("too little supply fails compliance, and the op-amp limiting at the operating point fails", () => {
     const s = defaultScenario("sink-npn");
-    s.supplies.load = 20; // 1.04 A × 24 Ω alone needs 25 V
+    s.supplies.load = 10; // 0.49 A × 24 Ω alone needs 11.8 V
     const { op } = runOperatingPoint(s);
     const { checks } = runChecks(s, op);
     expect(checks.find((r) => r.id === "compliance")!.verdict).toBe("fail");

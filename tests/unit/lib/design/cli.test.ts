@@ -24,9 +24,9 @@ describe("scenario CLI", () => {
     expect(await main(["--scenario", file, "--study", "op"])).toBe(0);
     const j = JSON.parse(out);
     expect(j.study).toBe("op");
-    // Reference: Vcommand·k/Rsense = 5 × 1/48 / 0.1 = 1.0417 A, less the base current 1/(β+1).
-    expect(j.result.summary.iLoad).toBeGreaterThan(1.0);
-    expect(j.result.summary.iLoad).toBeLessThan(1.0417);
+    // Reference: Vcommand·k/Rsense = 5 × 1k/50.9k / 0.2 = 0.4912 A, less the base current 1/(β+1) (β ≥ 100: < 1 %).
+    expect(j.result.summary.iLoad).toBeGreaterThan(0.4912 * (1 - 1 / 101));
+    expect(j.result.summary.iLoad).toBeLessThan(0.4912);
   });
   it("loopgain gives both loops; the top-level figures are the current loop's (README contract)", async () => {
     const file = join(dir, "lg.json");

@@ -327,9 +327,9 @@ describe("network dissipation in the checks", () => {
     s.load = { ...s.load, kind: "resistor", clamp: { kind: "none", zenerVoltage: 24 } };
     s.networks.loadSnubber = { resistance: 47, capacitance: 1e-6 };
     const row = runChecks(s).checks.find((r) => r.id === "load-snubber-power")!;
-    // ΔV = I·Rload,max = (5·1k/48k/0.1) × 26 Ω; f = 1/stopTime = 100 Hz (closed form, written out here)
-    const dv = ((5 * 1e3) / 48e3 / 0.1) * 26;
-    expect(row.value).toBeCloseTo(1e-6 * dv * dv * 100, 9);
+    // ΔV = I·Rload,max = (5·1k/50.9k/0.2) × 26 Ω; f = 1/stopTime = 1/3 ms (closed form, written out here)
+    const dv = ((5 * 1e3) / 50.9e3 / 0.2) * 26;
+    expect(row.value).toBeCloseTo(1e-6 * dv * dv * (1 / 3e-3), 9);
     expect(row.formula).toMatch(/C·ΔV²·f/);
   });
   it("a base–emitter resistor: P = V(BE)²/R, and the op-amp's drive current grows by V(BE)/R", () => {

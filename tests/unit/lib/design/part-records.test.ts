@@ -51,13 +51,15 @@ describe("checks from the datasheet figures", () => {
     const row = runChecks(s).checks.find((r) => r.id === "opamp-supply")!;
     expect([row.verdict, row.value, row.limit]).toEqual(["fail", 40, 32]);
   });
-  it("the swing figures' current: full-scale base current 1.04 A/βmin = 34.7 mA is above 10 mA, a warning", () => {
-    // I = 5 V × (1k/48k) / 0.1 Ω = 1.0417 A; βmin 30 (the preset): Ib = 34.7 mA (closed form, written out here)
+  it("the swing figures' current: full-scale base current 0.491 A/βmin = 4.9 mA passes at 10 mA, warns at 2 mA", () => {
+    // I = 5 V × (1k/50.9k) / 0.2 Ω = 0.4912 A; βmin 100 (the preset): Ib = 4.91 mA (closed form, written out here)
     const s = defaultScenario("sink-npn");
     s.opamp.swingCurrent = 0.01;
     const row = runChecks(s).checks.find((r) => r.id === "opamp-swing-current")!;
-    expect(row.value).toBeCloseTo((5 * (1e3 / 48e3)) / 0.1 / 30, 9);
-    expect(row.verdict).toBe("warn");
+    expect(row.value).toBeCloseTo((5 * (1e3 / 50.9e3)) / 0.2 / 100, 9);
+    expect(row.verdict).toBe("pass");
+    s.opamp.swingCurrent = 0.002;
+    expect(runChecks(s).checks.find((r) => r.id === "opamp-swing-current")!.verdict).toBe("warn");
   });
   it("beyond the SOA corner the allowed power falls by Vcorner/V (I ∝ V⁻², the second-breakdown line)", () => {
     const s = defaultScenario("sink-npn");
