@@ -5,18 +5,10 @@
  */
 import { useState } from "react";
 import { FIELD } from "@/components/shell/classes";
+import { CONVERSIONS, conversionSettings, needsOf, type Conversion } from "@/lib/traces/conversions";
 
-type Kind = "A" | "mA" | "V" | "mV" | "sense" | "msense" | "factor";
-
-const KINDS: { value: Kind; label: string }[] = [
-  { value: "A", label: "already in amperes (A)" },
-  { value: "mA", label: "in milliamperes (mA)" },
-  { value: "V", label: "already in volts (V)" },
-  { value: "mV", label: "in millivolts (mV)" },
-  { value: "sense", label: "volts across a sense resistor → amps" },
-  { value: "msense", label: "millivolts across a sense resistor → amps" },
-  { value: "factor", label: "volts × a probe factor (A/V) → amps" },
-];
+/** "As the file says" changes nothing, so the correction offers the other choices. */
+const CHOICES = CONVERSIONS.filter((c) => c.value !== "keep");
 
 export function ChannelCorrection(props: {
   traceId: string;
@@ -25,22 +17,21 @@ export function ChannelCorrection(props: {
   onSaved: () => void;
 }) {
   const [open, setOpen] = useState(false);
-  const [kind, setKind] = useState<Kind>("A");
+  const [kind, setKind] = useState<Conversion>("A");
+  const [factorUnit, setFactorUnit] = useState<"A" | "V">("A");
   const [value, setValue] = useState("");
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const needsValue = kind === "sense" || kind === "msense" || kind === "factor";
+  const needs = needsOf(kind);
 
   async function save() {
-    let body: Record<string, unknown>;
-    if (needsValue) {
-      const v = Number(value);
-      if (!Number.isFinite(v) || v <= 0) {
-        setMessage({ ok: false, text: kind === "factor" ? "Probe factor: enter a number above zero, in A/V." : "Sense resistor: enter a resistance above zero, in Ω." });
-        return;
-      }
-      body = { channel: props.channel, sourceUnit: kind === "msense" ? "mV" : "V", scale: kind === "factor" ? v : 1 / v, unit: "A" };
-    } else body = { channel: props.channel, sourceUnit: kind, scale: 1 };
+    const { settings, error } = conversionSettings(kind, value, kind === "factor" ? factorUnit : undefined);
+    if (error) {
+      setMessage({ ok: false, text: error });
+      return;
+    }
+    // The server needs the file's unit named: a sense resistor or probe reads volts unless the choice says otherwise.
+    const body = { channel: props.channel, sourceUnit: settings.sourceUnit ?? "V", scale: settings.scale ?? 1, ...(settings.unit ? { unit: settings.unit } : {}) };
     setBusy(true);
     setMessage(null);
     try {
@@ -51,7 +42,7 @@ export function ChannelCorrection(props: {
         setMessage({ ok: false, text: fe ?? out.error ?? `The correction was not saved (HTTP ${r.status}).` });
         return;
       }
-      setMessage({ ok: true, text: `Saved: ${props.current.name} is now in ${body.unit ?? (String(body.sourceUnit).endsWith("A") ? "A" : "V")} (settings version ${out.settingsVersion}).` });
+      setMessage({ ok: true, text: `Saved: ${props.current.name} is now in ${settings.unit ?? (body.sourceUnit.endsWith("A") ? "A" : "V")} (settings version ${out.settingsVersion}).` });
       setOpen(false);
       props.onSaved();
     } finally {
@@ -69,14 +60,23 @@ export function ChannelCorrection(props: {
         <div className="flex flex-wrap items-end gap-3 rounded border border-hairline p-2">
           <label className="flex flex-col">
             <span className="text-xs text-ink-muted">The numbers in the file are</span>
-            <select className={FIELD} value={kind} onChange={(e) => setKind(e.target.value as Kind)} aria-label="Channel unit correction">
-              {KINDS.map((k) => <option key={k.value} value={k.value}>{k.label}</option>)}
+            <select className={FIELD} value={kind} onChange={(e) => setKind(e.target.value as Conversion)} aria-label="Channel unit correction">
+              {CHOICES.map((k) => <option key={k.value} value={k.value}>{k.label}</option>)}
             </select>
           </label>
-          {needsValue && (
+          {needs && (
             <label className="flex flex-col">
-              <span className="text-xs text-ink-muted">{kind === "factor" ? "Probe factor, A/V" : "Sense resistor, Ω"}</span>
-              <input className={`${FIELD} num w-28`} value={value} inputMode="decimal" onChange={(e) => setValue(e.target.value)} aria-label={kind === "factor" ? "Correction probe factor" : "Correction sense resistor"} />
+              <span className="text-xs text-ink-muted">{needs === "factor" ? "Probe factor" : "Sense resistor, Ω"}</span>
+              <input className={`${FIELD} num w-28`} value={value} inputMode="decimal" onChange={(e) => setValue(e.target.value)} aria-label={needs === "factor" ? "Correction probe factor" : "Correction sense resistor"} />
+            </label>
+          )}
+          {needs === "factor" && (
+            <label className="flex flex-col">
+              <span className="text-xs text-ink-muted">Unit after</span>
+              <select className={FIELD} value={factorUnit} onChange={(e) => setFactorUnit(e.target.value as "A" | "V")} aria-label="Correction unit after">
+                <option value="A">A (a current probe, A/V)</option>
+                <option value="V">V (a voltage probe)</option>
+              </select>
             </label>
           )}
           <button type="button" disabled={busy} onClick={() => void save()} className="rounded bg-signal px-3 py-1.5 text-sm font-medium text-white disabled:opacity-50">

@@ -7,35 +7,15 @@ import { useEffect, useMemo, useState, type FormEvent } from "react";
 import { parseTraceCsv, TraceParseError, type ChannelOption, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 import { formatEng } from "@/lib/units/eng";
 import { FIELD } from "@/components/shell/classes";
+import { CONVERSIONS, conversionSettings, needsOf, type Conversion } from "@/lib/traces/conversions";
 
-type Convert = "keep" | "A" | "mA" | "V" | "mV" | "factor" | "sense";
-interface ChannelForm { name: string; convert: Convert; value: string; unit: "" | "V" | "A" }
-
-/** What the numbers of a channel are: the choices of the upload form and of the correction after upload. */
-export const CONVERSIONS: { value: Convert; label: string }[] = [
-  { value: "keep", label: "as the file says" },
-  { value: "A", label: "already in amperes (A)" },
-  { value: "mA", label: "in milliamperes (mA)" },
-  { value: "V", label: "already in volts (V)" },
-  { value: "mV", label: "in millivolts (mV)" },
-  { value: "factor", label: "multiply by a probe factor" },
-  { value: "sense", label: "volts across a sense resistor → amps" },
-];
+interface ChannelForm { name: string; convert: Conversion; value: string; unit: "" | "V" | "A" }
 
 function channelOption(c: ChannelForm): { option: ChannelOption; error: string | null } {
-  const option: ChannelOption = {};
+  const { settings, error } = conversionSettings(c.convert, c.value, c.unit || undefined);
+  const option: ChannelOption = { ...settings };
   if (c.name.trim()) option.name = c.name.trim();
-  if (c.convert === "A" || c.convert === "mA" || c.convert === "V" || c.convert === "mV") {
-    option.sourceUnit = c.convert;
-    return { option, error: null };
-  }
-  if (c.convert !== "keep") {
-    const v = Number(c.value);
-    if (!Number.isFinite(v) || v === 0) return { option, error: c.convert === "sense" ? "Sense resistor: enter a resistance in Ω, not zero" : "Scale factor: enter a non-zero number" };
-    option.scale = c.convert === "sense" ? 1 / v : v;
-    option.unit = c.convert === "sense" ? "A" : c.unit || undefined;
-  }
-  return { option, error: null };
+  return { option, error };
 }
 
 export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded }: { scenarioId: string; revisionId: string; revisionNumber: number; onUploaded: () => void }) {
@@ -142,13 +122,13 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
                 <input className={FIELD} value={c.name} aria-label={`Channel ${i + 1} name`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, name: e.target.value } : x)))} />
               </label>
               <label className="flex flex-col"><span className="text-xs text-ink-muted">Conversion</span>
-                <select className={FIELD} value={c.convert} aria-label={`Channel ${i + 1} conversion`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, convert: e.target.value as Convert } : x)))}>
+                <select className={FIELD} value={c.convert} aria-label={`Channel ${i + 1} conversion`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, convert: e.target.value as Conversion } : x)))}>
                   {CONVERSIONS.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
                 </select>
               </label>
-              {(c.convert === "factor" || c.convert === "sense") && (
-                <label className="flex flex-col"><span className="text-xs text-ink-muted">{c.convert === "sense" ? "Sense resistor, Ω" : "Factor (e.g. 10 for 10 A/V)"}</span>
-                  <input className={`${FIELD} num w-28`} value={c.value} inputMode="decimal" aria-label={c.convert === "sense" ? `Channel ${i + 1} sense resistor` : `Channel ${i + 1} factor`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, value: e.target.value } : x)))} />
+              {needsOf(c.convert) && (
+                <label className="flex flex-col"><span className="text-xs text-ink-muted">{needsOf(c.convert) === "factor" ? "Factor (e.g. 10 for 10 A/V)" : "Sense resistor, Ω"}</span>
+                  <input className={`${FIELD} num w-28`} value={c.value} inputMode="decimal" aria-label={needsOf(c.convert) === "factor" ? `Channel ${i + 1} factor` : `Channel ${i + 1} sense resistor`} onChange={(e) => setChannels(channels.map((x, j) => (j === i ? { ...x, value: e.target.value } : x)))} />
                 </label>
               )}
               {c.convert === "factor" && (
