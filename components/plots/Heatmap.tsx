@@ -25,6 +25,8 @@ export interface HeatmapProps {
 }
 
 const PAD = { left: 64, right: 78, top: 10, bottom: 40 };
+/** The colour bar: its gap from the cells and its width, CSS px (it runs the cells' height, in the right margin). */
+const BAR = { gap: 14, width: 12 };
 
 export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(function Heatmap(props, ref) {
   const { xValues, yValues, values, failed, xLabel, yLabel, xUnit, yUnit, metricLabel, metricUnit, height = 300 } = props;
@@ -83,15 +85,15 @@ export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(func
     ctx.restore();
     // colour bar
     if (Number.isFinite(lo)) {
-      const bx = width - PAD.right + 14;
+      const bx = width - PAD.right + BAR.gap;
       for (let i = 0; i < h; i++) {
         ctx.fillStyle = ramp(1 - i / h);
-        ctx.fillRect(bx, PAD.top + i, 12, 1.5);
+        ctx.fillRect(bx, PAD.top + i, BAR.width, 1.5);
       }
       ctx.textAlign = "left";
       ctx.fillStyle = "#1C2430";
-      ctx.fillText(formatEng(hi, metricUnit), bx + 15, PAD.top + 9);
-      ctx.fillText(formatEng(lo, metricUnit), bx + 15, PAD.top + h);
+      ctx.fillText(formatEng(hi, metricUnit), bx + BAR.width + 3, PAD.top + 9);
+      ctx.fillText(formatEng(lo, metricUnit), bx + BAR.width + 3, PAD.top + h);
     }
   }, [xValues, yValues, values, failed, width, height, xLabel, yLabel, xUnit, yUnit, metricUnit], { width, height });
   useImperativeHandle(ref, () => ({ toPng: () => canvas.current?.toDataURL("image/png") ?? null }));
@@ -115,6 +117,7 @@ export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(func
     setHover(`${xLabel} ${formatEng(xValues[ix]!, xUnit)}, ${yLabel} ${formatEng(yValues[iy]!, yUnit)}: ${metricLabel} ${Number.isFinite(v) ? formatEng(v, metricUnit) : "—"}`);
   };
 
+  const plotW = width - PAD.left - PAD.right, plotH = height - PAD.top - PAD.bottom;
   return (
     <div className="w-full">
       <canvas
@@ -123,6 +126,11 @@ export const Heatmap = forwardRef<{ toPng(): string | null }, HeatmapProps>(func
         role="img"
         aria-label={`Map of ${metricLabel} over ${xLabel} and ${yLabel}`}
         data-testid="map-canvas"
+        // the grid ("nx ny") and where its cells and the colour bar lie, CSS px ("left top width height"): what a
+        // reader of the painted pixels needs
+        data-grid={`${xValues.length} ${yValues.length}`}
+        data-cells-box={`${PAD.left} ${PAD.top} ${plotW} ${plotH}`}
+        data-scale-box={`${width - PAD.right + BAR.gap} ${PAD.top} ${BAR.width} ${plotH}`}
         onMouseMove={onMove}
         onMouseLeave={() => setHover(null)}
       />

@@ -100,72 +100,79 @@ function drawOverlays(u: uPlot, list: Overlay[] | undefined) {
   ctx.restore();
 }
 
-function drawMarkers(u: uPlot, list: Marker[] | undefined) {
-  if (!list || list.length === 0) return;
+/**
+ * What the markers and the cursors share: the context saved, the label font and a 1 px line in canvas pixels (uPlot
+ * draws at the device pixel ratio), the plot area; restored after `draw`.
+ */
+function withAnnotationInk(u: uPlot, draw: (ctx: CanvasRenderingContext2D, pr: number, box: uPlot.BBox) => void) {
   const ctx = u.ctx;
-  const { left, top, width, height } = u.bbox;
   const pr = uPlot.pxRatio;
   ctx.save();
   ctx.font = `${11 * pr}px "Inter Variable", system-ui, sans-serif`;
   ctx.lineWidth = 1 * pr;
-  ctx.setLineDash([4 * pr, 3 * pr]);
-  for (const m of list) {
-    ctx.strokeStyle = m.color;
-    ctx.fillStyle = m.color;
-    if (m.x !== undefined && m.y !== undefined && m.scale && Number.isFinite(m.x) && Number.isFinite(m.y)) {
-      // a point: a small ring with its label beside it
-      const X = u.valToPos(m.x, "x", true), Y = u.valToPos(m.y, m.scale, true);
-      if (X < left || X > left + width || Y < top || Y > top + height) continue;
-      ctx.setLineDash([]);
-      ctx.beginPath();
-      ctx.arc(X, Y, 3.5 * pr, 0, 2 * Math.PI);
-      ctx.stroke();
-      const w = ctx.measureText(m.label).width;
-      ctx.fillText(m.label, X + 6 * pr + w > left + width ? X - 6 * pr - w : X + 6 * pr, Y + 4 * pr);
-      ctx.setLineDash([4 * pr, 3 * pr]);
-    } else if (m.x !== undefined && Number.isFinite(m.x)) {
-      const X = u.valToPos(m.x, "x", true);
-      if (X < left || X > left + width) continue;
-      ctx.beginPath();
-      ctx.moveTo(X, top);
-      ctx.lineTo(X, top + height);
-      ctx.stroke();
-      ctx.fillText(m.label, Math.min(X + 4 * pr, left + width - ctx.measureText(m.label).width), top + 12 * pr);
-    } else if (m.y !== undefined && m.scale && Number.isFinite(m.y)) {
-      const Y = u.valToPos(m.y, m.scale, true);
-      if (Y < top || Y > top + height) continue;
-      ctx.beginPath();
-      ctx.moveTo(left, Y);
-      ctx.lineTo(left + width, Y);
-      ctx.stroke();
-      ctx.fillText(m.label, left + width - ctx.measureText(m.label).width - 4 * pr, Y - 4 * pr);
-    }
+  try {
+    draw(ctx, pr, u.bbox);
+  } finally {
+    ctx.restore();
   }
-  ctx.restore();
+}
+
+function drawMarkers(u: uPlot, list: Marker[] | undefined) {
+  if (!list || list.length === 0) return;
+  withAnnotationInk(u, (ctx, pr, { left, top, width, height }) => {
+    ctx.setLineDash([4 * pr, 3 * pr]);
+    for (const m of list) {
+      ctx.strokeStyle = m.color;
+      ctx.fillStyle = m.color;
+      if (m.x !== undefined && m.y !== undefined && m.scale && Number.isFinite(m.x) && Number.isFinite(m.y)) {
+        // a point: a small ring with its label beside it
+        const X = u.valToPos(m.x, "x", true), Y = u.valToPos(m.y, m.scale, true);
+        if (X < left || X > left + width || Y < top || Y > top + height) continue;
+        ctx.setLineDash([]);
+        ctx.beginPath();
+        ctx.arc(X, Y, 3.5 * pr, 0, 2 * Math.PI);
+        ctx.stroke();
+        const w = ctx.measureText(m.label).width;
+        ctx.fillText(m.label, X + 6 * pr + w > left + width ? X - 6 * pr - w : X + 6 * pr, Y + 4 * pr);
+        ctx.setLineDash([4 * pr, 3 * pr]);
+      } else if (m.x !== undefined && Number.isFinite(m.x)) {
+        const X = u.valToPos(m.x, "x", true);
+        if (X < left || X > left + width) continue;
+        ctx.beginPath();
+        ctx.moveTo(X, top);
+        ctx.lineTo(X, top + height);
+        ctx.stroke();
+        ctx.fillText(m.label, Math.min(X + 4 * pr, left + width - ctx.measureText(m.label).width), top + 12 * pr);
+      } else if (m.y !== undefined && m.scale && Number.isFinite(m.y)) {
+        const Y = u.valToPos(m.y, m.scale, true);
+        if (Y < top || Y > top + height) continue;
+        ctx.beginPath();
+        ctx.moveTo(left, Y);
+        ctx.lineTo(left + width, Y);
+        ctx.stroke();
+        ctx.fillText(m.label, left + width - ctx.measureText(m.label).width - 4 * pr, Y - 4 * pr);
+      }
+    }
+  });
 }
 
 /** Cursor A and B lines, in ink at low weight, labelled at the top. */
 function drawCursors(u: uPlot, cursors: (number | null)[]) {
-  const ctx = u.ctx;
-  const { left, top, width, height } = u.bbox;
-  const pr = uPlot.pxRatio;
-  ctx.save();
-  ctx.font = `${11 * pr}px "Inter Variable", system-ui, sans-serif`;
-  ctx.lineWidth = 1 * pr;
-  ctx.strokeStyle = "#1C2430";
-  ctx.fillStyle = "#1C2430";
-  cursors.forEach((x, i) => {
-    if (x === null || !Number.isFinite(x)) return;
-    const X = u.valToPos(x, "x", true);
-    if (X < left || X > left + width) return;
-    ctx.setLineDash(i === 0 ? [] : [6 * pr, 3 * pr]);
-    ctx.beginPath();
-    ctx.moveTo(X, top);
-    ctx.lineTo(X, top + height);
-    ctx.stroke();
-    ctx.fillText(i === 0 ? "A" : "B", X + 3 * pr, top + height - 4 * pr);
+  withAnnotationInk(u, (ctx, pr, { left, top, width, height }) => {
+    ctx.strokeStyle = "#1C2430";
+    ctx.fillStyle = "#1C2430";
+    cursors.forEach((x, i) => {
+      if (x === null || !Number.isFinite(x)) return;
+      const X = u.valToPos(x, "x", true);
+      if (X < left || X > left + width) return;
+      ctx.setLineDash(i === 0 ? [] : [6 * pr, 3 * pr]);
+      ctx.beginPath();
+      ctx.moveTo(X, top);
+      ctx.lineTo(X, top + height);
+      ctx.stroke();
+      ctx.fillText(i === 0 ? "A" : "B", X + 3 * pr, top + height - 4 * pr);
+    });
   });
-  ctx.restore();
 }
 
 /** Index of the sample nearest to x in an ascending column. */
