@@ -11,12 +11,14 @@ import type { Scenario } from "@/lib/design/schema";
  * The schematic's labels keep clear of each other, of the wires and of the symbols, in every template and with every
  * optional network fitted, before a run and with the operating point drawn over it. Measured in Chromium on the
  * rendered SVG (tests/e2e/schematic-geometry.ts says how, and why the tolerance is OVERLAP_TOLERANCE = 0.5 viewBox
- * units). The scenarios are made through the API as the designer and opened in the workbench.
+ * units). The scenarios are made through the API as the designer, opened in the workbench, and deleted afterwards
+ * (other suites look for the demo scenarios on the first page of the list).
  */
 describe("schematic labels", () => {
   let browser: Browser;
   let page: Page;
   let errors: string[];
+  const created: string[] = [];
 
   beforeAll(async () => {
     browser = await launch();
@@ -26,6 +28,14 @@ describe("schematic labels", () => {
   });
 
   afterAll(async () => {
+    if (page) {
+      const statuses = await page.evaluate(async (ids) => {
+        const out: number[] = [];
+        for (const id of ids) out.push((await fetch(`/api/scenarios/${id}`, { method: "DELETE" })).status);
+        return out;
+      }, created);
+      expect(statuses.filter((st) => st !== 204)).toEqual([]);
+    }
     await browser?.close();
   });
 
@@ -81,9 +91,9 @@ describe("schematic labels", () => {
     });
   }
 
-  /** Makes a scenario through the API as the signed-in designer; returns its id. */
+  /** Makes a scenario through the API as the signed-in designer; returns its id (deleted after the suite). */
   async function create(title: string, body: Scenario): Promise<string> {
-    return page.evaluate(async ({ title, body }) => {
+    const id = await page.evaluate(async ({ title, body }) => {
       const r = await fetch("/api/scenarios", {
         method: "POST",
         headers: { "content-type": "application/json" },
@@ -92,5 +102,7 @@ describe("schematic labels", () => {
       if (r.status !== 201) throw new Error(`creating "${title}": ${r.status} ${await r.text()}`);
       return ((await r.json()) as { id: string }).id;
     }, { title, body });
+    created.push(id);
+    return id;
   }
 });
