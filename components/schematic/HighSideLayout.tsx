@@ -1,17 +1,34 @@
 import { formatEng } from "@/lib/units/eng";
-import { NetworkPieces } from "./networks";
-import { Part, Label, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
+import { NetworkPieces, type NetworkAnchors } from "./networks";
+import { Part, Label, LoadLabel, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
 import { Bjt, Cable, Capacitor, Dot, Ground, Mosfet, OpAmp, Resistor, VoltageSource, Wire } from "./symbols";
+
+/*
+ * Where things are (viewBox units). The supply rail runs along y 40; the op-amp sits at (220, 190) with the feedback
+ * resistor (y 110) and the compensation capacitor (y 140) over it; the pass device's emitter/source is at (430, 150)
+ * under the sense resistor, its collector/drain at (430, 230) over the cable and the grounded load. Labels go where
+ * the font's whole box (ascent to descent) clears every stroke.
+ */
+/** The sense, pass-device, cable and load column, x. */
+const PASS_X = 430;
+/** The feedback resistor's ends, over the op-amp. */
+const FEEDBACK = { x1: 250, x2: 350, y: 110 };
 
 /** High-side source: PNP or P-MOSFET, sense resistor from the rail to the emitter/source, grounded load. */
 export function HighSideLayout({ s, sel, on, op }: LayoutProps) {
   const p = s.parts;
   const pmos = s.pass.kind === "pmos";
   const V = op?.nodes;
+  const anchors: NetworkAnchors = {
+    load: { x: PASS_X, y1: 280, y2: 356 },
+    // the base–emitter resistor rises from the base lead to the emitter's wire, its value over that wire
+    pass: { cx: PASS_X, cy: 230, ex: PASS_X, ey: 150, bx: 400, by: 190, baseEmitter: { x: 384, y1: 190, y2: 150, tee: false, value: [384, 144, "middle"] } },
+    feedback: { ...FEEDBACK, above: true },
+  };
   return (
     <g>
       <Wire d={[[60, 40], [520, 40], [520, 60]]} />
-      <Part id="loadSupply" label={`Supply ${formatEng(s.supplies.load, "V")}`} box={[500, 54, 56, 64]} selected={sel} onSelect={on}>
+      <Part id="loadSupply" label={`Supply ${formatEng(s.supplies.load, "V")}`} box={[500, 54, 88, 64]} selected={sel} onSelect={on}>
         <VoltageSource x={520} y1={60} y2={110} />
         <Label x={540} y={90}>{formatEng(s.supplies.load, "V")}</Label>
       </Part>
@@ -34,14 +51,14 @@ export function HighSideLayout({ s, sel, on, op }: LayoutProps) {
       <Part id="opamp" label={`Op-amp: ${s.opamp.preset}`} box={[214, 148, 92, 84]} selected={sel} onSelect={on}>
         <OpAmp x={220} y={190} />
       </Part>
-      <Wire d={[[220, 210], [196, 210], [196, 110], [250, 110]]} />
+      <Wire d={[[220, 210], [196, 210], [196, FEEDBACK.y], [FEEDBACK.x1, FEEDBACK.y]]} />
       <Dot x={196} y={140} />
-      <Part id="feedbackResistor" label={`Feedback resistor ${r(p.feedbackResistor)}`} box={[248, 96, 104, 30]} selected={sel} onSelect={on}>
-        <Resistor x1={250} y1={110} x2={350} y2={110} />
-        <Label x={300} y={96} anchor="middle">{r(p.feedbackResistor)}</Label>
+      <Part id="feedbackResistor" label={`Feedback resistor ${r(p.feedbackResistor)}`} box={[FEEDBACK.x1, 82, FEEDBACK.x2 - FEEDBACK.x1, 36]} selected={sel} onSelect={on}>
+        <Resistor x1={FEEDBACK.x1} y1={FEEDBACK.y} x2={FEEDBACK.x2} y2={FEEDBACK.y} />
+        <Label x={(FEEDBACK.x1 + FEEDBACK.x2) / 2} y={FEEDBACK.y - 13} anchor="middle">{r(p.feedbackResistor)}</Label>
       </Part>
-      <Wire d={[[350, 110], [410, 110]]} />
-      <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[198, 126, 96, 28]} selected={sel} onSelect={on}>
+      <Wire d={[[FEEDBACK.x2, FEEDBACK.y], [PASS_X, FEEDBACK.y]]} />
+      <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[198, 122, 126, 30]} selected={sel} onSelect={on}>
         <Wire d={[[196, 140], [226, 140]]} />
         <Capacitor x1={226} y1={140} x2={266} y2={140} />
         {/* above and right of the capacitor, clear of the op-amp body */}
@@ -50,35 +67,38 @@ export function HighSideLayout({ s, sel, on, op }: LayoutProps) {
       <Wire d={[[266, 140], [310, 140], [310, 190]]} />
       <Wire d={[[300, 190], [310, 190]]} />
       <Dot x={310} y={190} />
-      <Part id="baseResistor" label={`${pmos ? "Gate" : "Base"} resistor ${r(p.baseResistor)}`} box={[312, 176, 66, 28]} selected={sel} onSelect={on}>
-        <Resistor x1={310} y1={190} x2={380} y2={190} />
-        <Label x={345} y={214} anchor="middle">{r(p.baseResistor)}</Label>
+      <Part id="baseResistor" label={`${pmos ? "Gate" : "Base"} resistor ${r(p.baseResistor)}`} box={[312, 164, 76, 34]} selected={sel} onSelect={on}>
+        <Resistor x1={310} y1={190} x2={400} y2={190} />
+        {/* over the resistor, ending with its body: right of that rises the base–emitter resistor */}
+        <Label x={373} y={179} anchor="end">{r(p.baseResistor)}</Label>
       </Part>
-      <Part id="senseResistor" label={`Sense resistor ${r(p.senseResistor)}`} box={[396, 44, 86, 62]} selected={sel} onSelect={on}>
-        <Resistor x1={410} y1={40} x2={410} y2={110} />
-        <Label x={422} y={78}>{r(p.senseResistor)}</Label>
+      <Part id="senseResistor" label={`Sense resistor ${r(p.senseResistor)}`} box={[416, 44, 86, 62]} selected={sel} onSelect={on}>
+        <Resistor x1={PASS_X} y1={40} x2={PASS_X} y2={110} />
+        <Label x={PASS_X + 12} y={78}>{r(p.senseResistor)}</Label>
       </Part>
-      <Dot x={410} y={110} />
-      <Wire d={[[410, 110], [410, 150]]} />
-      <Part id="pass" label={`Pass device: ${s.pass.preset}`} box={[378, 146, 54, 88]} selected={sel} onSelect={on}>
-        {pmos ? <Mosfet x={380} y={190} p /> : <Bjt x={380} y={190} pnp />}
+      <Dot x={PASS_X} y={110} />
+      <Wire d={[[PASS_X, 110], [PASS_X, 150]]} />
+      <Part id="pass" label={`Pass device: ${s.pass.preset}`} box={[398, 146, 54, 88]} selected={sel} onSelect={on}>
+        {pmos ? <Mosfet x={400} y={190} p /> : <Bjt x={400} y={190} pnp />}
       </Part>
-      <Part id="cable" label={`Cable ${formatEng(s.load.cable.length, "m")}`} box={[396, 232, 70, 50]} selected={sel} onSelect={on}>
-        <Cable x={410} y1={230} y2={280} />
-        <Label x={430} y={262}>{s.load.cable.length > 0 ? `cable ${formatEng(s.load.cable.length, "m")}` : "no cable"}</Label>
+      <Part id="cable" label={`Cable ${formatEng(s.load.cable.length, "m")}`} box={[320, 232, 124, 46]} selected={sel} onSelect={on}>
+        <Cable x={PASS_X} y1={230} y2={280} />
+        <Label x={PASS_X - 18} y={259} anchor="end">{s.load.cable.length > 0 ? `cable ${formatEng(s.load.cable.length, "m")}` : "no cable"}</Label>
       </Part>
-      <Part id="load" label={`Load: ${loadText(s)}`} box={[380, 282, 120, 76]} selected={sel} onSelect={on}>
-        <LoadSymbol s={s} x={410} y1={280} y2={356} />
-        <Label x={448} y={324}>{loadText(s)}</Label>
+      <Part id="load" label={`Load: ${loadText(s)}`} box={[330, 282, 120, 74]} selected={sel} onSelect={on}>
+        <LoadSymbol s={s} x={PASS_X} y1={280} y2={356} />
+        <LoadLabel s={s} x={PASS_X - 18} y={318} />
       </Part>
-      <Ground x={410} y={356} />
-      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 410, y1: 280, y2: 356, side: "left" }, pass: { cx: 410, cy: 230, ex: 410, ey: 150, bx: 380, by: 190 }, feedback: { x1: 250, x2: 350, y: 110, above: true } }} />
+      <Ground x={PASS_X} y={356} />
+      <NetworkPieces s={s} sel={sel} on={on} anchors={anchors} />
       {V && (
         <g>
           <Tag x={154} y={164} v={V.ref} anchor="end" />
-          <Tag x={306} y={182} v={V.oa} anchor="end" />
-          <Tag x={416} y={126} v={V.e} />
-          <Tag x={416} y={226} v={V.c} />
+          {/* the output, under the base resistor: over it sits the resistor's value, in the triangle its pins */}
+          <Tag x={314} y={210} v={V.oa} />
+          <Tag x={PASS_X + 6} y={130} v={V.e} />
+          {/* the collector, left of its lead and under the device */}
+          <Tag x={PASS_X - 4} y={229} v={V.c} anchor="end" />
         </g>
       )}
     </g>

@@ -1,6 +1,6 @@
 import { formatEng } from "@/lib/units/eng";
 import { NetworkPieces } from "./networks";
-import { Part, Label, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
+import { Part, Label, LoadLabel, Tag, LoadSymbol, loadText, r, c, type LayoutProps } from "./parts";
 import { Cable, Capacitor, Dot, Ground, OpAmp, Resistor, VoltageSource, Wire } from "./symbols";
 
 /** Improved Howland pump. */
@@ -31,17 +31,18 @@ export function HowlandLayout({ s, sel, on, op }: LayoutProps) {
       </Part>
       <Wire d={[[220, 250], [130, 250]]} />
       <Dot x={190} y={250} />
-      <Part id="howlandR3" label={`R3 ${r(p.howlandR3)}`} box={[116, 262, 70, 64]} selected={sel} onSelect={on}>
+      <Part id="howlandR3" label={`R3 ${r(p.howlandR3)}`} box={[66, 262, 70, 64]} selected={sel} onSelect={on}>
         <Resistor x1={130} y1={250} x2={130} y2={330} />
-        <Label x={122} y={290} anchor="end">R3</Label>
-        <Label x={122} y={305} anchor="end">{r(p.howlandR3)}</Label>
+        {/* two lines a line's height apart (the command source's ground is left of them) */}
+        <Label x={120} y={286} anchor="end">R3</Label>
+        <Label x={120} y={304} anchor="end">{r(p.howlandR3)}</Label>
       </Part>
       <Ground x={130} y={330} />
       <Wire d={[[190, 250], [190, 340]]} />
       <Dot x={190} y={300} />
-      <Part id="howlandR4" label={`R4 ${r(p.howlandR4)}`} box={[196, 286, 108, 30]} selected={sel} onSelect={on}>
+      <Part id="howlandR4" label={`R4 ${r(p.howlandR4)}`} box={[196, 272, 108, 34]} selected={sel} onSelect={on}>
         <Resistor x1={190} y1={300} x2={310} y2={300} />
-        <Label x={250} y={292} anchor="middle">R4 {r(p.howlandR4)}</Label>
+        <Label x={250} y={288} anchor="middle">R4 {r(p.howlandR4)}</Label>
       </Part>
       <Part id="compCapacitor" label={`Compensation capacitor ${c(p.compCapacitor)}`} box={[196, 326, 108, 30]} selected={sel} onSelect={on}>
         <Wire d={[[190, 340], [230, 340]]} />
@@ -62,16 +63,18 @@ export function HowlandLayout({ s, sel, on, op }: LayoutProps) {
       <Part id="cable" label={`Cable ${formatEng(s.load.cable.length, "m")}`} box={[436, 240, 70, 44]} selected={sel} onSelect={on}>
         <Cable x={450} y1={240} y2={280} />
       </Part>
-      <Part id="load" label={`Load: ${loadText(s)}`} box={[420, 282, 130, 76]} selected={sel} onSelect={on}>
+      <Part id="load" label={`Load: ${loadText(s)}`} box={[350, 282, 130, 76]} selected={sel} onSelect={on}>
         <LoadSymbol s={s} x={450} y1={280} y2={356} />
-        <Label x={476} y={324}>{loadText(s)}</Label>
+        {/* left of the load, in the room between it and the R4–Cc loop; the clamp and the snubber are on its right */}
+        <LoadLabel s={s} x={432} y={318} />
       </Part>
       <Ground x={450} y={356} />
-      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 450, y1: 280, y2: 356, side: "left" } }} />
+      <NetworkPieces s={s} sel={sel} on={on} anchors={{ load: { x: 450, y1: 280, y2: 356 } }} />
       {V && (
         <g>
           <Tag x={166} y={204} v={V.p} />
-          <Tag x={306} y={222} v={V.oa} anchor="end" />
+          {/* the output, under the wire to Rs: clear of the triangle */}
+          <Tag x={314} y={250} v={V.oa} />
           <Tag x={456} y={222} v={V.c} />
         </g>
       )}

@@ -22,6 +22,8 @@ export interface LayoutProps {
 
 export type Box = [number, number, number, number];
 
+export type TextAnchor = "start" | "middle" | "end";
+
 export function Part(props: { id: string; label: string; box: Box; selected: string | null; onSelect: (k: string) => void; children: ReactNode }) {
   const { id, label, box, selected, onSelect, children } = props;
   const on = selected === id;
@@ -54,7 +56,7 @@ export function Part(props: { id: string; label: string; box: Box; selected: str
   );
 }
 
-export function Label({ x, y, children, anchor = "start" }: { x: number; y: number; children: ReactNode; anchor?: "start" | "middle" | "end" }) {
+export function Label({ x, y, children, anchor = "start" }: { x: number; y: number; children: ReactNode; anchor?: TextAnchor }) {
   return (
     <text x={x} y={y} fontSize={12.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>
       {children}
@@ -62,7 +64,7 @@ export function Label({ x, y, children, anchor = "start" }: { x: number; y: numb
   );
 }
 
-export function Tag({ x, y, v, anchor = "start" }: { x: number; y: number; v: number | undefined; anchor?: "start" | "middle" | "end" }) {
+export function Tag({ x, y, v, anchor = "start" }: { x: number; y: number; v: number | undefined; anchor?: TextAnchor }) {
   if (v === undefined || !Number.isFinite(v)) return null;
   return (
     <text x={x} y={y} fontSize={12} fill="#0F766E" fontWeight={600} textAnchor={anchor} className="num" data-testid="op-tag">
@@ -107,12 +109,37 @@ export function LoadSymbol({ s, x, y1, y2 }: { s: Scenario; x: number; y1: numbe
   }
 }
 
-export function loadText(s: Scenario): string {
+/** The load's value label in lines: a long one (coil, LED string, cell) in two, so it fits beside the load. */
+export function loadLines(s: Scenario): string[] {
   const L = s.load;
   switch (L.kind) {
-    case "resistor": return `${r(L.resistance)}`;
-    case "coil": return `${r(L.resistance)} + ${formatEng(L.inductance, "H")}`;
-    case "led": return `${L.ledCount} LEDs + ${r(L.resistance)}`;
-    case "cell": return `cell ${formatEng(L.cellVoltage, "V")}, ${r(L.resistance)}`;
+    case "resistor": return [r(L.resistance)];
+    case "coil": return [r(L.resistance), `+ ${formatEng(L.inductance, "H")}`];
+    case "led": return [`${L.ledCount} LEDs`, `+ ${r(L.resistance)}`];
+    case "cell": return [`cell ${formatEng(L.cellVoltage, "V")}`, `+ ${r(L.resistance)}`];
   }
+}
+
+/**
+ * Space between the baselines of a label's lines: the font box of a 12.5-unit label (ascent to descent) is about 17
+ * units, so its lines neither touch nor drift apart.
+ */
+const LINE_PITCH = 18;
+
+/** The load's value beside the load: its lines stacked about y (the middle of the load), ending at x. */
+export function LoadLabel({ s, x, y }: { s: Scenario; x: number; y: number }) {
+  const lines = loadLines(s);
+  const first = y + 4 - ((lines.length - 1) * LINE_PITCH) / 2;
+  return (
+    <>
+      {lines.map((line, i) => (
+        <Label key={i} x={x} y={first + i * LINE_PITCH} anchor="end">{line}</Label>
+      ))}
+    </>
+  );
+}
+
+/** The load's value on one line (the part's accessible name): the label's lines run together. */
+export function loadText(s: Scenario): string {
+  return loadLines(s).join(" ");
 }

@@ -11,13 +11,13 @@ export const STROKE = 1.6;
 /** A wire through the given points. */
 export function Wire({ d }: { d: [number, number][] }) {
   return (
-    <polyline points={d.map(([x, y]) => `${x},${y}`).join(" ")} fill="none" stroke={INK} strokeWidth={STROKE} strokeLinejoin="round" />
+    <polyline data-symbol="wire" points={d.map(([x, y]) => `${x},${y}`).join(" ")} fill="none" stroke={INK} strokeWidth={STROKE} strokeLinejoin="round" />
   );
 }
 
 /** A junction dot. */
 export function Dot({ x, y }: { x: number; y: number }) {
-  return <circle cx={x} cy={y} r={2.6} fill={INK} />;
+  return <circle data-symbol="junction" cx={x} cy={y} r={2.6} fill={INK} />;
 }
 
 /** Resistor (IEC 60617-04-01-01): a rectangle, horizontal from (x1,y) to (x2,y) or vertical from (x,y1) to (x,y2). */
@@ -29,7 +29,7 @@ export function Resistor({ x1, y1, x2, y2 }: { x1: number; y1: number; x2: numbe
   if (horizontal) {
     const a = Math.min(x1, x2);
     return (
-      <g>
+      <g data-symbol="resistor">
         <line x1={a} y1={y1} x2={a + lead} y2={y1} stroke={INK} strokeWidth={STROKE} />
         <rect x={a + lead} y={y1 - 6} width={body} height={12} fill="white" stroke={INK} strokeWidth={STROKE} />
         <line x1={a + lead + body} y1={y1} x2={a + Math.abs(len)} y2={y1} stroke={INK} strokeWidth={STROKE} />
@@ -38,7 +38,7 @@ export function Resistor({ x1, y1, x2, y2 }: { x1: number; y1: number; x2: numbe
   }
   const a = Math.min(y1, y2);
   return (
-    <g>
+    <g data-symbol="resistor">
       <line x1={x1} y1={a} x2={x1} y2={a + lead} stroke={INK} strokeWidth={STROKE} />
       <rect x={x1 - 6} y={a + lead} width={12} height={body} fill="white" stroke={INK} strokeWidth={STROKE} />
       <line x1={x1} y1={a + lead + body} x2={x1} y2={a + Math.abs(len)} stroke={INK} strokeWidth={STROKE} />
@@ -52,7 +52,7 @@ export function Capacitor({ x1, y1, x2, y2 }: { x1: number; y1: number; x2: numb
   if (horizontal) {
     const a = Math.min(x1, x2), b = Math.max(x1, x2), m = (a + b) / 2;
     return (
-      <g>
+      <g data-symbol="capacitor">
         <line x1={a} y1={y1} x2={m - 3} y2={y1} stroke={INK} strokeWidth={STROKE} />
         <line x1={m - 3} y1={y1 - 10} x2={m - 3} y2={y1 + 10} stroke={INK} strokeWidth={2.2} />
         <line x1={m + 3} y1={y1 - 10} x2={m + 3} y2={y1 + 10} stroke={INK} strokeWidth={2.2} />
@@ -62,7 +62,7 @@ export function Capacitor({ x1, y1, x2, y2 }: { x1: number; y1: number; x2: numb
   }
   const a = Math.min(y1, y2), b = Math.max(y1, y2), m = (a + b) / 2;
   return (
-    <g>
+    <g data-symbol="capacitor">
       <line x1={x1} y1={a} x2={x1} y2={m - 3} stroke={INK} strokeWidth={STROKE} />
       <line x1={x1 - 10} y1={m - 3} x2={x1 + 10} y2={m - 3} stroke={INK} strokeWidth={2.2} />
       <line x1={x1 - 10} y1={m + 3} x2={x1 + 10} y2={m + 3} stroke={INK} strokeWidth={2.2} />
@@ -80,7 +80,7 @@ export function Inductor({ x, y1, y2 }: { x: number; y1: number; y2: number }) {
   let d = `M ${x} ${y1} L ${x} ${y1 + lead}`;
   for (let i = 0; i < 4; i++) d += ` a ${r} ${r} 0 0 1 0 ${2 * r}`;
   d += ` L ${x} ${y2}`;
-  return <path d={d} fill="none" stroke={INK} strokeWidth={STROKE} />;
+  return <path data-symbol="inductor" d={d} fill="none" stroke={INK} strokeWidth={STROKE} />;
 }
 
 /** Diode (IEC 60617-05-03-01), anode at y1, cathode at y2 (vertical), optional light arrows for an LED. */
@@ -89,7 +89,7 @@ export function Diode({ x, y1, y2, led = false }: { x: number; y1: number; y2: n
   const m = (y1 + y2) / 2;
   const top = m - 7 * dir, bot = m + 7 * dir;
   return (
-    <g>
+    <g data-symbol={led ? "LED" : "diode"}>
       <line x1={x} y1={y1} x2={x} y2={top} stroke={INK} strokeWidth={STROKE} />
       <polygon points={`${x - 8},${top} ${x + 8},${top} ${x},${bot}`} fill="white" stroke={INK} strokeWidth={STROKE} />
       <line x1={x - 8} y1={bot} x2={x + 8} y2={bot} stroke={INK} strokeWidth={STROKE} />
@@ -107,7 +107,7 @@ export function Diode({ x, y1, y2, led = false }: { x: number; y1: number; y2: n
 /** Ground (IEC 60617-02-15-01): three shortening bars below (x,y). */
 export function Ground({ x, y }: { x: number; y: number }) {
   return (
-    <g stroke={INK} strokeWidth={STROKE}>
+    <g data-symbol="ground" stroke={INK} strokeWidth={STROKE}>
       <line x1={x} y1={y} x2={x} y2={y + 8} />
       <line x1={x - 10} y1={y + 8} x2={x + 10} y2={y + 8} />
       <line x1={x - 6} y1={y + 12} x2={x + 6} y2={y + 12} />
@@ -120,7 +120,7 @@ export function Ground({ x, y }: { x: number; y: number }) {
 export function VoltageSource({ x, y1, y2, label }: { x: number; y1: number; y2: number; label?: ReactNode }) {
   const m = (y1 + y2) / 2;
   return (
-    <g>
+    <g data-symbol="source">
       <line x1={x} y1={y1} x2={x} y2={y2} stroke={INK} strokeWidth={STROKE} />
       <circle cx={x} cy={m} r={14} fill="white" stroke={INK} strokeWidth={STROKE} />
       <line x1={x} y1={m - 14} x2={x} y2={m + 14} stroke={INK} strokeWidth={STROKE} />
@@ -133,7 +133,7 @@ export function VoltageSource({ x, y1, y2, label }: { x: number; y1: number; y2:
 /** Op-amp (IEC 60617-13-05-01 amplifier triangle): + input at (x, y-20), − input at (x, y+20), output at (x+80, y). */
 export function OpAmp({ x, y }: { x: number; y: number }) {
   return (
-    <g>
+    <g data-symbol="op-amp">
       <polygon points={`${x},${y - 40} ${x},${y + 40} ${x + 80},${y}`} fill="white" stroke={INK} strokeWidth={STROKE} strokeLinejoin="round" />
       <text x={x + 5} y={y - 16} fontSize={14} fill={INK}>+</text>
       <text x={x + 6} y={y + 25} fontSize={14} fill={INK}>−</text>
@@ -162,7 +162,7 @@ export function Bjt({ x, y, pnp = false }: { x: number; y: number; pnp?: boolean
   const ang = Math.atan2((pnp ? y - 28 : y + 28) - edge, 18) + (pnp ? Math.PI : 0);
   const head = (a: number) => `${ax + 8 * Math.cos(a)},${ay + 8 * Math.sin(a)}`;
   return (
-    <g>
+    <g data-symbol={pnp ? "PNP" : "NPN"}>
       <circle cx={x + 18} cy={y} r={24} fill="white" stroke={INK} strokeWidth={1.2} />
       <line x1={x} y1={y} x2={x + 12} y2={y} stroke={INK} strokeWidth={STROKE} />
       <line x1={x + 12} y1={y - 15} x2={x + 12} y2={y + 15} stroke={INK} strokeWidth={2.4} />
@@ -184,7 +184,7 @@ export function Mosfet({ x, y, p = false }: { x: number; y: number; p?: boolean 
   const segD = p ? y + 12 : y - 12;
   const segS = p ? y - 12 : y + 12;
   return (
-    <g>
+    <g data-symbol={p ? "P-MOSFET" : "N-MOSFET"}>
       <line x1={x} y1={y} x2={x + 10} y2={y} stroke={INK} strokeWidth={STROKE} />
       <line x1={x + 10} y1={y - 16} x2={x + 10} y2={y + 16} stroke={INK} strokeWidth={STROKE} />
       {[-12, 0, 12].map((o) => (
@@ -207,7 +207,7 @@ export function Mosfet({ x, y, p = false }: { x: number; y: number; p?: boolean 
 export function Cable({ x, y1, y2 }: { x: number; y1: number; y2: number }) {
   const m = (y1 + y2) / 2;
   return (
-    <g>
+    <g data-symbol="cable">
       <line x1={x} y1={y1} x2={x} y2={y2} stroke={INK} strokeWidth={STROKE} />
       <line x1={x + 8} y1={y1 + 6} x2={x + 8} y2={y2 - 6} stroke={INK} strokeWidth={STROKE} strokeDasharray="3 3" />
       <ellipse cx={x + 4} cy={m} rx={12} ry={5} fill="none" stroke={INK} strokeWidth={1.2} />
@@ -219,7 +219,7 @@ export function Cable({ x, y1, y2 }: { x: number; y1: number; y2: number }) {
 export function Cell({ x, y1, y2 }: { x: number; y1: number; y2: number }) {
   const m = (y1 + y2) / 2;
   return (
-    <g>
+    <g data-symbol="cell">
       <line x1={x} y1={y1} x2={x} y2={m - 4} stroke={INK} strokeWidth={STROKE} />
       <line x1={x - 14} y1={m - 4} x2={x + 14} y2={m - 4} stroke={INK} strokeWidth={STROKE} />
       <line x1={x - 7} y1={m + 4} x2={x + 7} y2={m + 4} stroke={INK} strokeWidth={3} />
