@@ -36,7 +36,7 @@ function loopFigures(r: LoopResult): BodeView & LoopFigures {
   return {
     freq: r.freq, magDb: r.magDb, phaseDeg: r.phaseDeg,
     phaseMarginDeg: r.phaseMarginDeg, gainMarginDb: r.gainMarginDb, crossoverHz: r.crossoverHz, crossovers: r.crossovers,
-    modulusMargin: r.modulusMargin, modulusMarginHz: r.modulusMarginHz,
+    modulusMargin: r.modulusMargin, modulusMarginHz: r.modulusMarginHz, unstable: r.unstable,
   };
 }
 

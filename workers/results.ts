@@ -26,6 +26,8 @@ export interface SmallSignalStepView {
   time: Float64Array;
   iLoad: Float64Array;
   metrics: StepMetrics;
+  /** the linearised step grows: its closed loop is unstable (lib/design/run.ts SmallSignalStep) */
+  grows: boolean;
 }
 
 export interface BodeView {
@@ -43,6 +45,8 @@ export interface LoopFigures {
   crossovers: number[];
   modulusMargin: number;
   modulusMarginHz: number;
+  /** T(jω) encircles −1: the closed loop is unstable and no margin is a margin */
+  unstable: boolean;
 }
 
 /** The current loop (the headline) with the op-amp's local loop beside it (null for the Howland pump). */

@@ -139,7 +139,7 @@ export function StepPlot({ step, ghost, measured = null, height = 230, title = "
         {step?.small && (
           <span className="mr-auto pl-3 text-[11px] text-ink-muted" data-testid="small-signal-legend">
             <span aria-hidden className="mr-1 inline-block w-5 border-t-2 border-dotted align-middle" style={{ borderColor: SMALL_SIGNAL_COLOR }} />
-            small-signal step (linearised circuit): overshoot {step.small.metrics.overshootPct.toFixed(1)} %
+            small-signal step (linearised circuit): {step.small.grows ? "grows — the loop is unstable" : `overshoot ${step.small.metrics.overshootPct.toFixed(1)} %`}
           </span>
         )}
         {measured && (

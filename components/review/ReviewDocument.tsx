@@ -113,7 +113,7 @@ export function ReviewDocument(p: ReviewProps) {
             {figures && (
               <p className="num text-sm" data-testid="review-step-figures">
                 Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} %
-                {sim.status === "done" && sim.sim.step.small ? ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
+                {sim.status === "done" && sim.sim.step.small ? (sim.sim.step.small.grows ? " (small-signal step grows: the loop is unstable)" : ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)`) : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
               </p>
             )}
             {notes.length > 0 && (
@@ -141,7 +141,7 @@ export function ReviewDocument(p: ReviewProps) {
                 ...(sim.sim.loop.loops.local ? [{ label: "∠T local op-amp loop, degrees", time: sim.sim.loop.loops.local.freq, values: sim.sim.loop.loops.local.phaseDeg, color: "#E69F00" }] : []),
               ]} />
             <p className="num text-sm" data-testid="review-loop-figures">
-              Current loop (broken between the op-amp's output and the base/gate resistor): phase margin {sim.sim.loop.phaseMarginDeg === null ? "—" : `${sim.sim.loop.phaseMarginDeg.toFixed(1)}°`} · crossover {sim.sim.loop.crossoverHz === null ? "—" : formatEng(sim.sim.loop.crossoverHz, "Hz")}{sim.sim.loop.crossovers.length > 1 ? ` (least margin of ${sim.sim.loop.crossovers.length} crossings)` : ""} · gain margin {sim.sim.loop.gainMarginDb === null ? "—" : `${sim.sim.loop.gainMarginDb.toFixed(1)} dB`} · modulus margin {sim.sim.loop.modulusMargin.toFixed(2)}
+              Current loop (broken between the op-amp's output and the base/gate resistor): phase margin {sim.sim.loop.phaseMarginDeg === null ? "—" : `${sim.sim.loop.phaseMarginDeg.toFixed(1)}°`} · crossover {sim.sim.loop.crossoverHz === null ? "—" : formatEng(sim.sim.loop.crossoverHz, "Hz")}{sim.sim.loop.crossovers.length > 1 ? ` (least margin of ${sim.sim.loop.crossovers.length} crossings)` : ""} · gain margin {sim.sim.loop.gainMarginDb === null ? "—" : `${sim.sim.loop.gainMarginDb.toFixed(1)} dB`} · modulus margin {sim.sim.loop.modulusMargin.toFixed(2)}{sim.sim.loop.unstable ? " · the closed loop is unstable: T(jω) encircles −1, so no margin is a margin" : ""}
               {sim.sim.loop.loops.local && sim.sim.loop.loops.local.phaseMarginDeg !== null ? ` · local op-amp loop: phase margin ${sim.sim.loop.loops.local.phaseMarginDeg.toFixed(1)}°` : ""}
             </p>
           </div>

@@ -47,8 +47,10 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
     {
       id: "phase-margin", label: "Phase margin (current loop)",
       value: pm === null ? (loop ? "no crossover" : "—") : `${pm.toFixed(1)}°`,
-      verdict: phaseMarginVerdict(pm),
-      hint: loop?.local?.phaseMarginDeg != null
+      verdict: phaseMarginVerdict(pm, loop?.unstable),
+      hint: loop?.unstable
+        ? "closed loop unstable: T(jω) encircles −1 (Nyquist)"
+        : loop?.local?.phaseMarginDeg != null
         ? `local op-amp loop ${loop.local.phaseMarginDeg.toFixed(1)}°; pass ≥ ${PHASE_MARGIN_PASS_DEG}°`
         : `pass ≥ ${PHASE_MARGIN_PASS_DEG}°, warn ≥ ${PHASE_MARGIN_WARN_DEG}°`,
     },
@@ -63,20 +65,20 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
     {
       id: "gain-margin", label: "Gain margin",
       value: loop ? (loop.gainMarginDb === null ? "no −180° crossing" : `${loop.gainMarginDb.toFixed(1)} dB`) : "—",
-      verdict: gainMarginVerdict(loop?.gainMarginDb ?? null),
-      hint: `−|T| where ∠T = −180°; pass ≥ ${GAIN_MARGIN_PASS_DB} dB`,
+      verdict: gainMarginVerdict(loop?.gainMarginDb ?? null, loop?.unstable),
+      hint: loop?.unstable ? "no margin: the closed loop is unstable" : `−|T| where ∠T = −180°; pass ≥ ${GAIN_MARGIN_PASS_DB} dB`,
     },
     {
       id: "modulus-margin", label: "Modulus margin",
       value: loop ? loop.modulusMargin.toFixed(2) : "—",
-      verdict: modulusMarginVerdict(loop?.modulusMargin ?? null),
-      hint: loop ? `min |1 + T| at ${formatEng(loop.modulusMarginHz, "Hz")}; pass ≥ ${MODULUS_MARGIN_PASS}` : "min |1 + T|",
+      verdict: modulusMarginVerdict(loop?.modulusMargin ?? null, loop?.unstable),
+      hint: loop?.unstable ? "no margin: the closed loop is unstable" : loop ? `min |1 + T| at ${formatEng(loop.modulusMarginHz, "Hz")}; pass ≥ ${MODULUS_MARGIN_PASS}` : "min |1 + T|",
     },
     {
       id: "overshoot", label: "Overshoot",
       value: os === null ? "—" : `${os.toFixed(1)} %`,
       verdict: overshootVerdict(os, maxOvershootPct),
-      hint: small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
+      hint: r?.step?.small?.grows ? `small-signal step grows: unstable; target ≤ ${maxOvershootPct} %` : small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
     },
     {
       id: "settling", label: "Settling (±1 %)",

@@ -20,7 +20,7 @@ export interface StepLike {
   vOpampOut: ArrayLike<number>;
   vPass: ArrayLike<number>;
   metrics: StepMetrics;
-  small: { metrics: StepMetrics } | null;
+  small: { metrics: StepMetrics; grows: boolean } | null;
 }
 
 /** Volts within which the op-amp output counts as at its swing limit. */
@@ -81,7 +81,15 @@ export function explainFigures(s: Scenario, loop: LoopFiguresLike | null, local:
         `at ${local.crossoverHz !== null ? formatEng(local.crossoverHz, "Hz") : "its crossover"}, less than the current loop's ${loop.phaseMarginDeg.toFixed(1)}°: it is the limiting loop.`,
     );
   }
-  if (step?.small) {
+  if (step?.small?.grows) {
+    const why = largeSignalLimits(s, step);
+    notes.push(
+      "The linearised circuit's step grows instead of settling: the closed loop is unstable at this operating point. " +
+        (why.length
+          ? `The large-signal step stays bounded only because something limits it (${why.join("; ")}): on the bench this oscillates.`
+          : "On the bench this oscillates."),
+    );
+  } else if (step?.small) {
     const big = step.metrics.overshootPct, small = step.small.metrics.overshootPct;
     if (Math.abs(big - small) > Math.max(3, 0.2 * Math.max(big, small))) {
       const why = largeSignalLimits(s, step);

@@ -228,6 +228,13 @@ export interface LoopMetrics {
    */
   modulusMargin: number;
   modulusMarginHz: number;
+  /**
+   * The closed loop is unstable: T(jω) encircles −1 (Nyquist criterion, taking the loop itself as stable when
+   * broken, as it is for these circuits): the net count of crossings of the negative real axis left of −1, ∠T falling
+   * through −180° (mod 360°) while |T| > 1 counted +1 and rising −1, is not zero. Then no margin is a margin: the
+   * verdicts fail them all.
+   */
+  unstable: boolean;
 }
 
 function logInterp(f: Float64Array, i: number, frac: number): number {
@@ -277,6 +284,9 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
   let gainMarginDb: number | null = null;
   let phaseCrossoverHz: number | null = null;
   const phaseCrossovers: number[] = [];
+  let encirclements = 0;
+  // the crossing left of −1 nearest 0 dB where ∠T falls: the one that makes an unstable loop unstable
+  let falling: { gm: number; f: number } | null = null;
   for (let i = 1; i < n; i++) {
     // the odd multiple of 180° between the two samples, if any: ∠T passes through −180° (mod 360°) there
     const lo = Math.min(phaseDeg[i - 1], phaseDeg[i]), hi = Math.max(phaseDeg[i - 1], phaseDeg[i]);
@@ -286,10 +296,20 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
     const f = logInterp(freq, i, frac);
     const gm = -(magDb[i - 1] + frac * (magDb[i] - magDb[i - 1]));
     phaseCrossovers.push(f);
+    if (gm < 0) {
+      const down = phaseDeg[i] < phaseDeg[i - 1];
+      encirclements += down ? 1 : -1;
+      if (down && (falling === null || gm > falling.gm)) falling = { gm, f };
+    }
     if (gainMarginDb === null || Math.abs(gm) < Math.abs(gainMarginDb)) {
       gainMarginDb = gm;
       phaseCrossoverHz = f;
     }
+  }
+  // An unstable loop reports the (negative) margin of the crossing behind the instability, not a positive one elsewhere.
+  if (encirclements !== 0 && falling !== null) {
+    gainMarginDb = falling.gm;
+    phaseCrossoverHz = falling.f;
   }
   let modulusMargin = Infinity, modulusMarginHz = NaN;
   for (let i = 0; i < n; i++) {
@@ -298,6 +318,7 @@ export function loopMetrics(freq: Float64Array, re: Float64Array, im: Float64Arr
   }
   return {
     magDb, phaseDeg, phaseMarginDeg, gainMarginDb, crossoverHz, crossovers, phaseCrossoverHz, phaseCrossovers, modulusMargin, modulusMarginHz,
+    unstable: encirclements !== 0,
   };
 }
 

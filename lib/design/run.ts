@@ -320,6 +320,12 @@ export interface SmallSignalStep {
   /** load current: the large-signal record's initial value plus the linear response to the command's change, A */
   iLoad: Float64Array;
   metrics: StepMetrics;
+  /**
+   * The linearised circuit's response grows instead of settling (its closed loop is unstable): the swing over the
+   * record's last tenth exceeds 1.5 times the swing over its first half. The record is then cut where the response
+   * first leaves four times the step, and its overshoot is no figure to quote.
+   */
+  grows: boolean;
 }
 
 /**
@@ -349,7 +355,23 @@ export function runSmallSignalStep(s: Scenario, options: SimOptions = {}, initia
     time[k + 1] = st.stepTime + r.time[k];
     iLoad[k + 1] = i0 + dv * di[k];
   }
-  return { time, iLoad, metrics: stepMetrics(time, iLoad, st.stepTime, { initial: i0 }) };
+  const grows = swing(di, Math.floor(0.9 * di.length), di.length) > 1.5 * swing(di, 0, Math.floor(di.length / 2));
+  if (grows) {
+    const bound = 4 * Math.abs(idealTransconductance(s) * dv);
+    let end = 1;
+    while (end < n && Math.abs(iLoad[end] - i0) <= bound) end++;
+    end = Math.min(n, Math.max(end + 1, 3)); // keep the first sample beyond the bound: the trace visibly leaves
+    const t = time.slice(0, end), i = iLoad.slice(0, end);
+    return { time: t, iLoad: i, metrics: stepMetrics(t, i, st.stepTime, { initial: i0 }), grows };
+  }
+  return { time, iLoad, metrics: stepMetrics(time, iLoad, st.stepTime, { initial: i0 }), grows };
+}
+
+/** Peak-to-peak of x over [from, to). */
+function swing(x: Float64Array, from: number, to: number): number {
+  let lo = Infinity, hi = -Infinity;
+  for (let k = from; k < to; k++) { if (x[k] < lo) lo = x[k]; if (x[k] > hi) hi = x[k]; }
+  return hi > lo ? hi - lo : 0;
 }
 
 /**

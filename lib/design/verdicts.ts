@@ -21,19 +21,26 @@ export const GAIN_MARGIN_WARN_DB = 6;
 export const MODULUS_MARGIN_PASS = 0.5;
 export const MODULUS_MARGIN_WARN = 1 / 3;
 
-export function phaseMarginVerdict(pm: number | null): Verdict | null {
+/**
+ * `unstable`: the loop gain encircles −1 (LoopMetrics.unstable). A closed loop that oscillates has no margins to
+ * judge, so every margin verdict is then a fail, whatever its number says.
+ */
+export function phaseMarginVerdict(pm: number | null, unstable = false): Verdict | null {
+  if (unstable) return "fail";
   if (pm === null) return null;
   return pm >= PHASE_MARGIN_PASS_DEG ? "pass" : pm >= PHASE_MARGIN_WARN_DEG ? "warn" : "fail";
 }
 
 /** Null when there is no −180° crossing (no gain margin to judge). A negative margin (conditionally stable) warns. */
-export function gainMarginVerdict(gm: number | null): Verdict | null {
+export function gainMarginVerdict(gm: number | null, unstable = false): Verdict | null {
+  if (unstable) return "fail";
   if (gm === null) return null;
   if (gm < 0) return "warn";
   return gm >= GAIN_MARGIN_PASS_DB ? "pass" : gm >= GAIN_MARGIN_WARN_DB ? "warn" : "fail";
 }
 
-export function modulusMarginVerdict(mm: number | null): Verdict | null {
+export function modulusMarginVerdict(mm: number | null, unstable = false): Verdict | null {
+  if (unstable) return "fail";
   if (mm === null || !Number.isFinite(mm)) return null;
   return mm >= MODULUS_MARGIN_PASS ? "pass" : mm >= MODULUS_MARGIN_WARN ? "warn" : "fail";
 }

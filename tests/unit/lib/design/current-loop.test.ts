@@ -2,7 +2,7 @@ import { Matrix, solve } from "ml-matrix";
 import { NAMES } from "@/lib/design/compile";
 import { describe, expect, it } from "vitest";
 import { compile, simulate, type AcResult, type Netlist, type TranResult } from "@/lib/sim";
-import { defaultScenario, runLoopGain, runOperatingPoint, thermalVoltage, type Scenario } from "@/lib/design";
+import { defaultScenario, idealTransconductance, runLoopGain, runOperatingPoint, thermalVoltage, type Scenario } from "@/lib/design";
 import { valveCoilDemo } from "@/lib/design/demos";
 import { dampingFromPhaseMargin, loopMetrics, overshootFromDamping, stepMetrics } from "@/lib/design/metrics";
 import { runSmallSignalStep, runStep } from "@/lib/design/run";
@@ -237,5 +237,38 @@ describe("small-signal step of the engine's linearised circuit", () => {
       analysis: { kind: "op" },
     });
     expect(() => c.runLinearStep("nope", 1, 10, 0)).toThrow(/"nope"/);
+  });
+});
+
+// Two computations that share nothing past the linearised circuit: the loop gain's Nyquist count (frequency domain,
+// broken loop) and the linearised closed loop's step (time domain, trapezoidal). An unstable closed loop must show in
+// both: the step grows, and T(jω) encircles −1 — in the current loop and, since the closed loop is the same circuit,
+// in the local loop too, whose phase margin alone would look fine.
+describe("an unstable closed loop is called unstable by the loop gain and by the linearised step", () => {
+  it("the valve demo with a 10 Ω sense resistor (loop gain ×10) is unstable; with 4.7 nF of compensation it is not", () => {
+    const s = valveCoilDemo();
+    s.parts.senseResistor = 10;
+    const lg = runLoopGain(s);
+    const small = runSmallSignalStep(s)!;
+    expect(lg.loops.current.unstable).toBe(true);
+    expect(lg.loops.local!.unstable).toBe(true);
+    expect(lg.phaseMarginDeg!).toBeLessThan(0);
+    expect(lg.gainMarginDb!).toBeLessThan(0);
+    expect(small.grows).toBe(true);
+    // cut where it leaves four times the step (Vcommand change × k/Rsense): the record ends early, and only its last
+    // sample lies beyond that bound
+    const bound = 4 * Math.abs(idealTransconductance(s) * (s.stimulus.commandHigh - s.stimulus.commandLow));
+    const dev = Array.from(small.iLoad, (i) => Math.abs(i - small.iLoad[0]));
+    expect(small.time[small.time.length - 1]).toBeLessThan(s.stimulus.stopTime);
+    expect(dev.slice(0, -1).every((d) => d <= bound)).toBe(true);
+    expect(dev[dev.length - 1]).toBeGreaterThan(bound);
+
+    s.parts.compCapacitor = 4.7e-9;
+    const lg2 = runLoopGain(s);
+    const small2 = runSmallSignalStep(s)!;
+    expect(lg2.loops.current.unstable).toBe(false);
+    expect(lg2.loops.local!.unstable).toBe(false);
+    expect(lg2.phaseMarginDeg!).toBeGreaterThan(45);
+    expect(small2.grows).toBe(false);
   });
 });

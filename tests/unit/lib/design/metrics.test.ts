@@ -73,6 +73,46 @@ describe("phase margin ↔ damping ↔ overshoot (second-order loop)", () => {
   });
 });
 
+// Reference: the Routh–Hurwitz criterion. (1 + s)³ + K = s³ + 3s² + 3s + 1 + K is stable iff 3·3 > 1 + K, i.e.
+// K < 8; s(1 + s/a)(1 + s/b) + K, times ab: s³ + (a+b)s² + ab·s + abK, is stable iff K < a + b, and its −180°
+// point is ω = √(ab) with |T| = K/(a+b) there (Ogata, Modern Control Engineering, Routh's stability criterion).
+describe("closed-loop stability from the loop gain (Nyquist: T(jω) encircles −1)", () => {
+  const grid = (tf: (w: number) => [number, number]) => {
+    const n = 900;
+    const f = new Float64Array(n), re = new Float64Array(n), im = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      f[i] = 10 ** (i / 150); // 1 Hz … 1 MHz
+      [re[i], im[i]] = tf(2 * Math.PI * f[i]);
+    }
+    return loopMetrics(f, re, im);
+  };
+  const div = (nr: number, ni: number, dr: number, di: number): [number, number] => {
+    const d2 = dr * dr + di * di;
+    return [(nr * dr + ni * di) / d2, (ni * dr - nr * di) / d2];
+  };
+  const cube = (K: number) => grid((w) => {
+    const x = w / (2 * Math.PI * 1000);
+    return div(K, 0, 1 - 3 * x * x, 3 * x - x ** 3);
+  });
+  it.each([[2, false], [7, false], [9, true], [16, true]] as const)("K/(1 + s/ω)³ with K = %d: unstable = %s (K < 8 is stable)", (K, unstable) => {
+    const m = cube(K);
+    expect(m.unstable).toBe(unstable);
+    expect(m.gainMarginDb!).toBeCloseTo(20 * Math.log10(8 / K), 1);
+  });
+  it.each([[0.5, false], [0.9, false], [1.2, true], [3, true]] as const)("K/(s(1 + s/a)(1 + s/b)), K = %f·(a + b): unstable = %s", (k, unstable) => {
+    const a = 2 * Math.PI * 1e3, b = 2 * Math.PI * 1e4, K = k * (a + b);
+    const m = grid((w) => {
+      // jω(1 + jω/a)(1 + jω/b) = jω·(1 − ω²/ab + jω(1/a + 1/b)) = −ω²(1/a + 1/b) + jω(1 − ω²/ab)
+      return div(K, 0, -w * w * (1 / a + 1 / b), w * (1 - (w * w) / (a * b)));
+    });
+    expect(m.unstable).toBe(unstable);
+    expect(m.phaseCrossoverHz! * 2 * Math.PI).toBeCloseTo(Math.sqrt(a * b), -1);
+    expect(m.gainMarginDb!).toBeCloseTo(-20 * Math.log10(k), 1);
+    // an unstable loop's margins all fail, whatever the modulus margin's number says
+    if (unstable) expect(m.phaseMarginDeg!).toBeLessThan(0);
+  });
+});
+
 describe("bandwidth", () => {
   it("−3 dB of a single pole is its pole frequency (closed form)", () => {
     const n = 401;

@@ -75,9 +75,11 @@ describe("each template's starting point is a sound design", () => {
     const notPassing = run.checks.filter((c) => c.verdict !== "pass").map((c) => `${c.id}: ${c.verdict} (${c.detail})`);
     expect(notPassing).toEqual([]);
     const loop = run.loop!;
-    expect(phaseMarginVerdict(loop.phaseMarginDeg)).toBe("pass");
-    expect([null, "pass"]).toContain(gainMarginVerdict(loop.gainMarginDb));
-    expect(modulusMarginVerdict(loop.modulusMargin)).toBe("pass");
+    expect(loop.unstable).toBe(false);
+    expect(phaseMarginVerdict(loop.phaseMarginDeg, loop.unstable)).toBe("pass");
+    expect([null, "pass"]).toContain(gainMarginVerdict(loop.gainMarginDb, loop.unstable));
+    expect(modulusMarginVerdict(loop.modulusMargin, loop.unstable)).toBe("pass");
+    expect(run.step!.small!.grows).toBe(false);
     const m = run.step!.metrics;
     expect(overshootVerdict(m.overshootPct, s.studies.compensate.maxOvershootPct)).toBe("pass");
     expect(settlingVerdict(m)).toBe("pass");
