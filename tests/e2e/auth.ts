@@ -35,3 +35,15 @@ export async function signOut(page: Page): Promise<void> {
   await page.getByRole("button", { name: "Sign out", exact: true }).click();
   await page.waitForURL((url) => url.pathname === "/sign-in");
 }
+
+/**
+ * Signs in as `role` and opens the team's scenario of that title through the list's search (other suites add
+ * scenarios, so it may be past the first page), then waits for the first run's phase margin.
+ */
+export async function openScenario(page: Page, role: DemoRole, title = "Valve coil driver"): Promise<void> {
+  await signIn(page, role);
+  await page.getByLabel("Search titles").fill(title);
+  await page.getByRole("table").getByRole("link", { name: title, exact: true }).first().click();
+  await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+  await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+}

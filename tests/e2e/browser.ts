@@ -35,3 +35,19 @@ export async function open(page: Page, path: string): Promise<void> {
   await page.goto(path.startsWith("http") ? path : `${BASE_URL}${path}`, { waitUntil: "load" });
   await page.waitForSelector("html[data-hydrated]", { state: "attached", timeout: 30_000 });
 }
+
+/**
+ * Drags across a box (a plot's), from and to points given as fractions of its width and height: a zoom box, or with
+ * `shift` a pan.
+ */
+export async function dragAcross(
+  page: Page, b: { x: number; y: number; width: number; height: number },
+  from: [number, number], to: [number, number], shift = false,
+): Promise<void> {
+  if (shift) await page.keyboard.down("Shift");
+  await page.mouse.move(b.x + b.width * from[0], b.y + b.height * from[1]);
+  await page.mouse.down();
+  await page.mouse.move(b.x + b.width * to[0], b.y + b.height * to[1], { steps: 5 });
+  await page.mouse.up();
+  if (shift) await page.keyboard.up("Shift");
+}

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launch, watchErrors } from "./browser";
-import { signIn } from "./auth";
+import { dragAcross, launch, watchErrors } from "./browser";
+import { openScenario } from "./auth";
 
 /**
  * Ghost traces stay inside the plot area. The previous run is drawn behind the current one, dashed at about 35 %
@@ -125,22 +125,14 @@ async function checkEveryPlot(page: Page, stage: string, deviceScale: number) {
     const xRange = async () => [await chart.getAttribute("data-x-min"), await chart.getAttribute("data-x-max")].join(" ");
     const full = await xRange();
     const b = (await chart.locator(".u-over").boundingBox())!;
-    await page.mouse.move(b.x + b.width * 0.3, b.y + b.height * 0.3);
-    await page.mouse.down();
-    await page.mouse.move(b.x + b.width * 0.55, b.y + b.height * 0.7, { steps: 5 });
-    await page.mouse.up();
+    await dragAcross(page, b, [0.3, 0.3], [0.55, 0.7]);
     await expect.poll(xRange).not.toBe(full);
     const zoomed = await readGhost(page, id);
     expect(zoomed.reach, `${stage}, ${id}: the zoomed ghost reaches beyond the plot area`).toBeGreaterThan(20 * deviceScale);
     expect(zoomed.outside, `${stage}, ${id}, zoomed: ${zoomed.where.join("; ")}`).toBe(0);
 
     const before = await xRange();
-    await page.keyboard.down("Shift");
-    await page.mouse.move(b.x + b.width * 0.5, b.y + b.height * 0.5);
-    await page.mouse.down();
-    await page.mouse.move(b.x + b.width * 0.85, b.y + b.height * 0.9, { steps: 5 });
-    await page.mouse.up();
-    await page.keyboard.up("Shift");
+    await dragAcross(page, b, [0.5, 0.5], [0.85, 0.9], true);
     await expect.poll(xRange).not.toBe(before);
     const panned = await readGhost(page, id);
     expect(panned.reach, `${stage}, ${id}: the panned ghost reaches beyond the plot area`).toBeGreaterThan(20 * deviceScale);
@@ -177,12 +169,8 @@ describe("ghost traces stay inside the plot area", () => {
         const page = await context.newPage();
         await page.addInitScript(markGhostStrokes);
         errors.push(watchErrors(page));
-        await signIn(page, "designer");
-        await page.getByLabel("Search titles").fill("Valve coil driver");
-        await page.getByRole("table").getByRole("link", { name: "Valve coil driver", exact: true }).first().click();
-        await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+        await openScenario(page, "designer");
         const margin = page.getByTestId("metric-phase-margin-value");
-        await margin.filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
         expect(await page.getByTestId("toggle-command-current").isChecked(), "the command is drawn as current").toBe(true);
         for (const id of PLOTS) expect((await readGhost(page, id)).strokes, `${id}: no ghost before a second run`).toBe(0);
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Download, Page } from "playwright-core";
 import { launch, watchErrors } from "./browser";
-import { signIn } from "./auth";
+import { openScenario } from "./auth";
 import { canvasPixels, hexToRgb, paintedColours, plotArea, rgbDistance, type Rgb } from "./pixels";
 
 /**
@@ -60,11 +60,7 @@ describe("plots are painted in Quell's palette", () => {
     browser = await launch();
     page = await browser.newPage({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
     errors = watchErrors(page);
-    await signIn(page, "designer");
-    await page.getByLabel("Search titles").fill("Valve coil driver");
-    await page.getByRole("table").getByRole("link", { name: "Valve coil driver", exact: true }).first().click();
-    await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
-    await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+    await openScenario(page, "designer");
   });
 
   afterAll(async () => {

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { BASE_URL, launch, open, watchErrors } from "./browser";
-import { signIn } from "./auth";
+import { BASE_URL, dragAcross, launch, watchErrors } from "./browser";
+import { openScenario } from "./auth";
 
 /**
  * Plots a practitioner can read: zoom with a box, pan, reset; two cursors and their differences; the step plot's
@@ -16,11 +16,7 @@ describe("plots: zoom, pan, cursors, marks and traces", () => {
     browser = await launch();
     page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
     errors = watchErrors(page);
-    await signIn(page, "designer");
-    await page.getByLabel("Search titles").fill("Valve coil driver");
-    await page.getByRole("table").getByRole("link", { name: "Valve coil driver", exact: true }).first().click();
-    await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
-    await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+    await openScenario(page, "designer");
   });
 
   afterAll(async () => {
@@ -38,20 +34,12 @@ describe("plots: zoom, pan, cursors, marks and traces", () => {
       const full = await xRange(testId);
       expect(full.max).toBeGreaterThan(full.min);
       const b = await overBox(testId);
-      await page.mouse.move(b.x + b.width * 0.3, b.y + b.height * 0.3);
-      await page.mouse.down();
-      await page.mouse.move(b.x + b.width * 0.5, b.y + b.height * 0.7, { steps: 5 });
-      await page.mouse.up();
+      await dragAcross(page, b, [0.3, 0.3], [0.5, 0.7]);
       const zoomed = await xRange(testId);
       expect(zoomed.min).toBeGreaterThan(full.min);
       expect(zoomed.max).toBeLessThan(full.max);
 
-      await page.keyboard.down("Shift");
-      await page.mouse.move(b.x + b.width * 0.5, b.y + b.height * 0.5);
-      await page.mouse.down();
-      await page.mouse.move(b.x + b.width * 0.7, b.y + b.height * 0.5, { steps: 5 });
-      await page.mouse.up();
-      await page.keyboard.up("Shift");
+      await dragAcross(page, b, [0.5, 0.5], [0.7, 0.5], true);
       const panned = await xRange(testId);
       expect(panned.min).toBeLessThan(zoomed.min);
 

@@ -1,8 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launch, open } from "./browser";
-import { signIn } from "./auth";
-import { db } from "@/lib/db/knex";
+import { launch } from "./browser";
+import { openScenario } from "./auth";
 
 /**
  * An unstable closed loop reads as unstable wherever a margin is shown: with the valve demo's sense resistor at
@@ -17,15 +16,11 @@ describe("an unstable loop in the workbench", () => {
   beforeAll(async () => {
     browser = await launch();
     page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
-    const id = (await db()("scenarios").where({ title: "Valve coil driver" }).whereNull("deleted_at").first("id")).id;
-    await signIn(page, "viewer");
-    await open(page, `/scenarios/${id}`);
-    await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
+    await openScenario(page, "viewer");
   });
 
   afterAll(async () => {
     await browser?.close();
-    await db().destroy();
   });
 
   const verdict = (id: string) => page.getByTestId(`metric-${id}`).locator("span.uppercase").textContent();
