@@ -110,6 +110,11 @@ function withAnnotationInk(u: uPlot, draw: (ctx: CanvasRenderingContext2D, pr: n
   ctx.save();
   ctx.font = `${11 * pr}px "Inter Variable", system-ui, sans-serif`;
   ctx.lineWidth = 1 * pr;
+  // Annotations belong to the plot area: labels are placed inside it, and the clip catches what would still stray.
+  const { left, top, width, height } = u.bbox;
+  ctx.beginPath();
+  ctx.rect(left, top, width, height);
+  ctx.clip();
   try {
     draw(ctx, pr, u.bbox);
   } finally {
@@ -133,7 +138,7 @@ function drawMarkers(u: uPlot, list: Marker[] | undefined) {
         ctx.arc(X, Y, 3.5 * pr, 0, 2 * Math.PI);
         ctx.stroke();
         const w = ctx.measureText(m.label).width;
-        ctx.fillText(m.label, X + 6 * pr + w > left + width ? X - 6 * pr - w : X + 6 * pr, Y + 4 * pr);
+        ctx.fillText(m.label, X + 6 * pr + w > left + width ? X - 6 * pr - w : X + 6 * pr, Math.min(Math.max(Y + 4 * pr, top + 11 * pr), top + height - 3 * pr));
         ctx.setLineDash([4 * pr, 3 * pr]);
       } else if (m.x !== undefined && Number.isFinite(m.x)) {
         const X = u.valToPos(m.x, "x", true);
@@ -142,7 +147,7 @@ function drawMarkers(u: uPlot, list: Marker[] | undefined) {
         ctx.moveTo(X, top);
         ctx.lineTo(X, top + height);
         ctx.stroke();
-        ctx.fillText(m.label, Math.min(X + 4 * pr, left + width - ctx.measureText(m.label).width), top + 12 * pr);
+        ctx.fillText(m.label, Math.max(left + 2 * pr, Math.min(X + 4 * pr, left + width - ctx.measureText(m.label).width)), top + 12 * pr);
       } else if (m.y !== undefined && m.scale && Number.isFinite(m.y)) {
         const Y = u.valToPos(m.y, m.scale, true);
         if (Y < top || Y > top + height) continue;
@@ -150,7 +155,8 @@ function drawMarkers(u: uPlot, list: Marker[] | undefined) {
         ctx.moveTo(left, Y);
         ctx.lineTo(left + width, Y);
         ctx.stroke();
-        ctx.fillText(m.label, left + width - ctx.measureText(m.label).width - 4 * pr, Y - 4 * pr);
+        // above the line, or below it where the line runs along the top
+        ctx.fillText(m.label, left + width - ctx.measureText(m.label).width - 4 * pr, Y - 4 * pr - 11 * pr < top ? Y + 13 * pr : Y - 4 * pr);
       }
     }
   });
