@@ -5,6 +5,7 @@ import { join } from "node:path";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { demoUser, signIn } from "./auth";
+import { resampleStep, valveScenario } from "./captures";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import { db } from "@/lib/db/knex";
 import { runStep } from "@/lib/design/run";
@@ -34,17 +35,13 @@ function captureCsv(time: Float64Array, iLoad: Float64Array, senseOhms: number):
   const n = 4000;
   const delay = 37e-6;
   const lines = ["Model,Bench scope (test)", "Sample Interval," + (span / n).toExponential(4), "Time (us),CH1 (mV)"];
-  let j = 0;
   const amplitude = Math.max(...iLoad) - Math.min(...iLoad);
-  for (let k = 0; k < n; k++) {
-    const tScope = time[0] + (k * span) / n; // scope time axis
-    const tSim = tScope - delay;
-    while (j < time.length - 2 && time[j + 1] < tSim) j++;
-    const f = tSim <= time[0] ? 0 : Math.min(1, (tSim - time[j]) / (time[j + 1] - time[j]));
-    const i = tSim <= time[0] ? iLoad[0] : iLoad[j] + f * (iLoad[j + 1] - iLoad[j]);
-    const noisy = i + 0.002 * amplitude * (2 * rand() - 1);
+  const scope = Array.from({ length: n }, (_, k) => time[0] + (k * span) / n); // scope time axis
+  const values = resampleStep(time, iLoad, scope.map((t) => t - delay));
+  scope.forEach((tScope, k) => {
+    const noisy = values[k] + 0.002 * amplitude * (2 * rand() - 1);
     lines.push(`${(tScope * 1e6).toFixed(4)},${(noisy * senseOhms * 1e3).toFixed(5)}`);
-  }
+  });
   return lines.join("\n");
 }
 
@@ -70,11 +67,9 @@ describe("library: upload, submit, validate, review", () => {
     const page: Page = await designerCtx.newPage();
     const errors = watchErrors(page);
     await signIn(page, "designer");
-    const list = await (await page.request.get(`${BASE_URL}/api/scenarios?q=Valve`)).json();
-    const valve = list.items.find((s: { title: string }) => s.title === "Valve coil driver");
-    expect(valve).toBeTruthy();
+    const valve = await valveScenario(page);
     scenarioId = valve.id;
-    const detail = await (await page.request.get(`${BASE_URL}/api/scenarios/${scenarioId}`)).json();
+    const detail = valve.detail;
     const scenario = upgradeScenario(detail.body);
     const { time, series } = runStep(scenario);
     const step = { time, iLoad: series.iLoad };

@@ -5,6 +5,7 @@ import { join } from "node:path";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { signIn } from "./auth";
+import { resampleStep, valveScenario } from "./captures";
 import { upgradeScenario } from "@/lib/design/upgrade";
 import { db } from "@/lib/db/knex";
 import { runStep } from "@/lib/design/run";
@@ -21,15 +22,9 @@ import { runStep } from "@/lib/design/run";
 function captureCsv(time: Float64Array, iLoad: Float64Array, heading: string, gain: number): string {
   const n = 2000;
   const span = time[time.length - 1] - time[0];
-  const lines = [`Time (us),${heading}`];
-  let j = 0;
-  for (let k = 0; k < n; k++) {
-    const t = time[0] + (k * span) / (n - 1);
-    while (j < time.length - 2 && time[j + 1] < t) j++;
-    const f = Math.min(1, Math.max(0, (t - time[j]) / (time[j + 1] - time[j])));
-    lines.push(`${(t * 1e6).toFixed(4)},${(gain * (iLoad[j] + f * (iLoad[j + 1] - iLoad[j]))).toExponential(6)}`);
-  }
-  return lines.join("\n");
+  const at = Array.from({ length: n }, (_, k) => time[0] + (k * span) / (n - 1));
+  const values = resampleStep(time, iLoad, at);
+  return [`Time (us),${heading}`, ...at.map((t, k) => `${(t * 1e6).toFixed(4)},${(gain * values[k]).toExponential(6)}`)].join("\n");
 }
 
 describe("bench traces: labels, units, override", () => {
@@ -55,9 +50,7 @@ describe("bench traces: labels, units, override", () => {
     const page: Page = await designerCtx.newPage();
     const errors = watchErrors(page);
     await signIn(page, "designer");
-    const list = await (await page.request.get(`${BASE_URL}/api/scenarios?q=Valve`)).json();
-    const valve = list.items.find((s: { title: string }) => s.title === "Valve coil driver");
-    const detail = await (await page.request.get(`${BASE_URL}/api/scenarios/${valve.id}`)).json();
+    const { detail } = await valveScenario(page);
     const created = await page.request.post(`${BASE_URL}/api/scenarios`, {
       headers: { origin: BASE_URL, "content-type": "application/json" },
       data: { title: `Valve coil bench ${Date.now()}`, template: detail.template, body: detail.body },

@@ -1,20 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { jar } from "./support/next-headers";
 
 // Server actions read the session through next/headers; outside Next there is no request scope, so the cookie
 // jar is replaced by one holding the sealed cookie of the actor under test (the same seal the browser sends).
-const jar: { cookie?: string } = {};
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => {
-      const pair = jar.cookie?.split("=");
-      return pair && pair[0] === name ? { name, value: pair.slice(1).join("=") } : undefined;
-    },
-    set: () => undefined,
-    delete: () => undefined,
-  }),
-  headers: async () => new Headers({ host: "127.0.0.1:3999" }),
-}));
+vi.mock("next/headers", async () => (await import("./support/next-headers")).nextHeaders);
 
 import { db } from "@/lib/db/knex";
 import * as scenarios from "@/app/api/scenarios/route";

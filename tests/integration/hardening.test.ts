@@ -1,21 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { jar } from "./support/next-headers";
 
 // Server actions read the session through next/headers: the cookie jar holds the sealed cookie of the actor under
 // test, as in the authorization matrix.
-const jar: { cookie?: string } = {};
 vi.mock("server-only", () => ({}));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => {
-      const pair = jar.cookie?.split("=");
-      return pair && pair[0] === name ? { name, value: pair.slice(1).join("=") } : undefined;
-    },
-    set: () => undefined,
-    delete: () => undefined,
-  }),
-  headers: async () => new Headers({ host: "127.0.0.1:3999" }),
-}));
+vi.mock("next/headers", async () => (await import("./support/next-headers")).nextHeaders);
 
 import knexFactory, { type Knex } from "knex";
 import { NextRequest } from "next/server";

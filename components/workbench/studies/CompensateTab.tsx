@@ -9,7 +9,7 @@ import { StudyRunner } from "@/lib/workbench/studies";
 import { useWb, useWbStore } from "../context";
 import { ParamField } from "../Panels";
 import { TOOL_BUTTON_PRIMARY as PRIMARY } from "@/components/shell/classes";
-import { StaleNote, Progress } from "./common";
+import { RunControls } from "./common";
 
 /** The load-snubber search: what it tried (one row per capacitor) and, when one meets the targets, its own Apply. */
 function SnubberResult({ result }: { result: SnubberTuneResult }) {
@@ -80,9 +80,7 @@ export function CompensateTab({ runner }: { runner: StudyRunner | null }) {
             onChange={(e) => store.getState().edit((s) => setPath(s, "studies.compensate.tuneLoadSnubber", e.target.checked))} />
           Also find a load snubber (the smallest capacitor that meets the targets)
         </label>
-        <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.compensate()} data-testid="compensate-run">Find compensation</button>
-        <Progress kind="compensate" state={state} onCancel={() => runner?.cancel("compensate")} />
-        <StaleNote kind="compensate" runner={runner} />
+        <RunControls kind="compensate" label="Find compensation" runner={runner} state={state} />
       </div>
       <div className="min-w-0 space-y-2">
         {result ? (

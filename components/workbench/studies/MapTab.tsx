@@ -8,8 +8,7 @@ import { Heatmap } from "@/components/plots/Heatmap";
 import { ExportButtons } from "@/components/plots/ExportMenu";
 import { useWb, useWbStore } from "../context";
 import { mergeMap } from "@/lib/design/studies";
-import { TOOL_BUTTON_PRIMARY as PRIMARY } from "@/components/shell/classes";
-import { paramInfo, StaleNote, Progress, AxisEditor } from "./common";
+import { paramInfo, AxisEditor, RunControls } from "./common";
 
 const METRICS: { id: MapMetric; label: string; unit: string }[] = [
   { id: "overshootPct", label: "Overshoot", unit: "%" },
@@ -37,9 +36,7 @@ export function MapTab({ runner }: { runner: StudyRunner | null }) {
             {METRICS.map((x) => <option key={x.id} value={x.id}>{x.label}</option>)}
           </select>
         </div>
-        <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.map()} data-testid="map-run">Run map</button>
-        <Progress kind="map" state={state} onCancel={() => runner?.cancel("map")} />
-        <StaleNote kind="map" runner={runner} />
+        <RunControls kind="map" label="Run map" runner={runner} state={state} />
       </div>
       <div className="min-w-0">
         {merged ? (

@@ -9,8 +9,7 @@ import { OKABE_ITO } from "@/components/plots/palette";
 import { ExportButtons } from "@/components/plots/ExportMenu";
 import { useWb } from "../context";
 import { ParamField } from "../Panels";
-import { TOOL_BUTTON_PRIMARY as PRIMARY } from "@/components/shell/classes";
-import { StaleNote, Progress } from "./common";
+import { RunControls } from "./common";
 
 /** The part deviations that produced a worst-case run (relative in %, offset in V, bias in A, β absolute). */
 function WorstDraw({ title, draw }: { title: string; draw: SpreadDraw }) {
@@ -63,9 +62,7 @@ export function SpreadTab({ runner }: { runner: StudyRunner | null }) {
         <ParamField spec={{ path: "tolerances.resistor", label: "Resistor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
         <ParamField spec={{ path: "tolerances.sense", label: "Sense-resistor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
         <ParamField spec={{ path: "tolerances.capacitor", label: "Capacitor tolerance", unit: "%", min: 0, max: 50, scale: 100 }} />
-        <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.spread()} data-testid="spread-run">Run spread</button>
-        <Progress kind="spread" state={state} onCancel={() => runner?.cancel("spread")} />
-        <StaleNote kind="spread" runner={runner} />
+        <RunControls kind="spread" label="Run spread" runner={runner} state={state} />
       </div>
       <div className="min-w-0">
         {summary ? (

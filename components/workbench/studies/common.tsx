@@ -14,7 +14,7 @@ import { AXIS } from "@/components/plots/palette";
 import { ExportButtons } from "@/components/plots/ExportMenu";
 import { useWb, useWbStore } from "../context";
 import { ParamField } from "../Panels";
-import { TOOL_BUTTON as BTN } from "@/components/shell/classes";
+import { TOOL_BUTTON as BTN, TOOL_BUTTON_PRIMARY as PRIMARY } from "@/components/shell/classes";
 
 export function paramInfo(path: string) {
   return SWEEPABLE_PARAMETERS.find((p) => p.path === path) ?? { path, label: path, unit: "", from: 1, to: 10, scale: "log" as const };
@@ -54,6 +54,17 @@ export function Progress({ kind, state, onCancel }: { kind: StudyKind; state: St
         <button type="button" className={BTN} onClick={onCancel} data-testid={`study-cancel-${kind}`}>Cancel</button>
       )}
     </div>
+  );
+}
+
+/** A study's run button, its progress with Cancel, and the stale note. */
+export function RunControls({ kind, label, runner, state }: { kind: StudyKind; label: string; runner: StudyRunner | null; state: StudyState<unknown> }) {
+  return (
+    <>
+      <button type="button" className={PRIMARY} disabled={!runner} onClick={() => runner?.[kind]()} data-testid={`${kind}-run`}>{label}</button>
+      <Progress kind={kind} state={state} onCancel={() => runner?.cancel(kind)} />
+      <StaleNote kind={kind} runner={runner} />
+    </>
   );
 }
 
