@@ -3,10 +3,11 @@
  * Upload a scope export: the file is parsed in the browser first (so a bad line shows at once), then sent as a
  * multipart form; the server parses it again and stores nothing when it cannot read it.
  */
-import { useEffect, useMemo, useState, type FormEvent } from "react";
+import { useMemo, useState, type FormEvent } from "react";
 import { parseTraceCsv, TraceParseError, type ChannelOption, type ParsedTrace, type TraceProblem } from "@/lib/traces/parse";
 import { formatEng } from "@/lib/units/eng";
 import { FIELD } from "@/components/shell/classes";
+import { useHydrated } from "@/components/shell/useHydrated";
 import { CONVERSIONS, conversionSettings, needsOf, type Conversion } from "@/lib/traces/conversions";
 
 interface ChannelForm { name: string; convert: Conversion; value: string; unit: "" | "V" | "A" }
@@ -30,10 +31,8 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
   const [busy, setBusy] = useState(false);
   const [serverError, setServerError] = useState<{ error: string; problems?: TraceProblem[] } | null>(null);
   const [done, setDone] = useState<string | null>(null);
-  // Set once this form is hydrated (it may hydrate after the layout, inside the page's Suspense boundary): a file
-  // chosen before that would be lost, so tests wait for data-ready.
-  const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
+  // A file chosen before this form hydrates would be lost: tests wait for data-ready (see useHydrated).
+  const ready = useHydrated();
 
   const options = useMemo(() => {
     const errors: string[] = [];
@@ -94,7 +93,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
 
   const problems = serverError?.problems ?? (preview && !preview.ok ? preview.problems : []);
   return (
-    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
+    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-island data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
       <p className="text-xs text-ink-muted">Oscilloscope export (CSV): a time column and one or more channels; settings lines and a header are recognised. Stored against revision {revisionNumber}.</p>
       <div className="flex flex-wrap gap-4">
         <label className="flex flex-col text-sm">

@@ -34,6 +34,8 @@ export function watchErrors(page: Page): string[] {
 export async function open(page: Page, path: string): Promise<void> {
   await page.goto(path.startsWith("http") ? path : `${BASE_URL}${path}`, { waitUntil: "load" });
   await page.waitForSelector("html[data-hydrated]", { state: "attached", timeout: 30_000 });
+  // Client islands inside a Suspense boundary may hydrate later than the layout (components/shell/useHydrated).
+  await page.waitForFunction(() => document.querySelector("[data-island]:not([data-ready])") === null, undefined, { timeout: 30_000 });
 }
 
 /**

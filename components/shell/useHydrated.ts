@@ -1,0 +1,13 @@
+"use client";
+import { useEffect, useState } from "react";
+
+/**
+ * True once this component has hydrated. A client island inside a page's Suspense boundary can hydrate after the
+ * layout (after `<html data-hydrated>`, see HydrationMark); an input changed before then loses its event. Islands
+ * mark themselves `data-island` and, once hydrated, `data-ready="1"`; end-to-end tests wait for every island.
+ */
+export function useHydrated(): boolean {
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
+  return ready;
+}
