@@ -23,6 +23,46 @@ export interface StepLike {
   small: { metrics: StepMetrics; grows: boolean } | null;
 }
 
+/** A ring this many times above the current loop's highest crossover is not the loop's own. */
+const ABOVE_CROSSOVER = 3;
+
+/**
+ * A coil's ringing against the capacitance at its terminals, read off the linearised step: when that step rings well
+ * above the current loop's crossover, the loop is not what rings. The pass device delivers the current the loop sets,
+ * and the coil's current rings against the capacitance across it (the cable's, any added, and the pass device's
+ * output capacitance) after every fast change of it. The capacitance is the one the measured frequency implies with
+ * the coil's inductance, C = 1/((2πf)²·L); √(L/C) is the tank's characteristic impedance, the usual starting point
+ * for the resistor of a series R–C across the load (common practice).
+ */
+export function loadTankNote(s: Scenario, loop: LoopFiguresLike | null, step: StepLike | null): string | null {
+  const small = step?.small;
+  if (!small || small.grows || s.load.kind !== "coil" || s.load.inductance <= 0) return null;
+  const f = small.metrics.ringing.frequencyHz;
+  if (f === null || small.metrics.overshootPct <= 3) return null;
+  const highest = loop && loop.crossovers.length ? Math.max(...loop.crossovers) : loop?.crossoverHz ?? null;
+  if (highest !== null && f < ABOVE_CROSSOVER * highest) return null;
+  const cable = s.load.cable;
+  const L = s.load.inductance + cable.lPerM * cable.length;
+  const C = 1 / ((2 * Math.PI * f) ** 2 * L);
+  const known = cable.cPerM * cable.length + s.load.extraCapacitance;
+  const parts = [
+    cable.length > 0 && cable.cPerM > 0 ? `the cable's ${formatEng(cable.cPerM * cable.length, "F")}` : null,
+    s.load.extraCapacitance > 0 ? `the added ${formatEng(s.load.extraCapacitance, "F")}` : null,
+  ].filter(Boolean);
+  // The model's clamp diode has no junction capacitance: what the cable and an added capacitor do not account for is
+  // the pass device's output capacitance (its collector–base or drain–gate capacitance as the stage around it sees it).
+  const where = !parts.length ? "at the pass device" : C > known * 1.05 ? `${parts.join(" and ")}, the rest at the pass device` : parts.join(" and ");
+  const snubbed = s.networks.loadSnubber !== null;
+  return (
+    `The linearised step rings at ${formatEng(f, "Hz")}${highest !== null ? `, well above the current loop's crossover (${formatEng(highest, "Hz")})` : ""}: ` +
+      `that ringing is the load's, not the loop's. The coil (${formatEng(L, "H")}) resonates with about ${formatEng(C, "F")} at its terminals ` +
+      `(${where}); the loop sets the pass device's current, and the coil's current rings against that capacitance after every fast change of it. ` +
+      (snubbed
+        ? "The load snubber fitted does not damp it enough."
+        : `A series R–C across the load damps it: a resistor near √(L/C) ≈ ${formatEng(Math.sqrt(L / C), "Ω")} with a capacitor a few times ${formatEng(C, "F")} (common practice); Compensate can search one.`)
+  );
+}
+
 /** Volts within which the op-amp output counts as at its swing limit. */
 const AT_LIMIT_V = 0.05;
 
@@ -101,5 +141,7 @@ export function explainFigures(s: Scenario, loop: LoopFiguresLike | null, local:
       );
     }
   }
+  const tank = loadTankNote(s, loop, step);
+  if (tank) notes.push(tank);
   return notes;
 }

@@ -1,12 +1,15 @@
 import { describe, expect, it } from "vitest";
 import { valveCoilDemo } from "@/lib/design/demos";
-import { explainFigures } from "@/lib/design/explain";
+import { explainFigures, loadTankNote } from "@/lib/design/explain";
+import { defaultScenario } from "@/lib/design/templates";
+import { runSmallSignalStep } from "@/lib/design/run";
+import { nearestE } from "@/lib/design/eseries";
+import type { Scenario } from "@/lib/design/schema";
 import { idealTransconductance } from "@/lib/design/compile";
 import { POLICIES, runScenario } from "@/lib/design/scenario-run";
 
 /** "Why the figures disagree" states what the records show, and stays silent when the figures tell one story. */
-function run(cc: number) {
-  const s = valveCoilDemo();
+function run(cc: number, s: Scenario = valveCoilDemo()) {
   s.parts.compCapacitor = cc;
   const r = runScenario(s, { ...POLICIES.review, budgetMs: 30_000 });
   const st = r.step!;
@@ -44,5 +47,64 @@ describe("explainFigures", () => {
     expect(notes[0]).toContain("crosses 0 dB 3 times");
     expect(notes[1]).toContain("local loop");
     expect(notes[1]).toContain("25.0°");
+  });
+
+  describe("a coil ringing against the capacitance at its terminals is named as the load's, not the loop's", () => {
+    // The NPN template with a 10 Ω sense resistor (9.8 mA full scale): a 5 mH coil at the end of 2 m of cable.
+    const tenOhm = () => {
+      const s = defaultScenario("sink-npn");
+      s.parts.senseResistor = 10;
+      return s;
+    };
+    /** The capacitance the linearised step's ring implies with the coil's inductance: C = 1/((2πf)²·L). */
+    const implied = (s: Scenario) => {
+      const small = runSmallSignalStep(s)!;
+      const f = small.metrics.ringing.frequencyHz!;
+      const L = s.load.inductance + s.load.cable.lPerM * s.load.cable.length;
+      return { small, f, L, C: 1 / ((2 * Math.PI * f) ** 2 * L) };
+    };
+
+    it("rings far above the loop's crossover, and the note says whose ringing it is", () => {
+      const s = tenOhm();
+      const { r, step, notes } = run(s.parts.compCapacitor, s);
+      expect(step.small!.metrics.overshootPct).toBeGreaterThan(10);
+      expect(step.small!.metrics.ringing.frequencyHz!).toBeGreaterThan(3 * Math.max(...r.loop!.crossovers));
+      const note = notes.find((n) => n.includes("the load's, not the loop's"));
+      expect(note).toBeDefined();
+      expect(note).toContain("the cable's 200 pF");
+      expect(note).toContain("Compensate can search one");
+    });
+
+    it("the implied capacitance holds the cable's: removing 2 m of 100 pF/m cable takes 200 pF off it (parallel capacitances add)", () => {
+      // A parallel L–C tank rings at f = 1/(2π√(LC)) (any circuit-theory text); the cable's capacitance is in
+      // parallel with the rest at the coil's terminals, so it adds. The cable's own inductance (1 µH) is 0.02 % of L.
+      const withCable = implied(tenOhm());
+      const bare = tenOhm();
+      bare.load.cable.length = 0;
+      const without = implied(bare);
+      expect(withCable.C - without.C).toBeGreaterThan(200e-12 * 0.97);
+      expect(withCable.C - without.C).toBeLessThan(200e-12 * 1.03);
+      // With the coil and the cable alone the tank would ring at 159 kHz; the pass device's capacitance pulls it lower.
+      expect(withCable.f).toBeLessThan(1 / (2 * Math.PI * Math.sqrt(5e-3 * 200e-12)));
+    });
+
+    it("the series R–C the note suggests (R ≈ √(L/C), C a few times the tank's) damps it, and the note goes", () => {
+      const s = tenOhm();
+      const { L, C } = implied(s);
+      s.networks.loadSnubber = { resistance: nearestE(Math.sqrt(L / C), "E12"), capacitance: nearestE(4 * C, "E12") };
+      const { step, notes } = run(s.parts.compCapacitor, s);
+      expect(step.small!.metrics.overshootPct).toBeLessThan(1);
+      expect(notes.some((n) => n.includes("the load's, not the loop's"))).toBe(false);
+    });
+
+    it("says nothing of a resistive load, a step that grows, or a ring near the loop's crossover", () => {
+      const s = tenOhm();
+      const step = { time: [0], vOpampOut: [0], vPass: [0], metrics: runSmallSignalStep(s)!.metrics, small: { metrics: runSmallSignalStep(s)!.metrics, grows: false } };
+      const loop = { phaseMarginDeg: 60, crossoverHz: 5e3, crossovers: [5e3] };
+      expect(loadTankNote(s, loop, step)).not.toBeNull();
+      expect(loadTankNote({ ...s, load: { ...s.load, kind: "resistor" } }, loop, step)).toBeNull();
+      expect(loadTankNote(s, loop, { ...step, small: { ...step.small, grows: true } })).toBeNull();
+      expect(loadTankNote(s, { ...loop, crossoverHz: 50e3, crossovers: [50e3] }, step)).toBeNull();
+    });
   });
 });
