@@ -5,6 +5,7 @@ import { LibraryFilters, type FilterValues } from "@/components/library/LibraryF
 import { LibraryTable } from "@/components/library/LibraryTable";
 import { TolerancesForm } from "@/components/library/TolerancesForm";
 import { setTolerancesAction } from "../actions";
+import { IslandMark } from "@/components/shell/IslandMark";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Library" };
@@ -25,6 +26,7 @@ export default async function LibraryPage({ searchParams }: { searchParams: Prom
   ]);
   return (
     <main className="mx-auto max-w-screen-xl px-6 py-8 space-y-4">
+      <IslandMark />
       <div>
         <h1 className="text-2xl font-semibold">Library</h1>
         <p className="text-sm text-ink-muted">The designs {user.teamName} built and measured: validated entries are trusted starting points.</p>

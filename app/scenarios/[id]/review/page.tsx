@@ -9,6 +9,7 @@ import { evidenceTolerances, getTeamTolerances } from "@/lib/library/tolerances"
 import { DomainError } from "@/lib/errors";
 import { ReviewDocument } from "@/components/review/ReviewDocument";
 import "./print.css";
+import { IslandMark } from "@/components/shell/IslandMark";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Review" };
@@ -38,6 +39,7 @@ export default async function ReviewPage({ params, searchParams }: { params: Pro
   const ordered = [...traces].sort((a, b) => Number(evidence.has(b.id)) - Number(evidence.has(a.id)));
   return (
     <main className="review-page mx-auto max-w-5xl px-6 py-8">
+      <IslandMark />
       <nav className="no-print mb-3 text-sm text-ink-muted" aria-label="Breadcrumb">
         <Link href="/scenarios" className="hover:underline">Scenarios</Link> /{" "}
         <Link href={`/scenarios/${id}`} className="hover:underline">{scenario.title}</Link> / Review ·{" "}

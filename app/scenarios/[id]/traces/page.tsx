@@ -7,6 +7,7 @@ import { entryForRevision } from "@/lib/db/library";
 import { getTeamTolerances } from "@/lib/library/tolerances";
 import { DomainError } from "@/lib/errors";
 import { TracesWorkspace } from "@/components/traces/TracesWorkspace";
+import { IslandMark } from "@/components/shell/IslandMark";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Bench traces" };
@@ -26,6 +27,7 @@ export default async function TracesPage({ params }: { params: Promise<{ id: str
   ]);
   return (
     <main className="mx-auto max-w-screen-2xl px-6 py-8">
+      <IslandMark />
       <nav className="mb-2 text-sm text-ink-muted" aria-label="Breadcrumb">
         <Link href="/scenarios" className="hover:underline">Scenarios</Link> /{" "}
         <Link href={`/scenarios/${id}`} className="hover:underline">{scenario.title}</Link> / Bench traces
