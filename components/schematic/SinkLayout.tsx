@@ -104,6 +104,8 @@ export function SinkLayout({ s, sel, on, op }: LayoutProps) {
           <Wire d={[[376, 240], [376, 290]]} />
           <Resistor x1={376} y1={290} x2={PASS_X} y2={290} />
           <Dot x={PASS_X} y={290} />
+          {/* right of the column, below the pass snubber's lower wire (y 280); the emitter tag moves under it */}
+          <Label x={PASS_X + 6} y={297} small>{r(p.darlingtonResistor)}</Label>
         </Part>
       )}
       {/* sense node and resistor */}
@@ -137,7 +139,7 @@ export function SinkLayout({ s, sel, on, op }: LayoutProps) {
           {/* the output, inside the loop the compensation capacitor closes: clear of the triangle and its V− pin */}
           <Tag x={286} y={249} v={V.oa} anchor="end" />
           {!dar && <Tag x={370} y={220} v={V.b} anchor="end" />}
-          <Tag x={PASS_X + 6} y={300} v={V.e} />
+          <Tag x={PASS_X + 6} y={dar && p.darlingtonResistor !== null ? 314 : 300} v={V.e} />
           {dar ? <Tag x={PASS_X + 6} y={196} v={V.c} /> : <Tag x={PASS_X - 4} y={170} v={V.c} anchor="end" />}
         </g>
       )}

@@ -8,12 +8,10 @@
 import { formatEng } from "@/lib/units/eng";
 import { usesGateDrive } from "@/lib/design/networks";
 import type { ClampParams, Scenario } from "@/lib/design/schema";
-import { Part, type Box, type TextAnchor } from "./parts";
+import { Label, Part, type Box, type TextAnchor } from "./parts";
 import { Capacitor, Diode, Dot, INK, Resistor, Wire } from "./symbols";
 
-const small = (x: number, y: number, text: string, anchor: TextAnchor = "start") => (
-  <text x={x} y={y} fontSize={10.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>{text}</text>
-);
+const small = (x: number, y: number, text: string, anchor: TextAnchor = "start") => <Label x={x} y={y} anchor={anchor} small>{text}</Label>;
 
 /** Clamp across the coil (x is the load's wire; y1 the supply-side end, y2 the pass-device end). */
 export function ClampSymbol({ clamp, x, y1, y2 }: { clamp: ClampParams; x: number; y1: number; y2: number }) {

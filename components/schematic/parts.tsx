@@ -56,9 +56,10 @@ export function Part(props: { id: string; label: string; box: Box; selected: str
   );
 }
 
-export function Label({ x, y, children, anchor = "start" }: { x: number; y: number; children: ReactNode; anchor?: TextAnchor }) {
+/** A part's value; `small` for the optional networks' values, drawn where there is less room. */
+export function Label({ x, y, children, anchor = "start", small = false }: { x: number; y: number; children: ReactNode; anchor?: TextAnchor; small?: boolean }) {
   return (
-    <text x={x} y={y} fontSize={12.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>
+    <text x={x} y={y} fontSize={small ? 10.5 : 12.5} fill={INK} textAnchor={anchor} className="num" style={{ pointerEvents: "none" }}>
       {children}
     </text>
   );

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { BASE_URL, launch, watchErrors } from "./browser";
+import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { demoUser, signIn } from "./auth";
 import { db } from "@/lib/db/knex";
 
@@ -24,7 +24,7 @@ describe("accounts journey: save, share, open, comment", () => {
   it("sends an anonymous visitor to sign-in and back", async () => {
     const ctx = await context(browser);
     const page = await ctx.newPage();
-    await page.goto(`${BASE_URL}/team`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/team`);
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     expect(new URL(page.url()).searchParams.get("next")).toBe("/team");
     // A wrong password gets the generic refusal, in place.
@@ -62,7 +62,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await designer.getByTestId("save-submit").click();
     await designer.getByRole("status").getByText("Saved as revision 2").waitFor();
 
-    await designer.goto(`${BASE_URL}/scenarios/${scenarioId}/history`, { waitUntil: "load" });
+    await open(designer, `${BASE_URL}/scenarios/${scenarioId}/history`);
     // The history lists it with its note, and the diff shows the part values that changed.
     await designer.getByRole("cell", { name: "Sense resistor to 0.47 Ω" }).waitFor();
     const diff = designer.getByTestId("diff");
@@ -85,7 +85,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const viewer = await viewerCtx.newPage();
     const viewerErrors = watchErrors(viewer);
     await signIn(viewer, "viewer");
-    await viewer.goto(link, { waitUntil: "load" });
+    await open(viewer, link);
     await viewer.getByRole("heading", { name: new RegExp(`${title}.*revision 2`) }).waitFor();
     await viewer.getByText("“Sense resistor to 0.47 Ω”").waitFor();
     const parts = viewer.getByRole("region", { name: "Part values" });
@@ -115,8 +115,8 @@ describe("accounts journey: save, share, open, comment", () => {
     await designer.getByRole("button", { name: "Create" }).click();
     await designer.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/);
     const history = `${BASE_URL}/scenarios/${new URL(designer.url()).pathname.split("/")[2]}/history`;
-    await designer.goto(history, { waitUntil: "load" });
-    await lead.goto(history, { waitUntil: "load" });
+    await open(designer, history);
+    await open(lead, history);
 
     async function edit(page: Page, senseResistor: number, note: string) {
       const body = page.getByLabel("Scenario (JSON)");
@@ -146,7 +146,7 @@ describe("accounts journey: save, share, open, comment", () => {
       designer.getByLabel("Status").selectOption("review"),
     ]);
     expect(patched.status()).toBe(200);
-    await designer.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
+    await open(designer, `${BASE_URL}/scenarios`);
     await designer.getByLabel("Status").selectOption("review");
     await designer.getByLabel("Search titles").fill(title);
     await designer.getByRole("table").getByRole("link", { name: title, exact: true }).waitFor();
@@ -161,7 +161,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const page = await ctx.newPage();
     const errors = watchErrors(page);
     const email = `ines.hart.${Date.now()}@marsh-works.test`;
-    await page.goto(`${BASE_URL}/sign-up`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/sign-up`);
     await page.getByLabel("Your name").fill("Ines Hart");
     await page.getByLabel("E-mail").fill(email);
     await page.getByLabel("Password").fill("short");
@@ -194,14 +194,14 @@ describe("accounts journey: save, share, open, comment", () => {
     const link = mail?.text_body.match(/https?:\/\/\S+\/reset-password\?token=\S+/)?.[0];
     expect(link).toBeTruthy();
     const local = link!.replace(/^https?:\/\/[^/]+/, BASE_URL);
-    await page.goto(local, { waitUntil: "load" });
+    await open(page, local);
     await page.getByLabel("New password", { exact: true }).fill("ines-second-password");
     await page.getByLabel("New password again").fill("ines-second-password");
     await page.getByRole("button", { name: "Set the new password" }).click();
     await page.waitForURL((u) => u.pathname === "/scenarios");
 
     // Single use.
-    await page.goto(local, { waitUntil: "load" });
+    await open(page, local);
     await page.getByText("This reset link has been used already.").waitFor();
     expect(errors).toEqual([]);
     await ctx.close();
@@ -218,7 +218,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await lead.getByText("Invitation sent.").waitFor();
     await lead.getByTestId("invitations").getByText(email).waitFor();
 
-    await lead.goto(`${BASE_URL}/dev/outbox`, { waitUntil: "load" });
+    await open(lead, `${BASE_URL}/dev/outbox`);
     const mail = lead.locator("li", { hasText: email }).first();
     await mail.waitFor();
     const text = (await mail.textContent()) ?? "";
@@ -228,7 +228,7 @@ describe("accounts journey: save, share, open, comment", () => {
 
     const inviteeCtx = await context(browser);
     const invitee = await inviteeCtx.newPage();
-    await invitee.goto(link!.replace(/^https?:\/\/[^/]+/, BASE_URL), { waitUntil: "load" });
+    await open(invitee, link!.replace(/^https?:\/\/[^/]+/, BASE_URL));
     await invitee.getByRole("heading", { name: "Join Kestrel Hollow Instruments — bench group" }).waitFor();
     await invitee.getByLabel("Your name").fill("Nia Brook");
     await invitee.getByLabel("Password").fill("nia-brook-password");
@@ -236,7 +236,7 @@ describe("accounts journey: save, share, open, comment", () => {
     await invitee.waitForURL((u) => u.pathname === "/scenarios");
     expect(await invitee.getByTestId("who").textContent()).toContain("viewer");
     // The link is single-use.
-    await invitee.goto(link!.replace(/^https?:\/\/[^/]+/, BASE_URL), { waitUntil: "load" });
+    await open(invitee, link!.replace(/^https?:\/\/[^/]+/, BASE_URL));
     await invitee.getByText("This invitation has been used already.").waitFor();
     await inviteeCtx.close();
   });
@@ -256,7 +256,7 @@ describe("accounts journey: save, share, open, comment", () => {
 
     const anon = await browser.newContext();
     const visitor = await anon.newPage();
-    await visitor.goto(url.replace(/^https?:\/\/[^/]+/, BASE_URL), { waitUntil: "load" });
+    await open(visitor, url.replace(/^https?:\/\/[^/]+/, BASE_URL));
     await visitor.getByRole("heading", { name: /Valve coil driver/ }).waitFor();
 
     // Newest link first: revoke it and wait for the server to confirm.

@@ -1,6 +1,6 @@
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/01_demo_team";
-import { BASE_URL } from "./browser";
+import { BASE_URL, open, waitHydrated } from "./browser";
 
 export type DemoRole = "lead" | "designer" | "viewer";
 
@@ -17,21 +17,22 @@ export function demoUser(role: DemoRole) {
  */
 export async function signIn(page: Page, role: DemoRole, next = "/scenarios"): Promise<void> {
   const u = demoUser(role);
-  await page.goto(`${BASE_URL}/sign-in?next=${encodeURIComponent(next)}`, { waitUntil: "load" });
+  await open(page, `/sign-in?next=${encodeURIComponent(next)}`);
   if (new URL(page.url()).pathname !== "/sign-in") {
     // Someone is signed in already (the sign-in page sends them to their scenarios): sign them out first.
     await signOut(page);
-    await page.goto(`${BASE_URL}/sign-in?next=${encodeURIComponent(next)}`, { waitUntil: "load" });
+    await open(page, `/sign-in?next=${encodeURIComponent(next)}`);
   }
   await page.getByLabel("E-mail").fill(u.email);
   await page.getByLabel("Password").fill(u.password);
   await page.getByRole("button", { name: "Sign in" }).click();
   await page.waitForURL((url) => url.pathname === next.split("?")[0], { timeout: 30_000 });
+  await waitHydrated(page);
 }
 
 /** Signs out through the top bar's menu form. */
 export async function signOut(page: Page): Promise<void> {
-  await page.goto(`${BASE_URL}/sign-out`, { waitUntil: "load" });
+  await open(page, "/sign-out");
   await page.getByRole("button", { name: "Sign out", exact: true }).click();
   await page.waitForURL((url) => url.pathname === "/sign-in");
 }

@@ -33,8 +33,15 @@ export function watchErrors(page: Page): string[] {
 /** Go to a path (or URL) and wait until React has hydrated the page (see components/shell/HydrationMark). */
 export async function open(page: Page, path: string): Promise<void> {
   await page.goto(path.startsWith("http") ? path : `${BASE_URL}${path}`, { waitUntil: "load" });
+  await waitHydrated(page);
+}
+
+/**
+ * Waits until React has hydrated the page and every client island streamed behind a Suspense boundary
+ * (components/shell/IslandMark, useHydrated): input typed before then loses its event.
+ */
+export async function waitHydrated(page: Page): Promise<void> {
   await page.waitForSelector("html[data-hydrated]", { state: "attached", timeout: 30_000 });
-  // Client islands inside a Suspense boundary may hydrate later than the layout (components/shell/useHydrated).
   await page.waitForFunction(() => document.querySelector("[data-island]:not([data-ready])") === null, undefined, { timeout: 30_000 });
 }
 

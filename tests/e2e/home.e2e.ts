@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { BASE_URL, launch, watchErrors } from "./browser";
+import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { signIn } from "./auth";
 
 describe("home page", () => {
@@ -15,7 +15,7 @@ describe("home page", () => {
   it("says what Quell does with a picture of the workbench, offers Create a team beside Sign in, and shows no system status", async () => {
     const page = await browser.newPage();
     const errors = watchErrors(page);
-    await page.goto(BASE_URL, { waitUntil: "load" });
+    await open(page, BASE_URL);
     const picture = page.getByRole("img", { name: /The Quell workbench/ });
     await picture.waitFor();
     await expect.poll(() => picture.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth), { timeout: 15_000 }).toBeGreaterThan(1000);
@@ -33,7 +33,7 @@ describe("home page", () => {
     const page = await ctx.newPage();
     await signIn(page, "designer");
     for (const path of ["/sign-in", "/forgot-password"]) {
-      await page.goto(`${BASE_URL}${path}`, { waitUntil: "load" });
+      await open(page, `${BASE_URL}${path}`);
       expect(new URL(page.url()).pathname).toBe("/scenarios");
     }
     await ctx.close();

@@ -27,7 +27,7 @@ describe("onboarding: a new team's starting points", () => {
 
   it("one click on a demo design makes a copy of it in the team and opens it; afterwards the list shows it", async () => {
     const page = await browser.newPage();
-    await page.goto(`${BASE_URL}/sign-in`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/sign-in`);
     await page.getByLabel("E-mail").fill(email);
     await page.getByLabel("Password").fill(password);
     await page.getByRole("button", { name: "Sign in" }).click();

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { BASE_URL, dragAcross, launch, watchErrors } from "./browser";
+import { BASE_URL, dragAcross, launch, watchErrors, open } from "./browser";
 import { openScenario } from "./auth";
 
 /**
@@ -74,7 +74,7 @@ describe("plots: zoom, pan, cursors, marks and traces", () => {
   });
 
   it("the Howland pump's step plot has no collector/drain trace", async () => {
-    await page.goto(`${BASE_URL}/scenarios/new`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/scenarios/new`);
     await page.getByTestId("template-howland").click();
     await page.getByTestId("new-draft").click();
     await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });

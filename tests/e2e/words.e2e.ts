@@ -54,7 +54,7 @@ describe("dates and words", () => {
   });
 
   it("the library's filter menus show readable names, not internal ids", async () => {
-    await page.goto(`${BASE_URL}/library`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/library`);
     const options = await page.locator('form[role="search"] select option').allTextContents();
     for (const id of ["sink-npn", "sink-nmos", "coil", "npn", "nmos", "resistor", "led"]) expect(options).not.toContain(id);
     expect(options).toEqual(expect.arrayContaining(["Validated"]));

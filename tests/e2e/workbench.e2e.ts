@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Download, Page } from "playwright-core";
-import { BASE_URL, launch, watchErrors } from "./browser";
+import { BASE_URL, launch, watchErrors, open } from "./browser";
 import { signIn } from "./auth";
 
 async function readDownload(d: Download): Promise<string> {
@@ -26,7 +26,7 @@ describe("workbench", () => {
     page = await browser.newPage({ viewport: { width: 1280, height: 800 }, acceptDownloads: true });
     errors = watchErrors(page);
     await signIn(page, "designer");
-    await page.goto(`${BASE_URL}/scenarios`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/scenarios`);
     await page.getByRole("link", { name: "Valve coil driver", exact: true }).first().click();
     await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/, { timeout: 30_000 });
     await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
@@ -223,7 +223,7 @@ describe("workbench", () => {
   });
 
   it("starts a new scenario from a template as a local draft and simulates it", async () => {
-    await page.goto(`${BASE_URL}/scenarios/new`, { waitUntil: "load" });
+    await open(page, `${BASE_URL}/scenarios/new`);
     await page.getByTestId("template-howland").click();
     await page.getByTestId("new-draft").click();
     await page.getByTestId("metric-phase-margin-value").filter({ hasNotText: "—" }).waitFor({ timeout: 60_000 });
