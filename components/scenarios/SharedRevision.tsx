@@ -51,7 +51,7 @@ export function SharedRevision({ body }: { body: unknown }) {
           <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4">
             <Figure id="phase-margin" label="Phase margin (current loop)" value={loop?.phaseMarginDeg == null ? "no crossover" : `${loop.phaseMarginDeg.toFixed(1)}°`} />
             <Figure id="crossover" label="Crossover" value={loop?.crossoverHz == null ? "—" : formatEng(loop.crossoverHz, "Hz")} />
-            <Figure id="overshoot" label="Overshoot" value={m ? `${m.overshootPct.toFixed(1)} %` : "—"} />
+            <Figure id="overshoot" label="Overshoot" value={m ? `${m.overshootPct.toFixed(1)} %${done?.step.small ? (done.step.small.grows ? " (small-signal step grows)" : ` (small-signal ${done.step.small.metrics.overshootPct.toFixed(1)} %)`) : ""}` : "—"} />
             <Figure id="settling" label="Settling (±1 %)" value={m?.settlingTime1pct == null ? "not settled" : formatEng(m.settlingTime1pct, "s")} />
           </dl>
         ) : waiting}

@@ -7,7 +7,7 @@ import type { CheckRow, Verdict as VerdictWord } from "@/lib/design/checks";
 import { explainFigures } from "@/lib/design/explain";
 import {
   GAIN_MARGIN_PASS_DB, MODULUS_MARGIN_PASS, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG, gainMarginVerdict, modulusMarginVerdict,
-  overshootVerdict, phaseMarginVerdict, settlingVerdict,
+  judgedOvershootPct, overshootVerdict, phaseMarginVerdict, settlingVerdict,
 } from "@/lib/design/verdicts";
 import { formatEng } from "@/lib/units/eng";
 import type { LiveResult } from "@/lib/workbench/types";
@@ -31,7 +31,8 @@ interface Headline {
 
 /**
  * The headline figures. Stability figures are the current loop's (broken between the op-amp's output and the
- * base/gate resistor); the step figures are the large-signal step's, the load's real experience.
+ * base/gate resistor); the step figures are the large-signal step's, the load's real experience, but the overshoot
+ * is judged on the worse of it and the small-signal step (a small command change rings as that one does).
  */
 export function headlines(r: LiveResult | null, maxOvershootPct: number): Headline[] {
   const loop = r?.loop ?? null;
@@ -77,8 +78,13 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
     {
       id: "overshoot", label: "Overshoot",
       value: os === null ? "—" : `${os.toFixed(1)} %`,
-      verdict: overshootVerdict(os, maxOvershootPct),
-      hint: r?.step?.small?.grows ? `small-signal step grows: unstable; target ≤ ${maxOvershootPct} %` : small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
+      // judged on the worse of this step and its small-signal twin (verdicts.ts judgedOvershootPct)
+      verdict: overshootVerdict(os === null ? null : judgedOvershootPct(os, r?.step?.small ? { overshootPct: r.step.small.metrics.overshootPct, grows: r.step.small.grows } : null), maxOvershootPct),
+      hint: r?.step?.small?.grows
+        ? `small-signal step grows: unstable; target ≤ ${maxOvershootPct} %`
+        : small && os !== null && small.overshootPct > os && small.overshootPct > maxOvershootPct
+        ? `small-signal ${small.overshootPct.toFixed(1)} %, judged (the worse); target ≤ ${maxOvershootPct} %`
+        : small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
     },
     {
       id: "settling", label: "Settling (±1 %)",

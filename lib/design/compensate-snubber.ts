@@ -8,18 +8,25 @@ import { isSimError } from "../sim";
 import { formatEng } from "../units/eng";
 import { checkChoice, loadCorners, probeAndBisect, type CompensateCheck, type CompensateSettings } from "./compensate";
 import { eValuesBetween } from "./eseries";
-import { runLoopGain, runStep } from "./run";
+import { runLoopGain } from "./run";
 import type { Scenario, Snubber } from "./schema";
-import { checkStop, engineOptions, type StudyOptions } from "./study-common";
+import { checkStop, engineOptions, worstStepOverCorners, type StudyOptions } from "./study-common";
 
-/** Capacitors tried, F: 10 nF to 10 µF in the study's series (at most E12: finer steps buy nothing here). */
+/**
+ * Capacitors tried, F: 1 nF to 10 µF in the study's series (at most E12: finer steps buy nothing here). The low end
+ * reaches a coil of millihenries ringing against a few hundred picofarads (a tank of kilohms), the high end a coil's
+ * low-impedance resonance with a long cable.
+ */
 export function snubberCapacitors(settings: CompensateSettings): number[] {
   const series = settings.series === "E6" ? "E6" : "E12";
-  return eValuesBetween(10e-9, 10e-6, series);
+  return eValuesBetween(1e-9, 10e-6, series);
 }
 
-/** Resistors tried for each capacitor, Ω: 1, 2.2 and 4.7 per decade from 1 Ω to 1 kΩ (E3, a coarse first pass). */
-export const SNUBBER_RESISTORS: readonly number[] = eValuesBetween(1, 1e3, "E6").filter((_, i) => i % 2 === 0);
+/**
+ * Resistors tried for each capacitor, Ω: 1, 2.2 and 4.7 per decade from 1 Ω to 10 kΩ (E3, a coarse first pass), up
+ * to the characteristic impedance √(L/C) of a tank of kilohms.
+ */
+export const SNUBBER_RESISTORS: readonly number[] = eValuesBetween(1, 1e4, "E6").filter((_, i) => i % 2 === 0);
 
 /** One capacitor the search visited: the best resistor for it and what it gave. */
 export interface SnubberTry {
@@ -75,12 +82,7 @@ export function compensateLoadSnubber(s: Scenario, settings: CompensateSettings,
         continue;
       }
       try {
-        let os = 0, ts = 0;
-        for (const corner of corners) {
-          const m = runStep(withSnubber(corner, { resistance, capacitance }), engineOptions(opts)).metrics;
-          os = Math.max(os, m.overshootPct);
-          ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
-        }
+        const { os, ts } = worstStepOverCorners(corners.map((corner) => withSnubber(corner, { resistance, capacitance })), opts);
         if (row.worstOvershootPct === null || os < row.worstOvershootPct) {
           row = { capacitance, resistance, minPhaseMarginDeg: pm, worstOvershootPct: os, worstSettlingTime1pct: ts, meets: os <= settings.maxOvershootPct };
         }

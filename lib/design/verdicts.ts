@@ -45,6 +45,17 @@ export function modulusMarginVerdict(mm: number | null, unstable = false): Verdi
   return mm >= MODULUS_MARGIN_PASS ? "pass" : mm >= MODULUS_MARGIN_WARN ? "warn" : "fail";
 }
 
+/**
+ * The overshoot a design is judged on: the worse of the step as specified (the full, large-signal step) and its
+ * linearised twin (the small-signal step: what a small command change or a disturbance near the operating point
+ * does). A clamp, a rail or slewing can hold the full step still while the loop, or a load resonance, rings at every
+ * small change; a design review judges the worse. A linearised step that grows counts as unbounded (Infinity).
+ */
+export function judgedOvershootPct(fullPct: number, small: { overshootPct: number; grows: boolean } | null): number {
+  if (!small) return fullPct;
+  return small.grows ? Infinity : Math.max(fullPct, small.overshootPct);
+}
+
 /** Overshoot against the scenario's target: pass within it, warn up to twice it plus 5 points, fail beyond. */
 export function overshootVerdict(os: number | null, maxOvershootPct: number): Verdict | null {
   if (os === null) return null;

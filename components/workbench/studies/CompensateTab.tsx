@@ -27,7 +27,7 @@ function SnubberResult({ result }: { result: SnubberTuneResult }) {
             <tr key={t.capacitance}>
               <td>{formatEng(t.capacitance, "F")}</td><td>{formatEng(t.resistance, "Ω")}</td>
               <td>{Number.isFinite(t.minPhaseMarginDeg) ? `${t.minPhaseMarginDeg.toFixed(1)}°` : "—"}</td>
-              <td>{t.worstOvershootPct === null ? "—" : `${t.worstOvershootPct.toFixed(1)} %`}</td>
+              <td>{t.worstOvershootPct === null ? "—" : Number.isFinite(t.worstOvershootPct) ? `${t.worstOvershootPct.toFixed(1)} %` : "grows"}</td>
               <td>{t.meets ? "yes" : "no"}</td>
             </tr>
           ))}

@@ -2,7 +2,9 @@ import { describe, expect, it } from "vitest";
 import { valveCoilDemo } from "@/lib/design/demos";
 import { explainFigures, loadTankNote } from "@/lib/design/explain";
 import { defaultScenario } from "@/lib/design/templates";
-import { runSmallSignalStep } from "@/lib/design/run";
+import { runSmallSignalStep, runStep } from "@/lib/design/run";
+import { judgedOvershootPct, overshootVerdict } from "@/lib/design/verdicts";
+import { checkChoice, compensate } from "@/lib/design/compensate";
 import { nearestE } from "@/lib/design/eseries";
 import type { Scenario } from "@/lib/design/schema";
 import { idealTransconductance } from "@/lib/design/compile";
@@ -96,6 +98,33 @@ describe("explainFigures", () => {
       expect(step.small!.metrics.overshootPct).toBeLessThan(1);
       expect(notes.some((n) => n.includes("the load's, not the loop's"))).toBe(false);
     });
+
+    it("the overshoot is judged on the worse step: the card fails on the ring the full step hides, and Compensate judges alike", () => {
+      const s = tenOhm();
+      s.load.resistanceMin = s.load.resistanceMax = s.load.resistance; // one load corner keeps the search short
+      const full = runStep(s).metrics.overshootPct;
+      const small = runSmallSignalStep(s)!;
+      const target = s.studies.compensate.maxOvershootPct;
+      expect(overshootVerdict(full, target)).toBe("pass"); // the clamp holds the full step
+      const judged = judgedOvershootPct(full, { overshootPct: small.metrics.overshootPct, grows: small.grows });
+      expect(judged).toBe(small.metrics.overshootPct);
+      expect(overshootVerdict(judged, target)).toBe("fail");
+      const settings = { ...s.studies.compensate, tuneLoadSnubber: true };
+      const check = checkChoice(s, { compCapacitor: s.parts.compCapacitor, baseResistor: s.parts.baseResistor }, settings);
+      expect(check.worstOvershootPct).toBeCloseTo(judged, 6);
+      expect(check.meetsTargets).toBe(false);
+      // No compensation capacitor damps the load's own ring; the load snubber search finds an R–C near the note's
+      // suggestion (R within a factor of two of √(L/C), C between the tank's and ten times it), and it meets the target.
+      const r = compensate(s, settings);
+      expect(r.chosen === null || r.chosen.worstOvershootPct <= target).toBe(true);
+      const snub = r.loadSnubber!.chosen!;
+      const { L, C } = implied(s);
+      expect(snub.resistance / Math.sqrt(L / C)).toBeGreaterThan(0.5);
+      expect(snub.resistance / Math.sqrt(L / C)).toBeLessThan(2);
+      expect(snub.capacitance).toBeGreaterThanOrEqual(C);
+      expect(snub.capacitance).toBeLessThanOrEqual(10 * C);
+      expect(snub.check?.meetsTargets).toBe(true);
+    }, 60_000);
 
     it("says nothing of a resistive load, a step that grows, or a ring near the loop's crossover", () => {
       const s = tenOhm();
