@@ -109,6 +109,7 @@ export function largeSignalLimits(s: Scenario, step: StepLike): string[] {
  */
 export function explainFigures(s: Scenario, loop: LoopFiguresLike | null, local: LoopFiguresLike | null, step: StepLike | null): string[] {
   const notes: string[] = [];
+  const tank = loadTankNote(s, loop, step);
   if (loop && loop.crossovers.length > 1) {
     notes.push(
       `The current loop's gain crosses 0 dB ${loop.crossovers.length} times (at ${loop.crossovers.map((f) => formatEng(f, "Hz")).join(", ")}); ` +
@@ -134,14 +135,13 @@ export function explainFigures(s: Scenario, loop: LoopFiguresLike | null, local:
     if (Math.abs(big - small) > Math.max(3, 0.2 * Math.max(big, small))) {
       const why = largeSignalLimits(s, step);
       notes.push(
-        `The step overshoots ${big.toFixed(1)} %, the linearised circuit's step (what the loop's margins describe) ${small.toFixed(1)} %. ` +
+        `The step overshoots ${big.toFixed(1)} %, the linearised circuit's step${tank ? "" : " (what the loop's margins describe)"} ${small.toFixed(1)} %. ` +
           (why.length
             ? `The step is a large signal: ${why.join("; ")}.`
             : "Nothing hit a limit, so the difference comes from the circuit's gain changing over the step's range (the pass device's transconductance, the load's nonlinearity): try a smaller step to see the small-signal figure."),
       );
     }
   }
-  const tank = loadTankNote(s, loop, step);
   if (tank) notes.push(tank);
   return notes;
 }
