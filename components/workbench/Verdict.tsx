@@ -32,7 +32,7 @@ interface Headline {
 /**
  * The headline figures. Stability figures are the current loop's (broken between the op-amp's output and the
  * base/gate resistor); the step figures are the large-signal step's, the load's real experience, but the overshoot
- * is judged on the worse of it and the small-signal step (a small command change rings as that one does).
+ * is the worse of it and the small-signal step's (a small command change rings as that one does).
  */
 export function headlines(r: LiveResult | null, maxOvershootPct: number): Headline[] {
   const loop = r?.loop ?? null;
@@ -43,6 +43,7 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
   const diss = row("dissipation") ?? row("junction-temperature");
   const pm = loop?.phaseMarginDeg ?? null;
   const os = m ? m.overshootPct : null;
+  const judgedOs = os === null ? null : judgedOvershootPct(os, r?.step?.small ? { overshootPct: r.step.small.metrics.overshootPct, grows: r.step.small.grows } : null);
   const nCross = loop?.crossovers.length ?? 0;
   return [
     {
@@ -76,15 +77,15 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
       hint: loop?.unstable ? "no margin: the closed loop is unstable" : loop ? `min |1 + T| at ${formatEng(loop.modulusMarginHz, "Hz")}; pass ≥ ${MODULUS_MARGIN_PASS}` : "min |1 + T|",
     },
     {
+      // Judged, and shown, as the worse of this step and its small-signal twin (verdicts.ts judgedOvershootPct).
       id: "overshoot", label: "Overshoot",
-      value: os === null ? "—" : `${os.toFixed(1)} %`,
-      // judged on the worse of this step and its small-signal twin (verdicts.ts judgedOvershootPct)
-      verdict: overshootVerdict(os === null ? null : judgedOvershootPct(os, r?.step?.small ? { overshootPct: r.step.small.metrics.overshootPct, grows: r.step.small.grows } : null), maxOvershootPct),
+      value: judgedOs === null ? "—" : Number.isFinite(judgedOs) ? `${judgedOs.toFixed(1)} %` : "grows",
+      verdict: overshootVerdict(judgedOs, maxOvershootPct),
       hint: r?.step?.small?.grows
-        ? `small-signal step grows: unstable; target ≤ ${maxOvershootPct} %`
-        : small && os !== null && small.overshootPct > os && small.overshootPct > maxOvershootPct
-        ? `small-signal ${small.overshootPct.toFixed(1)} %, judged (the worse); target ≤ ${maxOvershootPct} %`
-        : small ? `small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
+        ? `small-signal step grows: unstable; full step ${os!.toFixed(1)} %; target ≤ ${maxOvershootPct} %`
+        : small && os !== null && small.overshootPct > os
+        ? `small-signal step (the worse); full step ${os.toFixed(1)} %; target ≤ ${maxOvershootPct} %`
+        : small ? `full step; small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
     },
     {
       id: "settling", label: "Settling (±1 %)",

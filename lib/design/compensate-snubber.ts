@@ -13,13 +13,13 @@ import type { Scenario, Snubber } from "./schema";
 import { checkStop, engineOptions, worstStepOverCorners, type StudyOptions } from "./study-common";
 
 /**
- * Capacitors tried, F: 1 nF to 10 µF in the study's series (at most E12: finer steps buy nothing here). The low end
- * reaches a coil of millihenries ringing against a few hundred picofarads (a tank of kilohms), the high end a coil's
- * low-impedance resonance with a long cable.
+ * Capacitors tried, F: 100 pF to 10 µF in the study's series (at most E12: finer steps buy nothing here). The low
+ * end reaches a coil of millihenries ringing against a few hundred picofarads (a tank of kilohms), the high end a
+ * coil's low-impedance resonance with a long cable.
  */
 export function snubberCapacitors(settings: CompensateSettings): number[] {
   const series = settings.series === "E6" ? "E6" : "E12";
-  return eValuesBetween(1e-9, 10e-6, series);
+  return eValuesBetween(100e-12, 10e-6, series);
 }
 
 /**
