@@ -309,7 +309,7 @@ export const studiesSchema = z.object({
   map: z.object({
     x: axisSchema,
     y: axisSchema,
-    metric: z.enum(["phaseMarginDeg", "overshootPct", "settlingTime1pct", "noiseRms"]),
+    metric: z.enum(["phaseMarginDeg", "overshootPct", "judgedOvershootPct", "settlingTime1pct", "noiseRms"]),
   }),
   spread: z.object({
     runs: z.number().int().min(1, "At least one run").max(100000, "At most 100 000 runs"),

@@ -6,7 +6,8 @@
  * SimError "cancelled".
  */
 import { withParameter, axisValues } from "./parameters";
-import { runLoopGain, runStep } from "./run";
+import { runLoopGain, runSmallSignalStep, runStep } from "./run";
+import { judgedOvershootPct } from "./verdicts";
 import { runNoiseStudy } from "./noise";
 import type { Scenario, SweepAxis } from "./schema";
 import { checkStop, clampRange, engineOptions, failure, nanArray, type IndexRange, type StudyOptions } from "./study-common";
@@ -33,6 +34,8 @@ export interface SweepResult {
   gainMarginDb: Float64Array;
   crossoverHz: Float64Array;
   overshootPct: Float64Array;
+  /** the small-signal step's overshoot, % (NaN where it grows: the point's failures say so) */
+  smallOvershootPct: Float64Array;
   settlingTime1pct: Float64Array;
   riseTime: Float64Array;
   finalCurrent: Float64Array;
@@ -52,7 +55,7 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
   const out: SweepResult = {
     path: axis.path,
     values: Float64Array.from(values),
-    phaseMarginDeg: nanArray(n), gainMarginDb: nanArray(n), crossoverHz: nanArray(n), overshootPct: nanArray(n),
+    phaseMarginDeg: nanArray(n), gainMarginDb: nanArray(n), crossoverHz: nanArray(n), overshootPct: nanArray(n), smallOvershootPct: nanArray(n),
     settlingTime1pct: nanArray(n), riseTime: nanArray(n), finalCurrent: nanArray(n), noiseRms: nanArray(n),
     points: [],
     failures: [],
@@ -81,6 +84,13 @@ export function sweep1d(s: Scenario, axis: SweepAxis, opts: StudyOptions = {}, r
       failure(e, i, out.failures);
     }
     try {
+      const small = runSmallSignalStep(v, engineOptions(opts));
+      if (small?.grows) out.failures.push({ index: i, message: GROWS });
+      else if (small) out.smallOvershootPct[i] = small.metrics.overshootPct;
+    } catch (e) {
+      failure(e, i, out.failures);
+    }
+    try {
       out.noiseRms[i] = runNoiseStudy(v, engineOptions(opts)).rms;
     } catch (e) {
       failure(e, i, out.failures);
@@ -99,7 +109,7 @@ export function mergeSweep(chunks: readonly SweepResult[]): SweepResult {
   if (chunks.length === 0) throw new RangeError("mergeSweep needs at least one chunk");
   const first = chunks[0];
   const n = first.values.length;
-  const columns = ["phaseMarginDeg", "gainMarginDb", "crossoverHz", "overshootPct", "settlingTime1pct", "riseTime", "finalCurrent", "noiseRms"] as const;
+  const columns = ["phaseMarginDeg", "gainMarginDb", "crossoverHz", "overshootPct", "smallOvershootPct", "settlingTime1pct", "riseTime", "finalCurrent", "noiseRms"] as const;
   const out: SweepResult = {
     ...first,
     points: chunks.flatMap((c) => c.points).sort((a, b) => a.index - b.index),
@@ -117,7 +127,10 @@ export function mergeSweep(chunks: readonly SweepResult[]): SweepResult {
   return out;
 }
 
-export type MapMetric = "phaseMarginDeg" | "overshootPct" | "settlingTime1pct" | "noiseRms";
+export type MapMetric = "phaseMarginDeg" | "overshootPct" | "judgedOvershootPct" | "settlingTime1pct" | "noiseRms";
+
+/** What a study point records when its linearised step grows (no overshoot figure: the closed loop is unstable). */
+const GROWS = "the small-signal step grows: the closed loop is unstable";
 
 export interface MapResult {
   xPath: string;
@@ -143,13 +156,18 @@ export function mergeMap(chunks: readonly MapResult[]): MapResult & { failed: Se
   return { ...first, values, failures: chunks.flatMap((c) => c.failures), failed };
 }
 
-/** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step;
- *  the load-current noise over the scenario's band from the Noise study). */
+/** Evaluate one metric for one scenario (the current loop's PM from its loop gain; overshoot and settling from the step,
+ *  `judgedOvershootPct` the worse of it and the small-signal step's as the overshoot card judges, Infinity when that
+ *  grows; the load-current noise over the scenario's band from the Noise study). */
 export function evaluateMetric(s: Scenario, metric: MapMetric, opts: StudyOptions = {}): number {
   if (metric === "noiseRms") return runNoiseStudy(s, engineOptions(opts)).rms;
   // 10 points per decade locate the crossover well enough for a map (the margin is interpolated).
   if (metric === "phaseMarginDeg") return runLoopGain(s, engineOptions(opts), { pointsPerDecade: 10 }, false).phaseMarginDeg ?? NaN;
   const m = runStep(s, engineOptions(opts)).metrics;
+  if (metric === "judgedOvershootPct") {
+    const small = runSmallSignalStep(s, engineOptions(opts));
+    return judgedOvershootPct(m.overshootPct, small && { overshootPct: small.metrics.overshootPct, grows: small.grows });
+  }
   return metric === "overshootPct" ? m.overshootPct : m.settlingTime1pct ?? NaN;
 }
 
@@ -174,7 +192,9 @@ export function map2d(
     const iy = Math.floor(k / xs.length);
     const v = withParameter(withParameter(s, settings.x.path, xs[ix]), settings.y.path, ys[iy]);
     try {
-      out.values[k] = evaluateMetric(v, settings.metric, opts);
+      const value = evaluateMetric(v, settings.metric, opts);
+      if (value === Infinity) out.failures.push({ index: k, message: GROWS });
+      else out.values[k] = value;
     } catch (e) {
       failure(e, k, out.failures);
     }

@@ -19,7 +19,10 @@ export function SweepTab({ runner }: { runner: StudyRunner | null }) {
   const stepOverlays = useMemo<Overlay[]>(() => merged?.points.filter((p) => p.step).map((p) => ({ x: p.step!.time, y: p.step!.iLoad, stroke: colour(p.index), scale: "y", width: 1.5 })) ?? [], [merged]);
   const bodeOverlays = useMemo<Overlay[]>(() => merged?.points.filter((p) => p.loop).map((p) => ({ x: p.loop!.freq, y: p.loop!.magDb, stroke: colour(p.index), scale: "y", width: 1.5 })) ?? [], [merged]);
   const metricOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.phaseMarginDeg, stroke: OKABE_ITO[0], scale: "y", width: 2 }] : [], [merged]);
-  const osOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.overshootPct, stroke: OKABE_ITO[1], scale: "y", width: 2 }] : [], [merged]);
+  const osOverlays = useMemo<Overlay[]>(() => merged ? [
+    { x: merged.values, y: merged.overshootPct, stroke: OKABE_ITO[1], scale: "y", width: 2 },
+    { x: merged.values, y: merged.smallOvershootPct, stroke: OKABE_ITO[1], scale: "y", width: 2, dash: [5, 4] },
+  ] : [], [merged]);
   const noiseOverlays = useMemo<Overlay[]>(() => merged ? [{ x: merged.values, y: merged.noiseRms, stroke: OKABE_ITO[2], scale: "y", width: 2 }] : [], [merged]);
   const xLog = (merged?.values[0] ?? 0) > 0;
   return (
@@ -50,7 +53,7 @@ export function SweepTab({ runner }: { runner: StudyRunner | null }) {
               <OverlayChart title="Load current, one curve per value" overlays={stepOverlays} xLog={false} xUnit="s" yUnit="A" scale="y" testId="sweep-step" />
               <OverlayChart title="Loop gain magnitude" overlays={bodeOverlays} xLog xUnit="Hz" yUnit="dB" scale="y" testId="sweep-bode" />
               <OverlayChart title={`Current-loop phase margin against ${info.label.toLowerCase()}`} overlays={metricOverlays} xLog={xLog} xUnit={info.unit} yUnit="°" scale="y" testId="sweep-pm" />
-              <OverlayChart title={`Overshoot against ${info.label.toLowerCase()}`} overlays={osOverlays} xLog={xLog} xUnit={info.unit} yUnit="%" scale="y" testId="sweep-os" />
+              <OverlayChart title={`Overshoot against ${info.label.toLowerCase()}: full step (solid), small-signal step (dashed)`} overlays={osOverlays} xLog={xLog} xUnit={info.unit} yUnit="%" scale="y" testId="sweep-os" />
               <OverlayChart title={`Load-current noise (RMS over the band) against ${info.label.toLowerCase()}`} overlays={noiseOverlays} xLog={xLog} xUnit={info.unit} yUnit="A" scale="y" testId="sweep-noise" />
             </div>
           </>

@@ -4,6 +4,7 @@ import {
   SWEEPABLE_PARAMETERS, accuracyBudget, axisValues, compensate, compensatePick, compensateScan, worstCaseCorners, defaultScenario, getParameter, map2d, mergeMap, mergeSpread, mergeSweep, nearestE, spread, sweep1d,
   withParameter,
 } from "@/lib/design";
+import { valveCoilDemo } from "@/lib/design/demos";
 
 describe("parameters and axes", () => {
   it("every sweepable path exists in every template's scenario", () => {
@@ -117,5 +118,35 @@ describe("studies on the reference sink", () => {
     expect(sp.summary!.errorPctFs.max).toBeLessThanOrEqual(corners.high + 1e-9);
     expect(sp.summary!.errorPctFs.min).toBeGreaterThanOrEqual(corners.low - 1e-9);
   });
-});
 
+  // The NPN template with a 10 Ω sense resistor: its clamp holds the full step, while the 5 mH coil rings against the
+  // ~0.5 nF at its terminals at every small change (tests/unit/lib/design/explain.test.ts). A series R–C across the
+  // load near √(L/C) ≈ 3 kΩ damps a parallel tank once its capacitor is comparable with the tank's (docs/references.md
+  // §4.4, common practice): the sweep shows both overshoots, the map's judged metric the worse of them.
+  it("Sweep and Map carry the small-signal overshoot the card judges: a load snubber's capacitor tames the ring the full step hides", () => {
+    const ring = defaultScenario("sink-npn");
+    ring.parts.senseResistor = 10;
+    ring.networks.loadSnubber = { resistance: 2200, capacitance: 100e-12 };
+    const axis = { path: "networks.loadSnubber.capacitance", from: 100e-12, to: 2.2e-9, points: 3, scale: "log" as const, values: [] };
+    const sw = sweep1d(ring, axis);
+    expect(sw.failures).toEqual([]);
+    for (let i = 0; i < 3; i++) expect(sw.overshootPct[i]).toBeLessThan(5);
+    expect(sw.smallOvershootPct[0]).toBeGreaterThan(15);
+    expect(sw.smallOvershootPct[2]).toBeLessThan(5);
+    expect(sw.smallOvershootPct[1]).toBeLessThan(sw.smallOvershootPct[0]);
+    const map = map2d(ring, { x: axis, y: { path: "parts.senseResistor", from: 10, to: 10, points: 1, scale: "linear", values: [] }, metric: "judgedOvershootPct" });
+    for (let i = 0; i < 3; i++) expect(map.values[i]).toBeCloseTo(Math.max(sw.overshootPct[i], sw.smallOvershootPct[i]), 6);
+  });
+
+  it("a point whose linearised step grows has no overshoot figure, and says why", () => {
+    // the valve demo with a 10 Ω sense resistor is unstable (docs/references.md §4.3; tests/unit/lib/design/metrics.test.ts)
+    const v = valveCoilDemo();
+    const axis = { path: "parts.senseResistor", from: 10, to: 10, points: 1, scale: "linear" as const, values: [] };
+    const sw = sweep1d(v, axis);
+    expect(Number.isNaN(sw.smallOvershootPct[0])).toBe(true);
+    expect(sw.failures.map((f) => f.message)).toContain("the small-signal step grows: the closed loop is unstable");
+    const map = map2d(v, { x: axis, y: axis, metric: "judgedOvershootPct" });
+    expect(Number.isNaN(map.values[0])).toBe(true);
+    expect(map.failures).toEqual([{ index: 0, message: "the small-signal step grows: the closed loop is unstable" }]);
+  });
+});
