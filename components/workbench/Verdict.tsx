@@ -7,7 +7,7 @@ import type { CheckRow, Verdict as VerdictWord } from "@/lib/design/checks";
 import { explainFigures } from "@/lib/design/explain";
 import {
   GAIN_MARGIN_PASS_DB, MODULUS_MARGIN_PASS, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG, gainMarginVerdict, modulusMarginVerdict,
-  judgedOvershootPct, overshootVerdict, phaseMarginVerdict, settlingVerdict,
+  judgedOvershootPct, judgedSettling, overshootVerdict, phaseMarginVerdict, settlingVerdict,
 } from "@/lib/design/verdicts";
 import { formatEng } from "@/lib/units/eng";
 import type { LiveResult } from "@/lib/workbench/types";
@@ -44,6 +44,7 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
   const pm = loop?.phaseMarginDeg ?? null;
   const os = m ? m.overshootPct : null;
   const judgedOs = os === null ? null : judgedOvershootPct(os, r?.step?.small ? { overshootPct: r.step.small.metrics.overshootPct, grows: r.step.small.grows } : null);
+  const settle = m ? judgedSettling(m, r?.step?.small ?? null) : null;
   const nCross = loop?.crossovers.length ?? 0;
   return [
     {
@@ -88,10 +89,11 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
         : small ? `full step; small-signal ${small.overshootPct.toFixed(1)} %; target ≤ ${maxOvershootPct} %` : `target ≤ ${maxOvershootPct} %`,
     },
     {
+      // Judged, and shown, as the slower of this step and its small-signal twin (verdicts.ts judgedSettling).
       id: "settling", label: "Settling (±1 %)",
-      value: m?.settlingTime1pct != null ? formatEng(m.settlingTime1pct, "s") : m ? "not within the record" : "—",
-      verdict: settlingVerdict(m),
-      hint: m?.settlingTime01pct != null ? `±0.1 %: ${formatEng(m.settlingTime01pct, "s")}` : "±0.1 %: not within the record",
+      value: !settle ? "—" : settle.settlingTime1pct !== null ? formatEng(settle.settlingTime1pct, "s") : r?.step?.small?.grows ? "never (grows)" : "not within the record",
+      verdict: settlingVerdict(settle),
+      hint: `${settle?.small ? "small-signal step (the slower); " : ""}±0.1 %: ${settle?.settlingTime01pct != null ? formatEng(settle.settlingTime01pct, "s") : "not within the record"}`,
     },
     {
       id: "full-scale-error", label: "Full-scale error",

@@ -42,7 +42,7 @@ export type { OperatingPointSummary, StepResult, SmallSignalStep, LoopGainResult
 export { runScenario, POLICIES, ANALYSIS_LABELS, AnalysisError } from "./scenario-run";
 export type { ScenarioRun, RunPolicy, AnalysisName } from "./scenario-run";
 export {
-  phaseMarginVerdict, gainMarginVerdict, modulusMarginVerdict, overshootVerdict, judgedOvershootPct, settlingVerdict, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG,
+  phaseMarginVerdict, gainMarginVerdict, modulusMarginVerdict, overshootVerdict, judgedOvershootPct, judgedSettling, settlingVerdict, PHASE_MARGIN_PASS_DEG, PHASE_MARGIN_WARN_DEG,
   GAIN_MARGIN_PASS_DB, GAIN_MARGIN_WARN_DB, MODULUS_MARGIN_PASS, MODULUS_MARGIN_WARN,
 } from "./verdicts";
 export { explainFigures, largeSignalLimits } from "./explain";

@@ -2,7 +2,7 @@
 import { SimError, isSimError } from "../sim";
 import { runSmallSignalStep, runStep } from "./run";
 import type { Scenario } from "./schema";
-import { judgedOvershootPct } from "./verdicts";
+import { judgedOvershootPct, judgedSettling } from "./verdicts";
 
 export interface StudyOptions {
   /** called after each run with (runs done in this chunk, runs in this chunk) */
@@ -42,9 +42,9 @@ export function failure(e: unknown, index: number, failures: { index: number; me
 export const nanArray = (n: number) => new Float64Array(n).fill(NaN);
 
 /**
- * The worst step over a set of designs (a candidate at every load corner): the overshoot the headline card judges
- * (the worse of the full step and its linearised twin, `judgedOvershootPct`) and the slowest ±1 % settling
- * (Infinity when one does not settle within its record). A run the engine cannot finish throws.
+ * The worst step over a set of designs (a candidate at every load corner), judged as the headline cards judge it:
+ * the overshoot and the ±1 % settling of the worse of the full step and its linearised twin (`judgedOvershootPct`,
+ * `judgedSettling`; Infinity when one does not settle within its record). A run the engine cannot finish throws.
  */
 export function worstStepOverCorners(corners: readonly Scenario[], opts: StudyOptions): { os: number; ts: number } {
   let os = 0, ts = 0;
@@ -52,7 +52,7 @@ export function worstStepOverCorners(corners: readonly Scenario[], opts: StudyOp
     const m = runStep(corner, engineOptions(opts)).metrics;
     const small = runSmallSignalStep(corner, engineOptions(opts));
     os = Math.max(os, judgedOvershootPct(m.overshootPct, small && { overshootPct: small.metrics.overshootPct, grows: small.grows }));
-    ts = Math.max(ts, m.settlingTime1pct ?? Infinity);
+    ts = Math.max(ts, judgedSettling(m, small).settlingTime1pct ?? Infinity);
   }
   return { os, ts };
 }

@@ -62,8 +62,28 @@ export function overshootVerdict(os: number | null, maxOvershootPct: number): Ve
   return os <= maxOvershootPct ? "pass" : os <= 2 * maxOvershootPct + 5 ? "warn" : "fail";
 }
 
+/** Settling times from the step, s (null: not within the record). */
+export type SettlingLike = Pick<StepMetrics, "settlingTime1pct" | "settlingTime01pct">;
+
+/**
+ * The settling a design is judged on, as for the overshoot: the slower of the full step and the small-signal step
+ * (a band not reached within either record is not reached; a linearised step that grows never settles). `small`
+ * says the small-signal step is the slower at ±1 %.
+ */
+export function judgedSettling(full: SettlingLike, small: { metrics: SettlingLike; grows: boolean } | null): SettlingLike & { small: boolean } {
+  if (!small) return { ...full, small: false };
+  if (small.grows) return { settlingTime1pct: null, settlingTime01pct: null, small: true };
+  const slower = (a: number | null, b: number | null) => (a === null || b === null ? null : Math.max(a, b));
+  const a = full.settlingTime1pct, b = small.metrics.settlingTime1pct;
+  return {
+    settlingTime1pct: slower(a, b),
+    settlingTime01pct: slower(full.settlingTime01pct, small.metrics.settlingTime01pct),
+    small: b === null ? a !== null : a !== null && b > a,
+  };
+}
+
 /** Settled within ±1 % and ±0.1 %: pass; ±1 % only: warn; not even ±1 % within the record: fail. */
-export function settlingVerdict(m: StepMetrics | null): Verdict | null {
+export function settlingVerdict(m: SettlingLike | null): Verdict | null {
   if (!m) return null;
   return m.settlingTime1pct === null ? "fail" : m.settlingTime01pct === null ? "warn" : "pass";
 }

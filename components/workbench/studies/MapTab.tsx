@@ -14,7 +14,7 @@ const METRICS: { id: MapMetric; label: string; unit: string }[] = [
   { id: "overshootPct", label: "Overshoot (full step)", unit: "%" },
   { id: "judgedOvershootPct", label: "Overshoot (worse of full and small-signal)", unit: "%" },
   { id: "phaseMarginDeg", label: "Phase margin (current loop)", unit: "°" },
-  { id: "settlingTime1pct", label: "Settling time (±1 %)", unit: "s" },
+  { id: "settlingTime1pct", label: "Settling time (±1 %, full step)", unit: "s" },
   { id: "noiseRms", label: "Load-current noise (RMS over the noise band)", unit: "A" },
 ];
 

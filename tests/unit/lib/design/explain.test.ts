@@ -3,7 +3,7 @@ import { valveCoilDemo } from "@/lib/design/demos";
 import { explainFigures, loadTankNote } from "@/lib/design/explain";
 import { defaultScenario } from "@/lib/design/templates";
 import { runSmallSignalStep, runStep } from "@/lib/design/run";
-import { judgedOvershootPct, overshootVerdict } from "@/lib/design/verdicts";
+import { judgedOvershootPct, judgedSettling, overshootVerdict } from "@/lib/design/verdicts";
 import { checkChoice, compensate } from "@/lib/design/compensate";
 import { nearestE } from "@/lib/design/eseries";
 import type { Scenario } from "@/lib/design/schema";
@@ -125,6 +125,23 @@ describe("explainFigures", () => {
       expect(snub.capacitance).toBeLessThanOrEqual(10 * C);
       expect(snub.check?.meetsTargets).toBe(true);
     }, 60_000);
+
+    it("settling is judged on the slower step too: the ring's decay, which a second-order envelope predicts", () => {
+      const s = tenOhm();
+      const full = runStep(s).metrics;
+      const small = runSmallSignalStep(s)!;
+      const judged = judgedSettling(full, small);
+      expect(judged.small).toBe(true);
+      expect(judged.settlingTime1pct).toBe(small.metrics.settlingTime1pct);
+      expect(judged.settlingTime1pct!).toBeGreaterThan(full.settlingTime1pct!);
+      // An underdamped second-order response decays inside the envelope OS·e^(−ζω_n·t) after its peak (any control
+      // text, e.g. Ogata): it is inside ±1 % from about t_p + ln(OS / 1 %)/(ζω_n), here with ζ and f from the ringing fit.
+      const { dampingRatio: z, frequencyHz: f } = small.metrics.ringing;
+      const wn = (2 * Math.PI * f!) / Math.sqrt(1 - z! ** 2);
+      const envelope = small.metrics.peakTime! + Math.log(small.metrics.overshootPct / 1) / (z! * wn);
+      expect(judged.settlingTime1pct! / envelope).toBeGreaterThan(0.85);
+      expect(judged.settlingTime1pct! / envelope).toBeLessThan(1.15);
+    });
 
     it("says nothing of a resistive load, a step that grows, or a ring near the loop's crossover", () => {
       const s = tenOhm();
