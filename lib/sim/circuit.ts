@@ -167,6 +167,12 @@ export class Circuit {
   q3 = new Float64Array(0);
   i0 = new Float64Array(0);
   i1 = new Float64Array(0);
+  /**
+   * Each state's absolute floor in the truncation-error tolerance, in the units of its derivative: abstol (A) for a
+   * charge, whose derivative is a current; vntol (V) for an inductor's flux, whose derivative is a voltage.
+   */
+  stateAbsTol = new Float64Array(0);
+  private readonly stateFloors: number[] = [];
 
   /** a singular matrix at the next Newton iteration is reported as the circuit's fault (first iteration only) */
   strictSingular = true;
@@ -220,6 +226,7 @@ export class Circuit {
     this.q3 = new Float64Array(this.nState);
     this.i0 = new Float64Array(this.nState);
     this.i1 = new Float64Array(this.nState);
+    this.stateAbsTol = Float64Array.from(this.stateFloors);
   }
 
   /** Resolve a Builder placeholder to an unknown index (ground → n, the spare slot). */
@@ -236,10 +243,14 @@ export class Circuit {
     this.structure[p] = 1;
     return p;
   }
-  /** Reserve `k` integration state slots; returns the first. */
-  allocState(k: number): number {
+  /**
+   * Reserve `k` integration state slots; returns the first. `absTol` is their truncation-error floor in the units of
+   * the state's derivative (default abstol: a charge, whose derivative is a current).
+   */
+  allocState(k: number, absTol = this.tol.abstol): number {
     const s = this.nState;
     this.nState += k;
+    for (let i = 0; i < k; i++) this.stateFloors.push(absTol);
     return s;
   }
 

@@ -13,12 +13,14 @@ import { newton, solveDc, worstName } from "./newton";
 
 /**
  * Truncation-error control with the accuracy defaults (no maxStep given): error per unit step, relative to the
- * charge's full scale so far. Each step may add at most ACCURACY_TRTOL·trtol·(abstol + reltol·max(|i|, peak |i|))·h
+ * charge's full scale so far. Each step may add at most ACCURACY_TRTOL·trtol·(floor + reltol·max(|i|, peak |i|))·h
  * of error to a charge q (i = dq/dt), so errors summed over a run stay below reltol × the charge's range instead of
  * growing with the number of steps, and a current crossing zero does not collapse the step. The classic tolerance,
- * max(abstol + reltol·|i|, reltol·|q|/h) (Nagel 1975), allows reltol·|q| per step whatever the step: measured
+ * max(floor + reltol·|i|, reltol·|q|/h) (Nagel 1975), allows reltol·|q| per step whatever the step: measured
  * 0.55 % of full scale on a ringing RLC and 0.4 % on an emitter follower that cuts off each period, against 0.08 %
- * and 0.01 % with this one at 0.25 (the same circuits as tests/unit/lib/sim/tran-accuracy-*.test.ts).
+ * and 0.01 % with this one at 0.25 (the same circuits as tests/unit/lib/sim/tran-accuracy-*.test.ts). `floor` is
+ * the state's absolute floor in its derivative's units (Circuit.stateAbsTol: abstol for a charge, vntol for an
+ * inductor's flux).
  */
 const ACCURACY_TRTOL = 0.25;
 /**
@@ -56,7 +58,7 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
   const accuracyDefaults = a.maxStep === null;
   const maxStep = Math.min(a.maxStep ?? Math.min(a.tStep ?? Infinity, tStop / 50), tStop);
   const hmin = tStop * 1e-13;
-  const { reltol, abstol, trtol } = c.tol;
+  const { reltol, trtol } = c.tol;
   const chgtol = 1e-14;
   const els = c.elements;
   const nUser = c.userNodeNames.length;
@@ -158,12 +160,13 @@ export function runTran(c: Circuit, a: TranParams, onProgress?: (f: number) => v
         const d10 = (q0 - q1) / (t0 - t1), d11 = (q1 - q2) / (t1 - t2);
         const d20 = (d10 - d11) / (t0 - t2);
         const iNow = Math.max(Math.abs(c.i0[s]), Math.abs(c.i1[s]));
+        const floor = c.stateAbsTol[s]; // abstol for a charge, vntol for an inductor's flux
         const tol = accuracyDefaults
           ? Math.max(
-              ACCURACY_TRTOL * (abstol + reltol * Math.max(iNow, iPeak[s])),
+              ACCURACY_TRTOL * (floor + reltol * Math.max(iNow, iPeak[s])),
               (CHARGE_FLOOR * reltol * Math.max(Math.abs(q0), Math.abs(q1), chgtol)) / h,
             )
-          : Math.max(abstol + reltol * iNow, (reltol * Math.max(Math.abs(q0), Math.abs(q1), chgtol)) / h);
+          : Math.max(floor + reltol * iNow, (reltol * Math.max(Math.abs(q0), Math.abs(q1), chgtol)) / h);
         let hs: number;
         if (order === 1 || history < 3) {
           const q2nd = Math.abs(2 * d20);

@@ -113,7 +113,9 @@ export class Inductor extends BranchElement {
   constructor(name: string, nodes: readonly [string, string], private readonly ind: number, private readonly ic: number) {
     super(name, "inductor", nodes);
   }
-  override bind(c: Circuit): void { super.bind(c); this.s = c.allocState(1); }
+  // The flux's derivative is the inductor's voltage: its truncation-error floor is a voltage (vntol), not abstol,
+  // an ampere figure that would ask a small inductor carrying microamperes for picovolt accuracy.
+  override bind(c: Circuit): void { super.bind(c); this.s = c.allocState(1, c.tol.vntol); }
   load(c: Circuit): void {
     if (c.mode !== MODE_TRAN) return;
     const i = c.x[this.k];
