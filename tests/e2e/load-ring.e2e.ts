@@ -1,7 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launch, open, watchErrors } from "./browser";
+import { describe, expect, it } from "vitest";
+import { open } from "./browser";
 import { signIn } from "./auth";
+import { suitePage } from "./suite";
 
 /**
  * A ring the full step hides: the NPN template with a 10 Ω sense resistor (9.8 mA full scale). The coil's clamp holds
@@ -11,52 +11,39 @@ import { signIn } from "./auth";
  * figures are the design layer's, checked in tests/unit/lib/design/explain.test.ts.)
  */
 describe("a coil ringing under a clamped step", () => {
-  let browser: Browser;
-  let page: Page;
-  let errors: string[];
+  const ui = suitePage((page) => signIn(page, "designer"));
 
-  beforeAll(async () => {
-    browser = await launch();
-    page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
-    errors = watchErrors(page);
-    await signIn(page, "designer");
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
-
-  const verdict = async (card: string) => ((await page.getByTestId(`metric-${card}`).locator("span.uppercase").first().textContent()) ?? "").trim().toLowerCase();
+  const verdict = async (card: string) => ((await ui.page.getByTestId(`metric-${card}`).locator("span.uppercase").first().textContent()) ?? "").trim().toLowerCase();
 
   it("the card fails on the small-signal ring, the note names the load, and the snubber Compensate finds makes it pass", async () => {
-    await open(page, "/scenarios/new");
-    await page.getByTestId("template-sink-npn").click();
-    await page.getByTestId("new-draft").click();
-    await page.getByTestId("metric-overshoot").filter({ hasText: "small-signal" }).waitFor({ timeout: 90_000 });
+    await open(ui.page, "/scenarios/new");
+    await ui.page.getByTestId("template-sink-npn").click();
+    await ui.page.getByTestId("new-draft").click();
+    await ui.page.getByTestId("metric-overshoot").filter({ hasText: "small-signal" }).waitFor({ timeout: 90_000 });
     expect(await verdict("overshoot")).toBe("pass");
 
-    const sense = page.locator("#field-parts-senseResistor");
+    const sense = ui.page.locator("#field-parts-senseResistor");
     await sense.fill("10");
     await sense.press("Enter");
-    await page.getByTestId("metric-overshoot").filter({ hasText: "the worse" }).waitFor({ timeout: 90_000 });
+    await ui.page.getByTestId("metric-overshoot").filter({ hasText: "the worse" }).waitFor({ timeout: 90_000 });
     // the full step stays under the 5 % target; the small-signal one is far over it, and it is the one shown and judged
-    expect(Number.parseFloat((await page.getByTestId("metric-overshoot-value").textContent()) ?? "")).toBeGreaterThan(15);
-    const hint = (await page.getByTestId("metric-overshoot").textContent()) ?? "";
+    expect(Number.parseFloat((await ui.page.getByTestId("metric-overshoot-value").textContent()) ?? "")).toBeGreaterThan(15);
+    const hint = (await ui.page.getByTestId("metric-overshoot").textContent()) ?? "";
     expect(Number.parseFloat(hint.match(/full step ([\d.]+) %/)![1])).toBeLessThan(5);
     expect(await verdict("overshoot")).toBe("fail");
-    await page.getByTestId("verdict-note").filter({ hasText: "that ringing is the load's, not the loop's" }).waitFor({ timeout: 30_000 });
+    await ui.page.getByTestId("verdict-note").filter({ hasText: "that ringing is the load's, not the loop's" }).waitFor({ timeout: 30_000 });
 
-    await page.getByTestId("studies-toggle").click();
-    await page.getByTestId("studies-tab-compensate").click();
-    await page.getByTestId("compensate-tune-snubber").check();
-    await page.getByTestId("compensate-run").click();
-    await page.getByTestId("compensate-apply-snubber").waitFor({ timeout: 120_000 });
-    expect(await page.getByTestId("compensate-result").textContent()).toMatch(/Load snubber .* the smallest capacitor that meets the targets/);
-    await page.getByTestId("compensate-apply-snubber").click();
+    await ui.page.getByTestId("studies-toggle").click();
+    await ui.page.getByTestId("studies-tab-compensate").click();
+    await ui.page.getByTestId("compensate-tune-snubber").check();
+    await ui.page.getByTestId("compensate-run").click();
+    await ui.page.getByTestId("compensate-apply-snubber").waitFor({ timeout: 120_000 });
+    expect(await ui.page.getByTestId("compensate-result").textContent()).toMatch(/Load snubber .* the smallest capacitor that meets the targets/);
+    await ui.page.getByTestId("compensate-apply-snubber").click();
 
     await expect.poll(() => verdict("overshoot"), { timeout: 90_000 }).toBe("pass");
-    await page.getByTestId("schematic-loadSnubber").waitFor();
-    expect(await page.getByTestId("verdict-note").filter({ hasText: "the load's, not the loop's" }).count()).toBe(0);
-    expect(errors).toEqual([]);
+    await ui.page.getByTestId("schematic-loadSnubber").waitFor();
+    expect(await ui.page.getByTestId("verdict-note").filter({ hasText: "the load's, not the loop's" }).count()).toBe(0);
+    expect(ui.errors).toEqual([]);
   });
 });

@@ -1,8 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Download, Page } from "playwright-core";
-import { launch, watchErrors } from "./browser";
+import { describe, expect, it } from "vitest";
+import type { Download } from "playwright-core";
 import { openScenario } from "./auth";
 import { canvasPixels, hexToRgb, paintedColours, plotArea, rgbDistance, type Rgb } from "./pixels";
+import { suitePage } from "./suite";
 
 /**
  * Plots painted in Quell's own colours, read back from the pixels the browser shows: the map's cells and its colour bar
@@ -52,24 +52,11 @@ async function readDownload(d: Download): Promise<string> {
 }
 
 describe("plots are painted in Quell's palette", () => {
-  let browser: Browser;
-  let page: Page;
-  let errors: string[];
-
-  beforeAll(async () => {
-    browser = await launch();
-    page = await browser.newPage({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
-    errors = watchErrors(page);
-    await openScenario(page, "designer");
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const ui = suitePage((page) => openScenario(page, "designer"), { acceptDownloads: true });
 
   it("the step plot's traces, as the legend shows them and as the canvas paints them, are Okabe–Ito colours", async () => {
-    const fig = page.getByTestId("plot-step");
-    await expect.poll(() => page.getByTestId("toggle-command-current").isChecked()).toBe(true);
+    const fig = ui.page.getByTestId("plot-step");
+    await expect.poll(() => ui.page.getByTestId("toggle-command-current").isChecked()).toBe(true);
     await expect.poll(() => fig.getAttribute("data-series")).toContain("Command as current");
     const names = (await fig.getAttribute("data-series"))!.split("|");
     // the legend's swatch of each trace (row 0 is the time axis)
@@ -86,7 +73,7 @@ describe("plots are painted in Quell's palette", () => {
     // what the canvas paints inside the plot area: every trace's colour is there, and no colour off the palette is but
     // where two strokes cross or run together (a trace and the grid, or the grey marks of the 10 %/90 % points and the
     // ±1 % band)
-    const census = await paintedColours(page, '[data-testid="uplot-step"] canvas', await plotArea(page, "uplot-step"), OKABE_ITO, 12, [MARK_INK, GRID]);
+    const census = await paintedColours(ui.page, '[data-testid="uplot-step"] canvas', await plotArea(ui.page, "uplot-step"), OKABE_ITO, 12, [MARK_INK, GRID]);
     for (const [i, c] of colours.entries()) {
       const n = census.near[OKABE_ITO.findIndex((o) => rgbDistance(c, o) === 0)]!;
       expect(n, `pixels painted in ${names[i]}'s colour`).toBeGreaterThanOrEqual(20);
@@ -96,13 +83,13 @@ describe("plots are painted in Quell's palette", () => {
   });
 
   it("a 3 × 3 map's cells and colour bar lie on Quell's sequential scale, lowest cell at paper, highest at deep teal", async () => {
-    await page.getByTestId("studies-toggle").click();
-    await page.getByTestId("studies-tab-map").click();
+    await ui.page.getByTestId("studies-toggle").click();
+    await ui.page.getByTestId("studies-tab-map").click();
     const setAxis = async (axis: "x" | "y", path: string, from: string, to: string) => {
-      await page.locator(`#studies-map-${axis}-path`).selectOption(path);
-      await page.locator(`#studies-map-${axis}-scale`).selectOption("log");
+      await ui.page.locator(`#studies-map-${axis}-path`).selectOption(path);
+      await ui.page.locator(`#studies-map-${axis}-scale`).selectOption("log");
       for (const [field, value] of [["from", from], ["to", to], ["points", "3"]] as const) {
-        const f = page.locator(`#field-studies-map-${axis}-${field}`);
+        const f = ui.page.locator(`#field-studies-map-${axis}-${field}`);
         await f.fill(value);
         await f.press("Enter");
         await expect.poll(() => f.getAttribute("aria-invalid")).not.toBe("true");
@@ -111,11 +98,11 @@ describe("plots are painted in Quell's palette", () => {
     // a compensation capacitor from ringing to well damped (docs/references.md §5a: more margin, less overshoot)
     await setAxis("x", "parts.compCapacitor", "100p", "10n");
     await setAxis("y", "parts.baseResistor", "100", "2.2k");
-    await page.locator("#map-metric").selectOption("overshootPct");
-    await page.getByTestId("map-run").click();
-    await page.locator('[data-testid="study-status-map"][data-status="done"]').waitFor({ timeout: 90_000 });
+    await ui.page.locator("#map-metric").selectOption("overshootPct");
+    await ui.page.getByTestId("map-run").click();
+    await ui.page.locator('[data-testid="study-status-map"][data-status="done"]').waitFor({ timeout: 90_000 });
 
-    const [csv] = await Promise.all([page.waitForEvent("download"), page.getByTestId("map-export-csv").click()]);
+    const [csv] = await Promise.all([ui.page.waitForEvent("download"), ui.page.getByTestId("map-export-csv").click()]);
     const rows = (await readDownload(csv)).trimEnd().split("\r\n").slice(1).map((l) => l.split(",").map(Number));
     expect(rows).toHaveLength(9);
     const values = rows.map((r) => r[2]!);
@@ -123,13 +110,13 @@ describe("plots are painted in Quell's palette", () => {
     const lo = Math.min(...values), hi = Math.max(...values);
     expect(hi).toBeGreaterThan(lo);
 
-    const canvas = page.getByTestId("map-canvas");
+    const canvas = ui.page.getByTestId("map-canvas");
     const [nx, ny] = (await canvas.getAttribute("data-grid"))!.split(" ").map(Number) as [number, number];
     expect([nx, ny]).toEqual([3, 3]);
     const [left, top, width, height] = (await canvas.getAttribute("data-cells-box"))!.split(" ").map(Number) as [number, number, number, number];
     // row-major as exported: value k is the cell (k mod nx) across, (k div nx) up from the bottom row
     const centres = values.map((_, k) => [left + ((k % nx) + 0.5) * (width / nx), top + (ny - 1 - Math.floor(k / nx) + 0.5) * (height / ny)] as const);
-    const cells = (await canvasPixels(page, '[data-testid="map-canvas"]', centres)).map((p) => {
+    const cells = (await canvasPixels(ui.page, '[data-testid="map-canvas"]', centres)).map((p) => {
       expect(p[3], "a cell is painted opaque").toBe(255);
       return rgbOf(p);
     });
@@ -145,7 +132,7 @@ describe("plots are painted in Quell's palette", () => {
     // the colour bar beside the map: the whole scale, deep teal (highest) at the top down to paper (lowest)
     const [barLeft, barTop, barWidth, barHeight] = (await canvas.getAttribute("data-scale-box"))!.split(" ").map(Number) as [number, number, number, number];
     const samples = 25;
-    const bar = (await canvasPixels(page, '[data-testid="map-canvas"]',
+    const bar = (await canvasPixels(ui.page, '[data-testid="map-canvas"]',
       Array.from({ length: samples }, (_, i) => [barLeft + barWidth / 2, barTop + 0.5 + (i / (samples - 1)) * (barHeight - 1)] as const))).map(rgbOf);
     const along = bar.map((c, i) => {
       const n = nearestOnScale(c);
@@ -160,6 +147,6 @@ describe("plots are painted in Quell's palette", () => {
   });
 
   it("ran without page errors", () => {
-    expect(errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
+    expect(ui.errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
   });
 });

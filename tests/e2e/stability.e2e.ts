@@ -1,7 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launch } from "./browser";
+import { describe, expect, it } from "vitest";
 import { openScenario } from "./auth";
+import { suitePage } from "./suite";
 
 /**
  * An unstable closed loop reads as unstable wherever a margin is shown: with the valve demo's sense resistor at
@@ -10,30 +9,19 @@ import { openScenario } from "./auth";
  * says the small-signal step grows instead of quoting an overshoot. The edit is a what-if, never saved.
  */
 describe("an unstable loop in the workbench", () => {
-  let browser: Browser;
-  let page: Page;
+  const ui = suitePage((page) => openScenario(page, "viewer"));
 
-  beforeAll(async () => {
-    browser = await launch();
-    page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
-    await openScenario(page, "viewer");
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
-
-  const verdict = (id: string) => page.getByTestId(`metric-${id}`).locator("span.uppercase").textContent();
+  const verdict = (id: string) => ui.page.getByTestId(`metric-${id}`).locator("span.uppercase").textContent();
 
   it("every margin card fails and the small-signal step grows", async () => {
-    const field = page.locator("#field-parts-senseResistor");
+    const field = ui.page.locator("#field-parts-senseResistor");
     await field.fill("10");
     await field.press("Enter");
-    await page.getByTestId("small-signal-legend").filter({ hasText: "grows" }).waitFor({ timeout: 60_000 });
-    await expect.poll(() => page.getByTestId("run-status").textContent(), { timeout: 60_000 }).not.toContain("simulating");
-    expect(Number.parseFloat((await page.getByTestId("metric-phase-margin-value").textContent())!)).toBeLessThan(0);
+    await ui.page.getByTestId("small-signal-legend").filter({ hasText: "grows" }).waitFor({ timeout: 60_000 });
+    await expect.poll(() => ui.page.getByTestId("run-status").textContent(), { timeout: 60_000 }).not.toContain("simulating");
+    expect(Number.parseFloat((await ui.page.getByTestId("metric-phase-margin-value").textContent())!)).toBeLessThan(0);
     for (const m of ["phase-margin", "gain-margin", "modulus-margin"]) expect((await verdict(m))?.toLowerCase()).toBe("fail");
-    expect(await page.getByTestId("metric-gain-margin").textContent()).toContain("unstable");
-    expect(await page.getByTestId("metric-overshoot").textContent()).toContain("grows");
+    expect(await ui.page.getByTestId("metric-gain-margin").textContent()).toContain("unstable");
+    expect(await ui.page.getByTestId("metric-overshoot").textContent()).toContain("grows");
   });
 });

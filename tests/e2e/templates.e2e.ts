@@ -1,8 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launch, open } from "./browser";
+import { describe, expect, it } from "vitest";
+import { open } from "./browser";
 import { signIn } from "./auth";
 import { TEMPLATES } from "@/lib/design/templates";
+import { suitePage } from "./suite";
 
 /**
  * A template's starting point is a sound design: opened in the browser (a local draft, simulated in the worker like
@@ -10,29 +10,18 @@ import { TEMPLATES } from "@/lib/design/templates";
  * only the library's. The limits are the project's (lib/design/verdicts.ts; common practice) and the scenario's own.
  */
 describe("templates open as sound designs", () => {
-  let browser: Browser;
-  let page: Page;
-
-  beforeAll(async () => {
-    browser = await launch();
-    page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
-    await signIn(page, "designer");
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const ui = suitePage((page) => signIn(page, "designer"));
 
   it.each(TEMPLATES.map((t) => t.id))("%s: every headline and every check passes", async (id) => {
-    await open(page, "/scenarios/new");
-    await page.getByTestId(`template-${id}`).click();
-    await page.getByTestId("new-draft").click();
+    await open(ui.page, "/scenarios/new");
+    await ui.page.getByTestId(`template-${id}`).click();
+    await ui.page.getByTestId("new-draft").click();
     // Both halves of the run have landed: the step's figures and the checks beside the loop's.
     for (const m of ["phase-margin", "overshoot", "settling", "full-scale-error"]) {
-      await page.getByTestId(`metric-${m}-value`).filter({ hasNotText: "—" }).waitFor({ timeout: 90_000 });
+      await ui.page.getByTestId(`metric-${m}-value`).filter({ hasNotText: "—" }).waitFor({ timeout: 90_000 });
     }
-    await page.getByTestId("checks-table").waitFor({ timeout: 90_000 });
-    const words = await page.evaluate(() => {
+    await ui.page.getByTestId("checks-table").waitFor({ timeout: 90_000 });
+    const words = await ui.page.evaluate(() => {
       const read = (root: Element | null, sel: string, badge: string) =>
         [...(root?.querySelectorAll(sel) ?? [])].map((el) => ({
           what: el.getAttribute("data-testid") ?? "",
