@@ -7,6 +7,7 @@ import { useCallback, useMemo, useState } from "react";
 import { useRouter } from "next/navigation";
 import type { Tolerances } from "@/lib/traces/compare";
 import { fullScaleCurrent } from "@/lib/design/checks";
+import { judgedOvershootPct, judgedSettling } from "@/lib/design/verdicts";
 import { formatEng } from "@/lib/units/eng";
 import { TraceUpload } from "./TraceUpload";
 import { BenchComparison, type ComparisonResult, type TraceMeta } from "./BenchComparison";
@@ -59,13 +60,16 @@ export function TracesWorkspace(p: WorkspaceProps) {
 
   const keyFigures = useMemo(() => {
     if (sim.status !== "done") return {};
-    // the workbench's figures (design-layer step metrics, current loop), so the library shows what the designer saw
+    // the workbench's figures (design-layer step metrics, current loop), so the library shows what the designer saw:
+    // overshoot and settling as the headline cards judge them, the worse of the full and the small-signal step
     const m = sim.sim.step.metrics;
+    const small = sim.sim.step.small;
+    const os = judgedOvershootPct(m.overshootPct, small ? { overshootPct: small.metrics.overshootPct, grows: small.grows } : null);
     const diss = sim.sim.checks.find((c) => c.id === "dissipation");
     return {
       fullScaleCurrent: fullScaleCurrent(sim.scenario),
-      overshootPct: m.overshootPct,
-      settlingTime: m.settlingTime1pct,
+      overshootPct: Number.isFinite(os) ? os : null,
+      settlingTime: judgedSettling(m, small).settlingTime1pct,
       riseTime: m.riseTime,
       worstDissipation: diss ? diss.value : null,
       phaseMarginDeg: sim.sim.loop?.phaseMarginDeg ?? null,
