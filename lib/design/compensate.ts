@@ -127,6 +127,19 @@ export function checkChoice(s: Scenario, c: CompensateCandidate, settings: Compe
   };
 }
 
+/**
+ * Why no value was chosen. A coil can ring against the capacitance at its terminals far above the loop's crossover
+ * (lib/design/explain.ts loadTankNote): no compensation value reaches that ring, a load snubber does.
+ */
+function noChoice(s: Scenario, settings: CompensateSettings, reachesMargin: boolean, noisy: boolean, tried: string): string {
+  if (!reachesMargin) return `No ${settings.series} value from 10 pF to 100 nF${tried} reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`;
+  if (noisy) return `Values that reach ${settings.targetPhaseMarginDeg}° without overshooting more than ${settings.maxOvershootPct} % exceed the noise target.`;
+  const coil = s.load.kind === "coil" && !settings.tuneLoadSnubber
+    ? " If the ring is the coil's own, against the capacitance at its terminals (the verdict's note says so), no compensation value reaches it: ask for a load snubber too."
+    : "";
+  return `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} % (the worse of the full and the small-signal step).${coil}`;
+}
+
 function describe(best: NonNullable<CompensateResult["chosen"]>, settings: CompensateSettings, tried: number): string {
   const what = `Compensation capacitor ${formatEng(best.compCapacitor, "F")}${settings.tuneBaseResistor ? ` with base/gate resistor ${formatEng(best.baseResistor, "Ω")}` : ""}`;
   const figures = `current-loop phase margin ≥ ${best.minPhaseMarginDeg.toFixed(1)}° (${best.phaseMarginToSpareDeg.toFixed(1)}° to spare) and overshoot ≤ ${best.worstOvershootPct.toFixed(2)} % over the load range (the worse of the full and the small-signal step); settles to ±1 % in ${Number.isFinite(best.worstSettlingTime1pct) ? formatEng(best.worstSettlingTime1pct, "s") : "— (not within the record)"}`;
@@ -253,13 +266,7 @@ export function compensatePick(s: Scenario, settings: CompensateSettings, rows: 
   }
   stepped.sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   if (best) confirm(s, best, settings, opts);
-  const message = best
-    ? describe(best, settings, rows.length)
-    : passing.length === 0
-      ? `No ${settings.series} value from 10 pF to 100 nF reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
-      : tooNoisy
-        ? `Values that reach ${settings.targetPhaseMarginDeg}° without overshooting more than ${settings.maxOvershootPct} % exceed the noise target.`
-        : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+  const message = best ? describe(best, settings, rows.length) : noChoice(s, settings, passing.length > 0, tooNoisy, "");
   return { chosen: best, scanned: rows, stepped, ...withSnubberSearch(s, settings, opts, message) };
 }
 
@@ -346,12 +353,6 @@ export function compensate(s: Scenario, settings: CompensateSettings, opts: Stud
     .sort((a, b) => a.compCapacitor - b.compCapacitor || a.baseResistor - b.baseResistor);
   const anyPm = rows.some((r) => Number.isFinite(r.minPhaseMarginDeg) && r.minPhaseMarginDeg >= settings.targetPhaseMarginDeg);
   if (best) confirm(s, best, settings, opts);
-  const message = best
-    ? describe(best, settings, rows.length)
-    : !anyPm
-      ? `No ${settings.series} value from 10 pF to 100 nF that was tried reaches ${settings.targetPhaseMarginDeg}° phase margin at every load corner.`
-      : noisy
-        ? `Values that reach ${settings.targetPhaseMarginDeg}° without overshooting more than ${settings.maxOvershootPct} % exceed the noise target.`
-        : `Values that reach ${settings.targetPhaseMarginDeg}° still overshoot more than ${settings.maxOvershootPct} %.`;
+  const message = best ? describe(best, settings, rows.length) : noChoice(s, settings, anyPm, noisy, " that was tried");
   return { chosen: best, scanned: rows, stepped: steppedRows, ...withSnubberSearch(s, settings, opts, message) };
 }

@@ -115,6 +115,9 @@ describe("explainFigures", () => {
       expect(check.meetsTargets).toBe(false);
       // No compensation capacitor damps the load's own ring; the load snubber search finds an R–C near the note's
       // suggestion (R within a factor of two of √(L/C), C between the tank's and ten times it), and it meets the target.
+      const plain = compensate(s, { ...settings, tuneLoadSnubber: false });
+      expect(plain.chosen).toBeNull();
+      expect(plain.message).toContain("ask for a load snubber too");
       const r = compensate(s, settings);
       expect(r.chosen === null || r.chosen.worstOvershootPct <= target).toBe(true);
       const snub = r.loadSnubber!.chosen!;
