@@ -64,7 +64,7 @@ export function TracesWorkspace(p: WorkspaceProps) {
     // overshoot and settling as the headline cards judge them, the worse of the full and the small-signal step
     const m = sim.sim.step.metrics;
     const small = sim.sim.step.small;
-    const os = judgedOvershootPct(m.overshootPct, small ? { overshootPct: small.metrics.overshootPct, grows: small.grows } : null);
+    const os = judgedOvershootPct(m.overshootPct, small);
     const diss = sim.sim.checks.find((c) => c.id === "dissipation");
     return {
       fullScaleCurrent: fullScaleCurrent(sim.scenario),

@@ -43,7 +43,7 @@ export function headlines(r: LiveResult | null, maxOvershootPct: number): Headli
   const diss = row("dissipation") ?? row("junction-temperature");
   const pm = loop?.phaseMarginDeg ?? null;
   const os = m ? m.overshootPct : null;
-  const judgedOs = os === null ? null : judgedOvershootPct(os, r?.step?.small ? { overshootPct: r.step.small.metrics.overshootPct, grows: r.step.small.grows } : null);
+  const judgedOs = os === null ? null : judgedOvershootPct(os, r?.step?.small ?? null);
   const settle = m ? judgedSettling(m, r?.step?.small ?? null) : null;
   const nCross = loop?.crossovers.length ?? 0;
   return [

@@ -166,7 +166,7 @@ export function evaluateMetric(s: Scenario, metric: MapMetric, opts: StudyOption
   const m = runStep(s, engineOptions(opts)).metrics;
   if (metric === "judgedOvershootPct") {
     const small = runSmallSignalStep(s, engineOptions(opts));
-    return judgedOvershootPct(m.overshootPct, small && { overshootPct: small.metrics.overshootPct, grows: small.grows });
+    return judgedOvershootPct(m.overshootPct, small);
   }
   return metric === "overshootPct" ? m.overshootPct : m.settlingTime1pct ?? NaN;
 }

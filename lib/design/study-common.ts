@@ -51,7 +51,7 @@ export function worstStepOverCorners(corners: readonly Scenario[], opts: StudyOp
   for (const corner of corners) {
     const m = runStep(corner, engineOptions(opts)).metrics;
     const small = runSmallSignalStep(corner, engineOptions(opts));
-    os = Math.max(os, judgedOvershootPct(m.overshootPct, small && { overshootPct: small.metrics.overshootPct, grows: small.grows }));
+    os = Math.max(os, judgedOvershootPct(m.overshootPct, small));
     ts = Math.max(ts, judgedSettling(m, small).settlingTime1pct ?? Infinity);
   }
   return { os, ts };

@@ -51,9 +51,9 @@ export function modulusMarginVerdict(mm: number | null, unstable = false): Verdi
  * does). A clamp, a rail or slewing can hold the full step still while the loop, or a load resonance, rings at every
  * small change; a design review judges the worse. A linearised step that grows counts as unbounded (Infinity).
  */
-export function judgedOvershootPct(fullPct: number, small: { overshootPct: number; grows: boolean } | null): number {
+export function judgedOvershootPct(fullPct: number, small: { metrics: Pick<StepMetrics, "overshootPct">; grows: boolean } | null): number {
   if (!small) return fullPct;
-  return small.grows ? Infinity : Math.max(fullPct, small.overshootPct);
+  return small.grows ? Infinity : Math.max(fullPct, small.metrics.overshootPct);
 }
 
 /** Overshoot against the scenario's target: pass within it, warn up to twice it plus 5 points, fail beyond. */

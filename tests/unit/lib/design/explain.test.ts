@@ -106,7 +106,7 @@ describe("explainFigures", () => {
       const small = runSmallSignalStep(s)!;
       const target = s.studies.compensate.maxOvershootPct;
       expect(overshootVerdict(full, target)).toBe("pass"); // the clamp holds the full step
-      const judged = judgedOvershootPct(full, { overshootPct: small.metrics.overshootPct, grows: small.grows });
+      const judged = judgedOvershootPct(full, small);
       expect(judged).toBe(small.metrics.overshootPct);
       expect(overshootVerdict(judged, target)).toBe("fail");
       const settings = { ...s.studies.compensate, tuneLoadSnubber: true };

@@ -82,7 +82,7 @@ describe("each template's starting point is a sound design", () => {
     expect(run.step!.small!.grows).toBe(false);
     const m = run.step!.metrics;
     const small = run.step!.small!;
-    expect(overshootVerdict(judgedOvershootPct(m.overshootPct, { overshootPct: small.metrics.overshootPct, grows: small.grows }), s.studies.compensate.maxOvershootPct)).toBe("pass");
+    expect(overshootVerdict(judgedOvershootPct(m.overshootPct, small), s.studies.compensate.maxOvershootPct)).toBe("pass");
     expect(settlingVerdict(judgedSettling(m, small))).toBe("pass");
   });
 
