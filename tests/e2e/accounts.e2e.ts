@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { BASE_URL, launch, watchErrors, open } from "./browser";
+import { BASE_URL, launch, watchErrors, open, waitHydrated } from "./browser";
 import { demoUser, signIn } from "./auth";
 import { db } from "@/lib/db/knex";
 
@@ -180,6 +180,7 @@ describe("accounts journey: save, share, open, comment", () => {
     const since = new Date(Date.now() - 2000);
     await page.getByRole("link", { name: "Forgot your password?" }).click();
     await page.waitForURL((u) => u.pathname === "/forgot-password");
+    await waitHydrated(page); // signing out may have loaded the sign-in page afresh: the link could be a full load
     await page.getByRole("heading", { name: "Reset your password" }).waitFor();
     await page.getByLabel("E-mail").fill(email);
     await page.getByRole("button", { name: "Send a reset link" }).click();
