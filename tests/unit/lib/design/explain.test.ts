@@ -148,7 +148,8 @@ describe("explainFigures", () => {
 
     it("says nothing of a resistive load, a step that grows, or a ring near the loop's crossover", () => {
       const s = tenOhm();
-      const step = { time: [0], vOpampOut: [0], vPass: [0], metrics: runSmallSignalStep(s)!.metrics, small: { metrics: runSmallSignalStep(s)!.metrics, grows: false } };
+      const { metrics } = runSmallSignalStep(s)!;
+      const step = { time: [0], vOpampOut: [0], vPass: [0], metrics, small: { metrics, grows: false } };
       const loop = { phaseMarginDeg: 60, crossoverHz: 5e3, crossovers: [5e3] };
       expect(loadTankNote(s, loop, step)).not.toBeNull();
       expect(loadTankNote({ ...s, load: { ...s.load, kind: "resistor" } }, loop, step)).toBeNull();
