@@ -10,6 +10,7 @@ import { BenchComparison, type TraceMeta } from "@/components/traces/BenchCompar
 import { ComparisonTable } from "@/components/traces/ComparisonTable";
 import { useSimulation } from "@/components/traces/useSimulation";
 import { explainFigures } from "@/lib/design/explain";
+import { smallSignalWords } from "@/lib/design/words";
 import { StatusBadge } from "@/components/library/StatusBadge";
 import { EntryHistory } from "@/components/library/EntryHistory";
 import type { LibraryEntryDetail } from "@/lib/db/library";
@@ -113,7 +114,7 @@ export function ReviewDocument(p: ReviewProps) {
             {figures && (
               <p className="num text-sm" data-testid="review-step-figures">
                 Rise time {figures.riseTime === null ? "—" : formatEng(figures.riseTime, "s")} · overshoot {figures.overshootPct.toFixed(1)} %
-                {sim.status === "done" && sim.sim.step.small ? (sim.sim.step.small.grows ? " (small-signal step grows: the loop is unstable)" : ` (small-signal ${sim.sim.step.small.metrics.overshootPct.toFixed(1)} %)`) : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
+                {sim.status === "done" && sim.sim.step.small ? ` (${smallSignalWords(sim.sim.step.small)})` : ""} · settling (±1 %) {figures.settlingTime1pct === null ? "not within the record" : formatEng(figures.settlingTime1pct, "s")} · ringing {figures.ringing.frequencyHz === null ? "none" : formatEng(figures.ringing.frequencyHz, "Hz")}{figures.ringing.estimatorsAgree === false && figures.ringing.uncertaintyHz !== null ? ` (± ${formatEng(figures.ringing.uncertaintyHz, "Hz")}: the estimators disagree)` : ""}
               </p>
             )}
             {notes.length > 0 && (

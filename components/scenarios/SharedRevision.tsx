@@ -10,6 +10,7 @@ import { useSimulation } from "@/components/traces/useSimulation";
 import { ChecksTable } from "@/components/review/ChecksTable";
 import { formatEng } from "@/lib/units/eng";
 import type { ReactNode } from "react";
+import { smallSignalWords } from "@/lib/design/words";
 
 function Figure({ id, label, value }: { id: string; label: string; value: string }) {
   return (
@@ -51,7 +52,7 @@ export function SharedRevision({ body }: { body: unknown }) {
           <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4">
             <Figure id="phase-margin" label="Phase margin (current loop)" value={loop?.phaseMarginDeg == null ? "no crossover" : `${loop.phaseMarginDeg.toFixed(1)}°`} />
             <Figure id="crossover" label="Crossover" value={loop?.crossoverHz == null ? "—" : formatEng(loop.crossoverHz, "Hz")} />
-            <Figure id="overshoot" label="Overshoot" value={m ? `${m.overshootPct.toFixed(1)} %${done?.step.small ? (done.step.small.grows ? " (small-signal step grows)" : ` (small-signal ${done.step.small.metrics.overshootPct.toFixed(1)} %)`) : ""}` : "—"} />
+            <Figure id="overshoot" label="Overshoot" value={m ? `${m.overshootPct.toFixed(1)} %${done?.step.small ? ` (${smallSignalWords(done.step.small)})` : ""}` : "—"} />
             <Figure id="settling" label="Settling (±1 %)" value={m?.settlingTime1pct == null ? "not settled" : formatEng(m.settlingTime1pct, "s")} />
           </dl>
         ) : waiting}

@@ -31,7 +31,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
   const [busy, setBusy] = useState(false);
   const [serverError, setServerError] = useState<{ error: string; problems?: TraceProblem[] } | null>(null);
   const [done, setDone] = useState<string | null>(null);
-  // A file chosen before this form hydrates would be lost: tests wait for data-ready (see useHydrated).
+  // A file chosen before this form hydrates would be lost: tests wait for data-ready (the page's IslandMark too).
   const ready = useHydrated();
 
   const options = useMemo(() => {
@@ -93,7 +93,7 @@ export function TraceUpload({ scenarioId, revisionId, revisionNumber, onUploaded
 
   const problems = serverError?.problems ?? (preview && !preview.ok ? preview.problems : []);
   return (
-    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-island data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
+    <form onSubmit={submit} className="space-y-3" data-testid="trace-upload" data-ready={ready ? "1" : undefined} aria-label="Upload a bench trace">
       <p className="text-xs text-ink-muted">Oscilloscope export (CSV): a time column and one or more channels; settings lines and a header are recognised. Stored against revision {revisionNumber}.</p>
       <div className="flex flex-wrap gap-4">
         <label className="flex flex-col text-sm">

@@ -31,7 +31,6 @@ import { useLatestTrace } from "./useLatestTrace";
 import { ShareDialog } from "@/components/scenarios/ShareDialog";
 import { ForkButton, type Fork } from "@/components/scenarios/ScenarioButtons";
 import { useKeptDraft } from "./useKeptDraft";
-import { useHydrated } from "@/components/shell/useHydrated";
 import { formatDateTime } from "@/lib/shared/dates";
 
 export interface WorkbenchProps {
@@ -310,9 +309,8 @@ function WorkbenchInner(props: WorkbenchProps) {
   const [drawer, setDrawer] = useState(false);
   useShortcuts();
   const kept = useKeptDraft(props.scenarioId, props.revisionId, props.save !== null);
-  const hydrated = useHydrated();
   return (
-    <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench" data-island data-ready={hydrated ? "1" : undefined}>
+    <div className="flex min-h-[calc(100vh-3rem)] flex-col pb-10" data-testid="workbench">
       <Toolbar {...props} />
       {kept.offer && (
         <div role="region" aria-label="Unsaved edits" className="flex flex-wrap items-center gap-2 border-b border-verdict-warn/40 bg-verdict-warn/5 px-4 py-2 text-[13px]" data-testid="draft-offer">

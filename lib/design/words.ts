@@ -34,3 +34,11 @@ export function loadWords(kind: string): string {
 export function passWords(kind: string): string {
   return PASS_WORDS[kind] ?? kind;
 }
+
+/**
+ * The small-signal step's overshoot as an aside to the full step's ("small-signal 40.4 %"), or that it grows (the
+ * closed loop is unstable: no overshoot to quote).
+ */
+export function smallSignalWords(small: { metrics: { overshootPct: number }; grows: boolean }): string {
+  return small.grows ? "small-signal step grows: the loop is unstable" : `small-signal ${small.metrics.overshootPct.toFixed(1)} %`;
+}

@@ -5,6 +5,7 @@ import { tryUpgradeScenario } from "@/lib/design/upgrade";
 import { publicBaseUrl } from "@/lib/shared/tokens";
 import { livePartOptions } from "@/lib/db/parts";
 import { Workbench } from "@/components/workbench/Workbench";
+import { IslandMark } from "@/components/shell/IslandMark";
 import { forkScenario, saveScenarioRevision } from "./actions";
 
 export const dynamic = "force-dynamic";
@@ -32,17 +33,20 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
     );
   }
   return (
-    <Workbench
-      key={row.id}
-      scenario={opened.scenario}
-      title={row.title}
-      scenarioId={row.id}
-      revisionId={row.revisionId}
-      revisionNumber={row.revisionNumber}
-      save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
-      fork={roleAtLeast(user.role, "designer") ? forkScenario : null}
-      share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id, publicUrl: publicBaseUrl() } : null}
-      teamParts={await livePartOptions(user)}
-    />
+    <>
+      <IslandMark />
+      <Workbench
+        key={row.id}
+        scenario={opened.scenario}
+        title={row.title}
+        scenarioId={row.id}
+        revisionId={row.revisionId}
+        revisionNumber={row.revisionNumber}
+        save={roleAtLeast(user.role, "designer") ? saveScenarioRevision : null}
+        fork={roleAtLeast(user.role, "designer") ? forkScenario : null}
+        share={roleAtLeast(user.role, "designer") ? { canPublish: user.role === "lead" || row.ownerId === user.id, publicUrl: publicBaseUrl() } : null}
+        teamParts={await livePartOptions(user)}
+      />
+    </>
   );
 }
